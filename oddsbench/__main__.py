@@ -1,0 +1,5 @@
+"""``python -m oddsbench``."""
+
+from oddsbench.cli.main import entry
+
+entry()

@@ -1,0 +1,374 @@
+"""The ruleset expression language: a small, bounded, exact parser of our own.
+
+Ruleset values such as ``"18/37"`` or ``"(1 - p)^2"`` are text from files that other people
+write, so they are never handed to ``eval`` or ``sympify``. This module tokenises and parses
+them into a tiny tree and evaluates that tree to an exact rational (sympy's ``QQ``), refusing
+anything that could take unbounded time or memory: long literals, huge powers, deep nesting.
+
+Grammar (lowest precedence first)::
+
+    expr    := "if" expr "then" expr "else" expr | either
+    either  := both ("or" both)*
+    both    := negate ("and" negate)*
+    negate  := "not" negate | compare
+    compare := sum (("<" | "<=" | ">" | ">=" | "==" | "!=") sum)?
+    sum     := product (("+" | "-") product)*
+    product := unary (("*" | "/" | "//" | "%") unary)*
+    unary   := ("-" | "+") unary | power
+    power   := atom ("^" unary)?            # right-associative, integer exponents only
+    atom    := number | name | name "(" expr ("," expr)* ")" | "(" expr ")"
+
+Truth values are 1 and 0. Functions: ``min``, ``max``, ``abs``, ``floor``, ``ceil``.
+"""
+
+from __future__ import annotations
+
+import re
+from collections.abc import Callable, Mapping
+from dataclasses import dataclass
+
+from oddsbench.model.numbers import QQ, Rational, bit_size, is_integer, to_int
+
+MAX_TEXT_LENGTH = 2_000
+MAX_LITERAL_DIGITS = 60
+MAX_DEPTH = 60
+MAX_EXPONENT = 4_096
+MAX_RESULT_BITS = 16_384
+
+
+class ExpressionError(ValueError):
+    """A refused or failed expression; the message is one line for the user."""
+
+
+@dataclass(frozen=True)
+class Number:
+    value: Rational
+
+
+@dataclass(frozen=True)
+class Name:
+    name: str
+
+
+@dataclass(frozen=True)
+class Unary:
+    op: str
+    operand: Node
+
+
+@dataclass(frozen=True)
+class Binary:
+    op: str
+    left: Node
+    right: Node
+
+
+@dataclass(frozen=True)
+class Call:
+    function: str
+    args: tuple[Node, ...]
+
+
+@dataclass(frozen=True)
+class Conditional:
+    test: Node
+    then: Node
+    otherwise: Node
+
+
+Node = Number | Name | Unary | Binary | Call | Conditional
+
+_TOKEN = re.compile(
+    r"\s*(?:(?P<number>\d+(?:\.\d+)?|\.\d+)|(?P<name>[A-Za-z_][A-Za-z0-9_]*)"
+    r"|(?P<op>//|<=|>=|==|!=|[-+*/%^(),<>]))"
+)
+_KEYWORDS = frozenset({"if", "then", "else", "and", "or", "not"})
+_FUNCTIONS = frozenset({"min", "max", "abs", "floor", "ceil"})
+_COMPARISONS = ("<=", ">=", "==", "!=", "<", ">")
+
+
+def _tokenize(text: str) -> list[tuple[str, str]]:
+    tokens: list[tuple[str, str]] = []
+    position = 0
+    stripped_end = len(text.rstrip())
+    while position < stripped_end:
+        match = _TOKEN.match(text, position)
+        if match is None or match.end() == position:
+            bad = text[position:].lstrip()[:1]
+            raise ExpressionError(f"unexpected character {bad!r}")
+        kind = match.lastgroup or ""
+        value = match.group(kind)
+        if kind == "number" and len(value.replace(".", "")) > MAX_LITERAL_DIGITS:
+            raise ExpressionError(f"number literal longer than {MAX_LITERAL_DIGITS} digits")
+        if kind == "name" and value in _KEYWORDS:
+            kind = "keyword"
+        tokens.append((kind, value))
+        position = match.end()
+    return tokens
+
+
+class _Parser:
+    def __init__(self, tokens: list[tuple[str, str]]) -> None:
+        self.tokens = tokens
+        self.index = 0
+        self.depth = 0
+
+    def peek(self) -> tuple[str, str]:
+        return self.tokens[self.index] if self.index < len(self.tokens) else ("end", "")
+
+    def take(self, value: str | None = None) -> tuple[str, str]:
+        token = self.peek()
+        if value is not None and token[1] != value:
+            found = token[1] or "end of text"
+            raise ExpressionError(f"expected {value!r} but found {found!r}")
+        if token[0] == "end":
+            raise ExpressionError("unexpected end of text")
+        self.index += 1
+        return token
+
+    def at(self, *values: str) -> bool:
+        kind, value = self.peek()
+        return kind in ("op", "keyword") and value in values
+
+    def nested(self, parse: Callable[[], Node]) -> Node:
+        self.depth += 1
+        if self.depth > MAX_DEPTH:
+            raise ExpressionError(f"expression nested deeper than {MAX_DEPTH} levels")
+        try:
+            return parse()
+        finally:
+            self.depth -= 1
+
+    def expr(self) -> Node:
+        return self.nested(self._expr)
+
+    def _expr(self) -> Node:
+        if self.at("if"):
+            self.take()
+            test = self.expr()
+            self.take("then")
+            then = self.expr()
+            self.take("else")
+            return Conditional(test, then, self.expr())
+        return self.either()
+
+    def either(self) -> Node:
+        node = self.both()
+        while self.at("or"):
+            self.take()
+            node = Binary("or", node, self.both())
+        return node
+
+    def both(self) -> Node:
+        node = self.negate()
+        while self.at("and"):
+            self.take()
+            node = Binary("and", node, self.negate())
+        return node
+
+    def negate(self) -> Node:
+        if self.at("not"):
+            self.take()
+            return Unary("not", self.nested(self.negate))
+        return self.compare()
+
+    def compare(self) -> Node:
+        node = self.sum()
+        if self.at(*_COMPARISONS):
+            op = self.take()[1]
+            node = Binary(op, node, self.sum())
+            if self.at(*_COMPARISONS):
+                raise ExpressionError("chained comparisons need 'and' between them")
+        return node
+
+    def sum(self) -> Node:
+        node = self.product()
+        while self.at("+", "-"):
+            op = self.take()[1]
+            node = Binary(op, node, self.product())
+        return node
+
+    def product(self) -> Node:
+        node = self.unary()
+        while self.at("*", "/", "//", "%"):
+            op = self.take()[1]
+            node = Binary(op, node, self.unary())
+        return node
+
+    def unary(self) -> Node:
+        if self.at("-", "+"):
+            op = self.take()[1]
+            return Unary(op, self.nested(self.unary))
+        return self.power()
+
+    def power(self) -> Node:
+        base = self.atom()
+        if self.at("^"):
+            self.take()
+            return Binary("^", base, self.nested(self.unary))
+        return base
+
+    def atom(self) -> Node:
+        kind, value = self.peek()
+        if kind == "number":
+            self.take()
+            return Number(_literal(value))
+        if kind == "name":
+            self.take()
+            if self.at("("):
+                if value not in _FUNCTIONS:
+                    raise ExpressionError(f"unknown function {value!r}")
+                self.take("(")
+                args = [self.expr()]
+                while self.at(","):
+                    self.take()
+                    args.append(self.expr())
+                self.take(")")
+                return Call(value, tuple(args))
+            if value in _FUNCTIONS:
+                raise ExpressionError(f"function {value!r} needs arguments in parentheses")
+            return Name(value)
+        if self.at("("):
+            self.take()
+            node = self.expr()
+            self.take(")")
+            return node
+        if kind == "end":
+            raise ExpressionError("unexpected end of text")
+        raise ExpressionError(f"unexpected {value!r}")
+
+
+def _literal(text: str) -> Rational:
+    if "." in text:
+        whole, _, fraction = text.partition(".")
+        return QQ(int(whole or "0") * 10 ** len(fraction) + int(fraction), 10 ** len(fraction))
+    return QQ(int(text))
+
+
+def parse(text: str) -> Node:
+    """Parse expression text into a tree, or raise ExpressionError with a one-line reason."""
+    if not isinstance(text, str):
+        raise ExpressionError("expression must be text")
+    if len(text) > MAX_TEXT_LENGTH:
+        raise ExpressionError(f"expression longer than {MAX_TEXT_LENGTH} characters")
+    tokens = _tokenize(text)
+    if not tokens:
+        raise ExpressionError("empty expression")
+    parser = _Parser(tokens)
+    node = parser.expr()
+    if parser.index != len(tokens):
+        raise ExpressionError(f"unexpected {parser.peek()[1]!r}")
+    return node
+
+
+def names_in(node: Node) -> set[str]:
+    """Every parameter name the expression refers to."""
+    if isinstance(node, Name):
+        return {node.name}
+    if isinstance(node, Unary):
+        return names_in(node.operand)
+    if isinstance(node, Binary):
+        return names_in(node.left) | names_in(node.right)
+    if isinstance(node, Call):
+        return set().union(*(names_in(arg) for arg in node.args))
+    if isinstance(node, Conditional):
+        return names_in(node.test) | names_in(node.then) | names_in(node.otherwise)
+    return set()
+
+
+def _checked(value: Rational) -> Rational:
+    if bit_size(value) > MAX_RESULT_BITS:
+        raise ExpressionError(f"number too large (more than {MAX_RESULT_BITS} bits)")
+    return value
+
+
+def _truth(flag: bool) -> Rational:
+    return QQ(1) if flag else QQ(0)
+
+
+def _power(base: Rational, exponent: Rational) -> Rational:
+    if not is_integer(exponent):
+        raise ExpressionError("exponent must be a whole number")
+    n = to_int(exponent)
+    if abs(n) > MAX_EXPONENT:
+        raise ExpressionError(f"exponent {n} is beyond the limit of {MAX_EXPONENT}")
+    if base == 0 and n < 0:
+        raise ExpressionError("division by zero")
+    if bit_size(base) * abs(n) > MAX_RESULT_BITS:
+        raise ExpressionError(f"number too large (more than {MAX_RESULT_BITS} bits)")
+    result = base ** abs(n)
+    return QQ(1) / result if n < 0 else result
+
+
+def _floor(value: Rational) -> Rational:
+    return QQ(QQ.numer(value) // QQ.denom(value))
+
+
+def _apply(op: str, left: Rational, right: Rational) -> Rational:
+    if op == "+":
+        return left + right
+    if op == "-":
+        return left - right
+    if op == "*":
+        return left * right
+    if op in ("/", "//", "%"):
+        if right == 0:
+            raise ExpressionError("division by zero")
+        if op == "/":
+            return left / right
+        quotient = _floor(left / right)
+        return quotient if op == "//" else left - right * quotient
+    if op == "^":
+        return _power(left, right)
+    comparisons = {
+        "<": left < right,
+        "<=": left <= right,
+        ">": left > right,
+        ">=": left >= right,
+        "==": left == right,
+        "!=": left != right,
+    }
+    return _truth(comparisons[op])
+
+
+def evaluate(node: Node, env: Mapping[str, Rational]) -> Rational:
+    """Evaluate a parsed expression exactly; names come from ``env`` (params, index variables)."""
+    if isinstance(node, Number):
+        return node.value
+    if isinstance(node, Name):
+        if node.name not in env:
+            raise ExpressionError(f"unknown parameter {node.name!r}")
+        return env[node.name]
+    if isinstance(node, Unary):
+        value = evaluate(node.operand, env)
+        if node.op == "not":
+            return _truth(value == 0)
+        return -value if node.op == "-" else value
+    if isinstance(node, Conditional):
+        chosen = node.then if evaluate(node.test, env) != 0 else node.otherwise
+        return evaluate(chosen, env)
+    if isinstance(node, Binary):
+        left = evaluate(node.left, env)
+        if node.op == "and":
+            return _truth(left != 0 and evaluate(node.right, env) != 0)
+        if node.op == "or":
+            return _truth(left != 0 or evaluate(node.right, env) != 0)
+        return _checked(_apply(node.op, left, evaluate(node.right, env)))
+    if isinstance(node, Call):
+        values = [evaluate(arg, env) for arg in node.args]
+        if node.function in ("min", "max"):
+            return min(values) if node.function == "min" else max(values)
+        if len(values) != 1:
+            raise ExpressionError(f"{node.function} takes one argument")
+        (value,) = values
+        if node.function == "abs":
+            return abs(value)
+        if node.function == "floor":
+            return _floor(value)
+        return -_floor(-value)
+    raise ExpressionError("unsupported expression")
+
+
+def evaluate_text(text: str, env: Mapping[str, Rational] | None = None) -> Rational:
+    """Parse and evaluate in one step."""
+    return evaluate(parse(text), env or {})

@@ -1,0 +1,377 @@
+"""Read a ruleset file (TOML, format version 1) into exact data, collecting every problem.
+
+Reading never raises for a bad file: each problem becomes a ``Problem`` line naming the file,
+the state and the field, and the caller decides (the CLI exits 2, the TUI shows it inline).
+"""
+
+from __future__ import annotations
+
+import tomllib
+from collections.abc import Callable
+from dataclasses import dataclass
+from pathlib import Path
+from typing import Any
+
+from oddsbench.model.errors import Problem, RulesetError
+from oddsbench.model.expr import ExpressionError, evaluate, names_in, parse
+from oddsbench.model.numbers import QQ, Rational, text
+from oddsbench.model.ruleset import Outcome, Ruleset, State, Strategy
+
+MAX_FILE_BYTES = 2_000_000
+MAX_NAME_LENGTH = 200
+
+RULESET_KEYS = frozenset({"title", "about", "start", "stake", "version"})
+STATE_KEYS = frozenset({"outcomes", "choices", "result", "about"})
+OUTCOME_KEYS = frozenset({"to", "prob", "pay", "stake", "note"})
+TOP_KEYS = frozenset({"ruleset", "params", "states", "strategies", "session", "families"})
+
+# Hooks through which later layers of the file format (families of states) extend reading
+# without this module knowing them: each takes the raw document, the source name and the
+# problem list, and returns extra raw state tables to read as if written out by hand.
+StateExpander = Callable[[dict[str, Any], str, list[Problem], dict[str, Rational]], dict[str, Any]]
+STATE_EXPANDERS: list[StateExpander] = []
+
+
+@dataclass(frozen=True)
+class LoadResult:
+    """What reading found: the ruleset (None when any error) and every problem, in order."""
+
+    ruleset: Ruleset | None
+    problems: tuple[Problem, ...]
+
+    @property
+    def errors(self) -> tuple[Problem, ...]:
+        return tuple(p for p in self.problems if p.is_error)
+
+    @property
+    def warnings(self) -> tuple[Problem, ...]:
+        return tuple(p for p in self.problems if not p.is_error)
+
+
+def read_ruleset_file(path: str | Path) -> LoadResult:
+    """Read and validate a ruleset file; never raises for bad content."""
+    path = Path(path)
+    source = path.name
+    try:
+        if path.is_dir():
+            return _failed(source, "is a folder, not a ruleset file")
+        size = path.stat().st_size
+        if size > MAX_FILE_BYTES:
+            return _failed(source, f"file is {size:,} bytes, over the limit of {MAX_FILE_BYTES:,}")
+        raw = path.read_bytes()
+    except FileNotFoundError:
+        return _failed(source, "no such file")
+    except OSError as error:
+        return _failed(source, f"cannot be read: {error.strerror or error}")
+    try:
+        content = raw.decode("utf-8")
+    except UnicodeDecodeError as error:
+        return _failed(source, f"is not UTF-8 text (bad byte at position {error.start})")
+    return read_ruleset_text(content, source)
+
+
+def read_ruleset_text(content: str, source: str = "<text>") -> LoadResult:
+    """Read and validate ruleset text; the heart of ``oddsbench check``."""
+    if len(content.encode("utf-8", "surrogatepass")) > MAX_FILE_BYTES:
+        return _failed(source, f"text is over the limit of {MAX_FILE_BYTES:,} bytes")
+    if not content.strip():
+        return _failed(source, "file is empty")
+    try:
+        document = tomllib.loads(content)
+    except tomllib.TOMLDecodeError as error:
+        return _failed(source, f"not valid TOML: {error}")
+    except RecursionError:
+        return _failed(source, "not valid TOML: nested too deeply")
+    problems: list[Problem] = []
+    ruleset = _Reader(source, problems).read(document)
+    if ruleset is not None:
+        from oddsbench.model.validate import validate
+
+        problems.extend(validate(ruleset))
+    has_error = any(problem.is_error for problem in problems)
+    return LoadResult(None if has_error else ruleset, tuple(problems))
+
+
+def load_ruleset(path: str | Path) -> Ruleset:
+    """Read a ruleset file or raise RulesetError with every problem."""
+    return _unwrap(read_ruleset_file(path))
+
+
+def load_ruleset_text(content: str, source: str = "<text>") -> Ruleset:
+    """Read ruleset text or raise RulesetError with every problem."""
+    return _unwrap(read_ruleset_text(content, source))
+
+
+def _unwrap(result: LoadResult) -> Ruleset:
+    if result.ruleset is None:
+        raise RulesetError(result.problems)
+    return result.ruleset
+
+
+def _failed(source: str, message: str) -> LoadResult:
+    return LoadResult(None, (Problem(source, "", message),))
+
+
+def describe_value(value: Any) -> str:
+    """A short echo of a field's value for messages: strings quoted, long ones cut."""
+    shown = f'"{value}"' if isinstance(value, str) else repr(value)
+    return shown if len(shown) <= 60 else shown[:57] + '..."'
+
+
+def type_name(value: Any) -> str:
+    return {
+        bool: "true/false",
+        int: "a whole number",
+        float: "a decimal number",
+        str: "text",
+        list: "a list",
+        dict: "a table",
+    }.get(type(value), type(value).__name__)
+
+
+class _Reader:
+    """One pass over the TOML document; records problems instead of raising."""
+
+    def __init__(self, source: str, problems: list[Problem]) -> None:
+        self.source = source
+        self.problems = problems
+        self.params: dict[str, Rational] = {}
+
+    def error(self, where: str, message: str) -> None:
+        self.problems.append(Problem(self.source, where, message))
+
+    def warn(self, where: str, message: str) -> None:
+        self.problems.append(Problem(self.source, where, message, "warning"))
+
+    def unknown_keys(self, table: dict[str, Any], known: frozenset[str], where: str) -> None:
+        for key in table:
+            if key not in known:
+                self.warn(where, f"unknown field {key!r} is ignored")
+
+    def value(self, raw: Any, where: str, env: dict[str, Rational] | None = None) -> Rational | None:
+        """An exact value from a TOML integer or an expression string; None after an error."""
+        if isinstance(raw, bool):
+            self.error(where, "must be a number or an expression in quotes, not true/false")
+            return None
+        if isinstance(raw, int):
+            return QQ(raw)
+        if isinstance(raw, float):
+            self.error(where, f'write decimals in quotes ("{raw}") so they stay exact')
+            return None
+        if not isinstance(raw, str):
+            self.error(where, f"must be a number or an expression in quotes, not {type_name(raw)}")
+            return None
+        try:
+            return evaluate(parse(raw), self.params if env is None else env)
+        except ExpressionError as error:
+            self.error(where, str(error))
+            return None
+        except RecursionError:
+            self.error(where, "expression nested too deeply")
+            return None
+
+    def text_field(self, table: dict[str, Any], key: str, where: str, required: bool) -> str | None:
+        if key not in table:
+            if required:
+                self.error(where, f"missing required field {key!r}")
+            return None
+        raw = table[key]
+        if not isinstance(raw, str):
+            self.error(f"{where}, {key}", f"must be text, not {type_name(raw)}")
+            return None
+        return raw
+
+    def read(self, document: dict[str, Any]) -> Ruleset | None:
+        self.unknown_keys(document, TOP_KEYS, "")
+        head = document.get("ruleset")
+        if not isinstance(head, dict):
+            self.error("", "missing [ruleset] table" if head is None else "[ruleset] must be a table")
+            head = {}
+        self.unknown_keys(head, RULESET_KEYS, "[ruleset]")
+        title = self.text_field(head, "title", "[ruleset]", required=True)
+        about = self.text_field(head, "about", "[ruleset]", required=False) or ""
+        start = self.text_field(head, "start", "[ruleset]", required=True)
+        stake = self.value(head.get("stake", 1), "[ruleset], stake")
+        if stake is not None and stake <= 0:
+            self.error("[ruleset], stake", f"must be more than 0, got {text(stake)}")
+        self.read_params(document.get("params", {}))
+        states = self.read_states(document)
+        strategies = self.read_strategies(document.get("strategies", {}))
+        session = document.get("session", {})
+        if not isinstance(session, dict):
+            self.error("[session]", f"must be a table, not {type_name(session)}")
+            session = {}
+        if any(problem.is_error for problem in self.problems):
+            return None
+        return Ruleset(
+            title=title or "",
+            about=about,
+            start=start or "",
+            stake=stake,
+            states=tuple(states),
+            source=self.source,
+            params=tuple(self.params.items()),
+            strategies=tuple(strategies),
+            session=session,
+        )
+
+    def read_params(self, raw: Any) -> None:
+        if not isinstance(raw, dict):
+            self.error("[params]", f"must be a table, not {type_name(raw)}")
+            return
+        for name, value in raw.items():
+            where = f"param {name!r}"
+            try:
+                parse(name)
+                if set(names_in(parse(name))) != {name}:
+                    raise ExpressionError("not a plain name")
+            except ExpressionError:
+                self.error(where, "a parameter name must be letters, digits and _ (not starting with a digit)")
+                continue
+            result = self.value(value, where)
+            if result is not None:
+                self.params[name] = result
+
+    def read_states(self, document: dict[str, Any]) -> list[State]:
+        raw_states = document.get("states")
+        if raw_states is None:
+            raw_states = {}
+        if not isinstance(raw_states, dict):
+            self.error("[states]", f"must be a table, not {type_name(raw_states)}")
+            return []
+        tables: dict[str, Any] = dict(raw_states)
+        for expand in STATE_EXPANDERS:
+            for name, table in expand(document, self.source, self.problems, self.params).items():
+                if name in tables:
+                    self.error(f"state {name!r}", "defined twice (by hand and by a family)")
+                    continue
+                tables[name] = table
+        if not tables:
+            self.error("[states]", "no states: a ruleset needs at least one state")
+        return [state for name, table in tables.items() if (state := self.read_state(name, table))]
+
+    def read_state(self, name: str, table: Any) -> State | None:
+        where = f"state {name!r}"
+        if not name.strip():
+            self.error(where, "a state name must not be blank")
+            return None
+        if len(name) > MAX_NAME_LENGTH:
+            self.error(f"state {name[:40]!r}...", f"name longer than {MAX_NAME_LENGTH} characters")
+            return None
+        if not isinstance(table, dict):
+            self.error(where, f"must be a table, not {type_name(table)}")
+            return None
+        self.unknown_keys(table, STATE_KEYS, where)
+        result = self.text_field(table, "result", where, required=False)
+        outcomes: tuple[Outcome, ...] = ()
+        choices: list[tuple[str, tuple[Outcome, ...]]] = []
+        if "outcomes" in table and "choices" in table:
+            self.error(where, "has both 'outcomes' and 'choices': a state has one or the other")
+            return None
+        if "outcomes" in table:
+            outcomes = self.read_outcomes(table["outcomes"], where, "outcomes")
+            if not outcomes and isinstance(table["outcomes"], list) and not table["outcomes"]:
+                self.warn(where, "'outcomes' is empty, so this state ends the round")
+        if "choices" in table:
+            raw_choices = table["choices"]
+            if not isinstance(raw_choices, dict) or not raw_choices:
+                self.error(f"{where}, choices", "must be a table of action = [outcomes]")
+                return None
+            for action, raw in raw_choices.items():
+                listed = self.read_outcomes(raw, f"{where}, choice {action!r}", f"choices.{action}")
+                if listed:
+                    choices.append((action, listed))
+        return State(name=name, outcomes=outcomes, choices=tuple(choices), result=result)
+
+    def read_outcomes(self, raw: Any, where: str, field_name: str) -> tuple[Outcome, ...]:
+        if not isinstance(raw, list):
+            self.error(f"{where}, {field_name}", f"must be a list of outcome tables, not {type_name(raw)}")
+            return ()
+        read: list[tuple[dict[str, Any], Rational | None, str]] = []
+        failed = False
+        for index, item in enumerate(raw, start=1):
+            place = f"{where}, outcome {index}"
+            if not isinstance(item, dict):
+                self.error(place, f'must be a table like {{ to = "...", prob = "..." }}, not {type_name(item)}')
+                failed = True
+                continue
+            self.unknown_keys(item, OUTCOME_KEYS, place)
+            if "to" not in item:
+                self.error(place, "missing required field 'to'")
+                failed = True
+            elif not isinstance(item["to"], str):
+                self.error(f"{place}, to", f"must be a state name in quotes, not {type_name(item['to'])}")
+                failed = True
+            prob = None
+            if "prob" in item:
+                prob = self.value(item["prob"], f"{place}, prob {describe_value(item['prob'])}")
+                if prob is None:
+                    failed = True
+                elif prob < 0 or prob > 1:
+                    self.error(
+                        f"{place}, prob {describe_value(item['prob'])}", f"must be between 0 and 1, got {text(prob)}"
+                    )
+                    failed = True
+            read.append((item, prob, place))
+        explicit = sum((prob for item, prob, _ in read if prob is not None), QQ(0))
+        omitted = [place for item, prob, place in read if "prob" not in item]
+        share = QQ(0)
+        if omitted and not failed:
+            leftover = QQ(1) - explicit
+            if leftover < 0:
+                self.error(
+                    where,
+                    f"given probabilities already sum to {text(explicit)}, more than 1, "
+                    f"so nothing is left for the {len(omitted)} outcome(s) without 'prob'",
+                )
+                failed = True
+            else:
+                share = leftover / len(omitted)
+        outcomes: list[Outcome] = []
+        for item, prob, place in read:
+            pay = self.value(item.get("pay", 0), f"{place}, pay {describe_value(item.get('pay', 0))}")
+            stake = self.value(item.get("stake", 0), f"{place}, stake {describe_value(item.get('stake', 0))}")
+            if stake is not None and stake < 0:
+                self.error(f"{place}, stake", f"extra stake cannot be negative, got {text(stake)}")
+                failed = True
+            note = item.get("note", "")
+            if not isinstance(note, str):
+                self.error(f"{place}, note", f"must be text, not {type_name(note)}")
+                failed = True
+            if pay is None or stake is None or failed:
+                failed = True
+                continue
+            outcomes.append(
+                Outcome(
+                    to=item["to"],
+                    prob=prob if prob is not None else share,
+                    pay=pay,
+                    stake=stake,
+                    note=note,
+                    prob_given=prob is not None,
+                )
+            )
+        return () if failed else tuple(outcomes)
+
+    def read_strategies(self, raw: Any) -> list[Strategy]:
+        if not isinstance(raw, dict):
+            self.error("[strategies]", f"must be a table, not {type_name(raw)}")
+            return []
+        strategies = []
+        for name, table in raw.items():
+            where = f"strategy {name!r}"
+            if not isinstance(table, dict):
+                self.error(where, f'must be a table of state = "action", not {type_name(table)}')
+                continue
+            actions = []
+            default = None
+            for state_name, action in table.items():
+                if not isinstance(action, str):
+                    self.error(f"{where}, {state_name}", f"action must be text, not {type_name(action)}")
+                    continue
+                if state_name == "default":
+                    default = action
+                else:
+                    actions.append((state_name, action))
+            strategies.append(Strategy(name=name, actions=tuple(actions), default=default))
+        return strategies

@@ -1,0 +1,60 @@
+"""Exact rationals for the whole project: sympy's QQ domain (FLINT's fmpq underneath).
+
+Every module takes its exact numbers from here so the number type, its conversions and its
+size measures live in one place.
+"""
+
+from __future__ import annotations
+
+from typing import Any
+
+from sympy.polys.domains import QQ, ZZ
+
+Rational = Any  # an element of QQ (flint.fmpq or sympy's PythonMPQ, depending on ground types)
+
+__all__ = ["QQ", "ZZ", "Rational", "bit_size", "is_integer", "to_int", "to_float", "text", "parse_fraction"]
+
+
+def numerator(value: Rational) -> int:
+    return int(QQ.numer(value))
+
+
+def denominator(value: Rational) -> int:
+    return int(QQ.denom(value))
+
+
+def bit_size(value: Rational) -> int:
+    """Bits in numerator plus denominator: the measure our size limits use."""
+    return numerator(value).bit_length() + denominator(value).bit_length()
+
+
+def is_integer(value: Rational) -> bool:
+    return denominator(value) == 1
+
+
+def to_int(value: Rational) -> int:
+    return numerator(value) // denominator(value)
+
+
+def to_float(value: Rational) -> float:
+    """Correctly rounded float of an exact value (Python's int division rounds exactly)."""
+    try:
+        return numerator(value) / denominator(value)
+    except OverflowError:
+        return float("inf") if value > 0 else float("-inf")
+
+
+def text(value: Rational) -> str:
+    """Exact text: ``7/495``, ``-1``, ``0``."""
+    p, q = numerator(value), denominator(value)
+    return str(p) if q == 1 else f"{p}/{q}"
+
+
+def parse_fraction(value: str) -> Rational:
+    """Inverse of ``text`` for trusted machine output (integers and a/b only)."""
+    top, _, bottom = value.partition("/")
+    return QQ(int(top), int(bottom or "1"))
+
+
+def from_int(value: int) -> Rational:
+    return QQ(int(value))

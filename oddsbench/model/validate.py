@@ -1,0 +1,159 @@
+"""Checks on a read ruleset: exact sums, known targets, a round that can end, reachability."""
+
+from __future__ import annotations
+
+from collections.abc import Iterable, Mapping
+
+from oddsbench.model.errors import Problem
+from oddsbench.model.numbers import QQ, text
+from oddsbench.model.ruleset import Outcome, Ruleset, State
+
+MAX_LISTED_STATES = 8
+
+
+def validate(ruleset: Ruleset) -> list[Problem]:
+    """Every problem with the ruleset's graph and sums, errors and warnings alike."""
+    problems: list[Problem] = []
+    source = ruleset.source
+
+    def error(where: str, message: str) -> None:
+        problems.append(Problem(source, where, message))
+
+    def warn(where: str, message: str) -> None:
+        problems.append(Problem(source, where, message, "warning"))
+
+    names = set(ruleset.state_names)
+    if ruleset.start and ruleset.start not in names:
+        error("[ruleset], start", f"unknown state {ruleset.start!r}{_suggest(ruleset.start, names)}")
+    for state in ruleset.states:
+        for label, outcomes in _outcome_lists(state):
+            where = f"state {state.name!r}{label}"
+            for index, outcome in enumerate(outcomes, start=1):
+                if outcome.to not in names:
+                    error(f"{where}, outcome {index}, to", f"unknown state {outcome.to!r}{_suggest(outcome.to, names)}")
+            total = sum((outcome.prob for outcome in outcomes), QQ(0))
+            if total != 1:
+                error(where, f"probabilities sum to {text(total)}, not 1")
+    problems.extend(_check_strategies(ruleset))
+    if any(problem.is_error for problem in problems) or not ruleset.start:
+        return problems
+
+    graph = successor_graph(ruleset.states)
+    reachable = reachable_from(ruleset.start, graph)
+    ends = {state.name for state in ruleset.states if state.is_end}
+    can_end = reaching(ends, graph)
+    for trapped_set in trapped_sets(reachable - can_end, graph):
+        shown = _listing(sorted(trapped_set, key=ruleset.state_names.index))
+        first = min(trapped_set, key=ruleset.state_names.index)
+        error(f"state {first!r}", f"the round can never end from here: trapped in {{{shown}}}")
+    unreachable = [name for name in ruleset.state_names if name not in reachable]
+    if unreachable:
+        warn("", f"unreachable from start {ruleset.start!r}: {_listing(unreachable)}")
+    return problems
+
+
+def _outcome_lists(state: State) -> Iterable[tuple[str, tuple[Outcome, ...]]]:
+    if state.outcomes:
+        yield "", state.outcomes
+    for action, outcomes in state.choices:
+        yield f", choice {action!r}", outcomes
+
+
+def successor_graph(states: Iterable[State]) -> dict[str, set[str]]:
+    """Each state's possible next states (probability above zero, under any choice)."""
+    graph: dict[str, set[str]] = {}
+    for state in states:
+        targets = graph.setdefault(state.name, set())
+        for _, outcomes in _outcome_lists(state):
+            targets.update(outcome.to for outcome in outcomes if outcome.prob > 0)
+    return graph
+
+
+def reachable_from(start: str, graph: Mapping[str, set[str]]) -> set[str]:
+    seen = {start}
+    stack = [start]
+    while stack:
+        for target in graph.get(stack.pop(), ()):
+            if target not in seen:
+                seen.add(target)
+                stack.append(target)
+    return seen
+
+
+def reaching(targets: set[str], graph: Mapping[str, set[str]]) -> set[str]:
+    """States from which some state in ``targets`` can be reached."""
+    backward: dict[str, set[str]] = {}
+    for source, successors in graph.items():
+        for target in successors:
+            backward.setdefault(target, set()).add(source)
+    seen = set(targets)
+    stack = list(targets)
+    while stack:
+        for source in backward.get(stack.pop(), ()):
+            if source not in seen:
+                seen.add(source)
+                stack.append(source)
+    return seen
+
+
+def trapped_sets(stuck: set[str], graph: Mapping[str, set[str]]) -> list[set[str]]:
+    """The closed classes the stuck states fall into (bottom strongly connected components)."""
+    closed: list[set[str]] = []
+    assigned: set[str] = set()
+    for name in sorted(stuck):
+        if name in assigned:
+            continue
+        component = reachable_from(name, graph)
+        if all(name in reachable_from(member, graph) for member in component):
+            closed.append(component)
+            assigned |= component
+    return closed
+
+
+def _check_strategies(ruleset: Ruleset) -> list[Problem]:
+    problems = []
+    decision_states = {state.name: state for state in ruleset.states if state.is_decision}
+    for strategy in ruleset.strategies:
+        where = f"strategy {strategy.name!r}"
+        for state_name, action in strategy.actions:
+            state = decision_states.get(state_name)
+            if state is None:
+                reason = "no such state" if state_name not in ruleset.state_names else "not a decision state"
+                problems.append(Problem(ruleset.source, f"{where}, {state_name}", reason))
+            elif action not in state.actions:
+                problems.append(
+                    Problem(
+                        ruleset.source,
+                        f"{where}, {state_name}",
+                        f"unknown action {action!r} (choose from {', '.join(state.actions)})",
+                    )
+                )
+        for state in decision_states.values():
+            action = strategy.action_for(state)
+            if action is None:
+                problems.append(
+                    Problem(ruleset.source, where, f"no action for decision state {state.name!r} and no default")
+                )
+            elif action not in state.actions and all(name != state.name for name, _ in strategy.actions):
+                problems.append(
+                    Problem(
+                        ruleset.source,
+                        f"{where}, default",
+                        f"action {action!r} is not offered in state {state.name!r} "
+                        f"(choose from {', '.join(state.actions)})",
+                    )
+                )
+    return problems
+
+
+def _listing(names: list[str]) -> str:
+    shown = ", ".join(repr(name) for name in names[:MAX_LISTED_STATES])
+    more = len(names) - MAX_LISTED_STATES
+    return shown + (f" and {more} more" if more > 0 else "")
+
+
+def _suggest(name: str, names: set[str]) -> str:
+    import difflib
+
+    close = difflib.get_close_matches(name, sorted(names), n=1)
+    return f" (did you mean {close[0]!r}?)" if close else ""

@@ -1,0 +1,273 @@
+"""Every figure of one round, exactly and in floating point, by first-step analysis.
+
+With N = (I - Q)^-1 over the transient states, end probabilities are N R, expected totals
+are N r for the one-step expectation r, and second moments come from one more solve with the
+first moments on the right. Both engines solve the same systems; the exact results are the
+truth, their decimals are what is shown, and the float engine is checked against them.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Callable
+from dataclasses import dataclass, field
+
+import numpy as np
+
+from oddsbench.chain.round_chain import RoundChain
+from oddsbench.model.numbers import QQ, Rational, to_float
+from oddsbench.solve.decimal_linear import DecimalSparseLU, q_matrix_from_rows
+from oddsbench.solve.exact_linear import ExactSparseLU, identity_minus
+
+DEFAULT_EXACT_LIMIT = 5_000
+DEFAULT_STEP_BUDGET = 20_000_000
+RELATIVE_TOLERANCE = 1e-9
+ZERO_TOLERANCE = 1e-12
+
+FIGURE_ORDER = (
+    "expected_net",
+    "expected_staked",
+    "house_edge",
+    "return_to_player",
+    "net_variance",
+    "expected_steps",
+    "steps_variance",
+)
+
+
+@dataclass(frozen=True)
+class Figure:
+    """One quantity: the exact rational (None where exact arithmetic was skipped) and its decimal."""
+
+    exact: Rational | None
+    decimal: float
+
+
+@dataclass(frozen=True)
+class RoundFigures:
+    """All figures of one round from its start state."""
+
+    title: str
+    start: str
+    states: int
+    figures: dict[str, Figure]
+    end_probability: dict[str, Figure]
+    result_probability: dict[str, Figure]
+    end_results: dict[str, str | None]
+    rounds: int | None = None
+    end_probability_by_step: dict[str, Figure] = field(default_factory=dict)
+    notes: tuple[str, ...] = ()
+    actions: tuple[tuple[str, str], ...] = ()
+
+    @property
+    def exact(self) -> bool:
+        return all(figure.exact is not None for figure in self.figures.values())
+
+
+@dataclass
+class _Moments:
+    """Raw solutions from one engine, values at the start state."""
+
+    end: list
+    net: object
+    staked_extra: object
+    net_second: object
+    steps: object
+    steps_second: object
+
+
+def solve_round(
+    chain: RoundChain,
+    rounds: int | None = None,
+    exact_limit: int = DEFAULT_EXACT_LIMIT,
+    should_stop: Callable[[], bool] | None = None,
+) -> RoundFigures:
+    """Solve a round chain both ways and collect figures, notes and checks."""
+    notes: list[str] = []
+    exact = None
+    if chain.transient_count <= exact_limit:
+        exact = _exact_moments(chain, should_stop)
+    else:
+        notes.append(
+            f"exact arithmetic skipped: {chain.transient_count:,} transient states exceed the exact "
+            f"limit of {exact_limit:,} (raise it with --exact-limit); decimals are from the float engine"
+        )
+    decimal = _decimal_moments(chain)
+    figures, ends = _figures(chain, exact, decimal, notes)
+    results = _by_result(chain, ends)
+    by_step: dict[str, Figure] = {}
+    if rounds is not None:
+        by_step = _by_step(chain, rounds, exact is not None, notes, should_stop)
+        figures["ended_by"] = _sum_figures(list(by_step.values()))
+    return RoundFigures(
+        title=chain.title,
+        start=chain.names[0],
+        states=len(chain.names),
+        figures=figures,
+        end_probability=ends,
+        result_probability=results,
+        end_results=dict(zip(chain.ends, chain.end_results)),
+        rounds=rounds,
+        end_probability_by_step=by_step,
+        notes=tuple(notes),
+        actions=chain.actions,
+    )
+
+
+def _one_step(chain: RoundChain, weight: Callable) -> list:
+    totals = [QQ(0)] * chain.transient_count
+    for edge in chain.edges:
+        totals[edge.source] += edge.prob * weight(edge)
+    return totals
+
+
+def _exact_moments(chain: RoundChain, should_stop: Callable[[], bool] | None) -> _Moments | None:
+    n = chain.transient_count
+    if n == 0:
+        return _Moments([QQ(1)], QQ(0), QQ(0), QQ(0), QQ(0), QQ(0))
+    lu = ExactSparseLU(identity_minus(chain.q_rows()), should_stop)
+    end = [lu.solve(column)[0] for column in chain.end_columns()]
+    net = lu.solve(_one_step(chain, lambda e: e.pay))
+    extra = lu.solve(_one_step(chain, lambda e: e.stake))
+
+    def net_after(edge) -> Rational:
+        return net[edge.target] if edge.target < n else QQ(0)
+
+    net_second = lu.solve(_one_step(chain, lambda e: e.pay * e.pay + 2 * e.pay * net_after(e)))
+    steps = lu.solve([QQ(1)] * n)
+    steps_second = lu.solve([2 * t - 1 for t in steps])
+    return _Moments(end, net[0], extra[0], net_second[0], steps[0], steps_second[0])
+
+
+def _decimal_moments(chain: RoundChain) -> _Moments:
+    n = chain.transient_count
+    if n == 0:
+        return _Moments([1.0], 0.0, 0.0, 0.0, 0.0, 0.0)
+    rows = [{j: to_float(v) for j, v in row.items()} for row in chain.q_rows()]
+    lu = DecimalSparseLU(q_matrix_from_rows(rows, n))
+    source = np.fromiter((e.source for e in chain.edges), dtype=np.int64)
+    target = np.fromiter((e.target for e in chain.edges), dtype=np.int64)
+    prob = np.fromiter((to_float(e.prob) for e in chain.edges), dtype=float)
+    pay = np.fromiter((to_float(e.pay) for e in chain.edges), dtype=float)
+    stake = np.fromiter((to_float(e.stake) for e in chain.edges), dtype=float)
+
+    def one_step(values: np.ndarray) -> np.ndarray:
+        return np.bincount(source, weights=prob * values, minlength=n)
+
+    end_columns = np.zeros((n, len(chain.ends)))
+    into_end = target >= n
+    np.add.at(end_columns, (source[into_end], target[into_end] - n), prob[into_end])
+    rhs = np.column_stack([end_columns, one_step(pay), one_step(stake), np.ones(n)])
+    solved = lu.solve(rhs)
+    ends_count = len(chain.ends)
+    net, extra, steps = solved[:, ends_count], solved[:, ends_count + 1], solved[:, ends_count + 2]
+    net_after = np.where(target < n, net[np.minimum(target, n - 1)], 0.0)
+    second = lu.solve(np.column_stack([one_step(pay * pay + 2 * pay * net_after), 2 * steps - 1]))
+    return _Moments(list(solved[0, :ends_count]), net[0], extra[0], second[0, 0], steps[0], second[0, 1])
+
+
+def _figures(chain: RoundChain, exact: _Moments | None, decimal: _Moments, notes: list[str]):
+    stake_exact = chain.stake
+    stake = to_float(stake_exact)
+    values_decimal = {
+        "expected_net": decimal.net,
+        "expected_staked": stake + decimal.staked_extra,
+        "net_variance": decimal.net_second - decimal.net**2,
+        "expected_steps": decimal.steps,
+        "steps_variance": decimal.steps_second - decimal.steps**2,
+    }
+    values_decimal["house_edge"] = -values_decimal["expected_net"] / values_decimal["expected_staked"]
+    values_decimal["return_to_player"] = 1 - values_decimal["house_edge"]
+    values_exact: dict[str, Rational | None] = dict.fromkeys(FIGURE_ORDER)
+    if exact is not None:
+        staked = stake_exact + exact.staked_extra
+        values_exact = {
+            "expected_net": exact.net,
+            "expected_staked": staked,
+            "house_edge": -exact.net / staked,
+            "return_to_player": 1 + exact.net / staked,
+            "net_variance": exact.net_second - exact.net**2,
+            "expected_steps": exact.steps,
+            "steps_variance": exact.steps_second - exact.steps**2,
+        }
+    figures = {name: _checked(name, values_exact[name], values_decimal[name], notes) for name in FIGURE_ORDER}
+    ends = {
+        name: _checked(f"end_probability[{name}]", exact.end[j] if exact else None, decimal.end[j], notes)
+        for j, name in enumerate(chain.ends)
+    }
+    return figures, ends
+
+
+def _checked(name: str, exact: Rational | None, decimal: float, notes: list[str]) -> Figure:
+    """The figure to show, with a note where the float engine disagrees with the exact one."""
+    decimal = float(decimal)
+    if exact is None:
+        if not np.isfinite(decimal):
+            notes.append(f"{name}: the float engine gave {decimal}; no exact value to fall back on")
+        return Figure(None, decimal)
+    truth = to_float(exact)
+    gap = abs(decimal - truth)
+    limit = RELATIVE_TOLERANCE * abs(truth) if truth != 0 else ZERO_TOLERANCE
+    if not np.isfinite(decimal) or gap > limit:
+        notes.append(
+            f"numerical warning: {name}: float engine gives {decimal!r}, exact value is {truth!r}; "
+            "the exact value is shown"
+        )
+    return Figure(exact, truth)
+
+
+def _sum_figures(figures: list[Figure]) -> Figure:
+    if figures and all(f.exact is not None for f in figures):
+        total = sum((f.exact for f in figures), QQ(0))
+        return Figure(total, to_float(total))
+    return Figure(None, float(sum(f.decimal for f in figures)))
+
+
+def _by_result(chain: RoundChain, ends: dict[str, Figure]) -> dict[str, Figure]:
+    """Chance of each result label (win, loss, push, ...) over the end states carrying it."""
+    grouped: dict[str, list[Figure]] = {}
+    for name, result in zip(chain.ends, chain.end_results):
+        if result:
+            grouped.setdefault(result, []).append(ends[name])
+    return {label: _sum_figures(figures) for label, figures in grouped.items()}
+
+
+def _by_step(
+    chain: RoundChain, rounds: int, exact: bool, notes: list[str], should_stop: Callable[[], bool] | None
+) -> dict[str, Figure]:
+    """Chance of being in each end state after ``rounds`` steps: repeated products with P."""
+    size = len(chain.names)
+    n = chain.transient_count
+    use_exact = exact and rounds * max(len(chain.edges), 1) <= DEFAULT_STEP_BUDGET
+    if exact and not use_exact:
+        notes.append(
+            f"chances by step {rounds:,}: exact products skipped (over {DEFAULT_STEP_BUDGET:,} "
+            "edge updates); decimals are from the float engine"
+        )
+    source = np.fromiter((e.source for e in chain.edges), dtype=np.int64)
+    target = np.fromiter((e.target for e in chain.edges), dtype=np.int64)
+    prob = np.fromiter((to_float(e.prob) for e in chain.edges), dtype=float)
+    floats = np.zeros(size)
+    floats[0] = 1.0
+    values = [QQ(0)] * size
+    values[0] = QQ(1)
+    for step in range(rounds):
+        if should_stop is not None and step % 64 == 0 and should_stop():
+            from oddsbench.solve.exact_linear import SolveCancelled
+
+            raise SolveCancelled
+        moved = np.zeros(size)
+        moved[n:] = floats[n:]
+        np.add.at(moved, target, floats[source] * prob)
+        floats = moved
+        if use_exact:
+            nxt = [QQ(0)] * n + values[n:]
+            for edge in chain.edges:
+                weight = values[edge.source]
+                if weight != 0:
+                    nxt[edge.target] += weight * edge.prob
+            values = nxt
+    result = {}
+    for j, name in enumerate(chain.ends):
+        exact_value = values[n + j] if use_exact else None
+        result[name] = _checked(f"end_probability_by_step[{name}]", exact_value, floats[n + j], notes)
+    return result
