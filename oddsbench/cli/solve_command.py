@@ -5,7 +5,7 @@ from __future__ import annotations
 import argparse
 import json
 
-from oddsbench.cli.options import add_exact_limit, positive_int
+from oddsbench.cli.options import add_exact_limit, add_max_states, positive_int
 
 DEFAULT_EXACT_LIMIT = 5_000
 
@@ -28,6 +28,7 @@ def register(commands) -> None:
     )
     parser.add_argument("--strategy", metavar="NAME", help="play the file's named strategy")
     add_exact_limit(parser, DEFAULT_EXACT_LIMIT)
+    add_max_states(parser)
     parser.set_defaults(run=run)
 
 
@@ -47,7 +48,8 @@ def run(args: argparse.Namespace) -> int:
             known = ", ".join(s.name for s in ruleset.strategies) or "none defined"
             raise OddsbenchError(f"{ruleset.source}: unknown strategy {args.strategy!r} (known: {known})") from None
         policy = {state.name: strategy.action_for(state) for state in ruleset.states if state.is_decision}
-    figures = solve_round(build_round_chain(ruleset, policy), rounds=args.rounds, exact_limit=args.exact_limit)
+    chain = build_round_chain(ruleset, policy, args.max_states)
+    figures = solve_round(chain, rounds=args.rounds, exact_limit=args.exact_limit)
     if args.json:
         print(json.dumps(round_json(figures, ruleset.title), indent=2))
     else:
