@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import argparse
 import json
+import sys
 
 from oddsbench.cli.options import add_exact_limit, add_max_states, positive_int
 
@@ -34,12 +35,17 @@ def register(commands) -> None:
 
 def run(args: argparse.Namespace) -> int:
     from oddsbench.chain.round_chain import build_round_chain
-    from oddsbench.model.errors import OddsbenchError
-    from oddsbench.model.load import load_ruleset
+    from oddsbench.model.errors import OddsbenchError, RulesetError
+    from oddsbench.model.load import read_ruleset_file
     from oddsbench.report.round_report import round_json, round_text
     from oddsbench.solve.round import solve_round
 
-    ruleset = load_ruleset(args.file)
+    loaded = read_ruleset_file(args.file)
+    if loaded.ruleset is None:
+        raise RulesetError(loaded.problems)
+    for warning in loaded.warnings:
+        print(warning, file=sys.stderr)
+    ruleset = loaded.ruleset
     policy = {}
     if args.strategy is not None:
         try:
