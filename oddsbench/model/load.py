@@ -14,6 +14,13 @@ from typing import Any
 
 from oddsbench.model.errors import Problem, RulesetError
 from oddsbench.model.expr import ExpressionError, evaluate, names_in, parse
+from oddsbench.model.families import (
+    FamilyMember,
+    expand_families,
+    expand_plain_state,
+    rule_actions,
+    uses_family_outcomes,
+)
 from oddsbench.model.numbers import QQ, Rational, text
 from oddsbench.model.ruleset import Outcome, Ruleset, State, Strategy
 
@@ -136,6 +143,7 @@ class _Reader:
         self.source = source
         self.problems = problems
         self.params: dict[str, Rational] = {}
+        self.members: dict[str, FamilyMember] = {}
 
     def error(self, where: str, message: str) -> None:
         self.problems.append(Problem(self.source, where, message))
@@ -192,8 +200,8 @@ class _Reader:
         about = self.text_field(head, "about", "[ruleset]", required=False) or ""
         start = self.text_field(head, "start", "[ruleset]", required=True)
         stake = self.value(head.get("stake", 1), "[ruleset], stake")
-        if stake is not None and stake <= 0:
-            self.error("[ruleset], stake", f"must be more than 0, got {text(stake)}")
+        if stake is not None and stake < 0:
+            self.error("[ruleset], stake", f"cannot be negative, got {text(stake)}")
         self.read_params(document.get("params", {}))
         states = self.read_states(document)
         strategies = self.read_strategies(document.get("strategies", {}))
@@ -239,7 +247,22 @@ class _Reader:
         if not isinstance(raw_states, dict):
             self.error("[states]", f"must be a table, not {type_name(raw_states)}")
             return []
-        tables: dict[str, Any] = dict(raw_states)
+        tables: dict[str, Any] = {}
+        for name, table in raw_states.items():
+            if uses_family_outcomes(table):
+                table = expand_plain_state(name, table, self.source, self.problems, self.params)
+                if table is None:
+                    continue
+            tables[name] = table
+        expansion = expand_families(document, self.source, self.problems, self.params)
+        self.members = expansion.members
+        for name, table in expansion.tables.items():
+            if name in tables:
+                self.error(
+                    f"state {name!r}", f"defined twice (by hand and by family {expansion.members[name].family!r})"
+                )
+                continue
+            tables[name] = table
         for expand in STATE_EXPANDERS:
             for name, table in expand(document, self.source, self.problems, self.params).items():
                 if name in tables:
@@ -365,7 +388,10 @@ class _Reader:
                 continue
             actions = []
             default = None
+            rules = table.get("rules")
             for state_name, action in table.items():
+                if state_name == "rules":
+                    continue
                 if not isinstance(action, str):
                     self.error(f"{where}, {state_name}", f"action must be text, not {type_name(action)}")
                     continue
@@ -373,5 +399,8 @@ class _Reader:
                     default = action
                 else:
                     actions.append((state_name, action))
+            if rules is not None:
+                explicit = {state_name for state_name, _ in actions}
+                actions += rule_actions(rules, where, self.members, self.params, explicit, self.problems, self.source)
             strategies.append(Strategy(name=name, actions=tuple(actions), default=default))
         return strategies
