@@ -26,30 +26,42 @@ def register(commands) -> None:
         metavar="N",
         help="also the chance the round has ended, and in each end state, by step N",
     )
-    parser.add_argument("--strategy", metavar="NAME", help="play the file's named strategy")
+    parser.add_argument(
+        "--strategy",
+        metavar="NAME",
+        help="play the file's named strategy (without it, a file with decisions is solved under each "
+        "named strategy, side by side)",
+    )
+    parser.add_argument("--from", dest="start", metavar="STATE", help="start the round in STATE instead")
     add_exact_limit(parser, DEFAULT_EXACT_LIMIT)
     parser.set_defaults(run=run)
 
 
 def run(args: argparse.Namespace) -> int:
     from oddsbench.chain.round_chain import build_round_chain
-    from oddsbench.model.errors import OddsbenchError
     from oddsbench.model.load import load_ruleset
     from oddsbench.report.round_report import round_json, round_text
     from oddsbench.solve.round import solve_round
+    from oddsbench.strategy.compare import named_strategy, starting_at, strategy_policy
 
-    ruleset = load_ruleset(args.file)
+    ruleset = starting_at(load_ruleset(args.file), args.start)
+    if args.strategy is None and ruleset.has_decisions:
+        return _side_by_side(ruleset, args)
     policy = {}
     if args.strategy is not None:
-        try:
-            strategy = ruleset.strategy(args.strategy)
-        except KeyError:
-            known = ", ".join(s.name for s in ruleset.strategies) or "none defined"
-            raise OddsbenchError(f"{ruleset.source}: unknown strategy {args.strategy!r} (known: {known})") from None
-        policy = {state.name: strategy.action_for(state) for state in ruleset.states if state.is_decision}
+        policy = strategy_policy(ruleset, named_strategy(ruleset, args.strategy))
     figures = solve_round(build_round_chain(ruleset, policy), rounds=args.rounds, exact_limit=args.exact_limit)
     if args.json:
         print(json.dumps(round_json(figures, ruleset.title), indent=2))
     else:
         print(round_text(figures, args.strategy))
+    return 0
+
+
+def _side_by_side(ruleset, args: argparse.Namespace) -> int:
+    from oddsbench.report.strategy_report import comparison_json, comparison_text
+    from oddsbench.strategy.compare import compare_strategies
+
+    comparison = compare_strategies(ruleset, rounds=args.rounds, exact_limit=args.exact_limit)
+    print(json.dumps(comparison_json(comparison), indent=2) if args.json else comparison_text(comparison))
     return 0
