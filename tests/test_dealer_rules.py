@@ -10,7 +10,7 @@ disagreed with both computations in places, so those rows rest on the independen
 from __future__ import annotations
 
 import dataclasses
-from functools import lru_cache
+from functools import cache
 
 import pytest
 from conftest import RULESETS
@@ -28,7 +28,7 @@ FILES = {"stands": "dealer-stands-soft-17.toml", "hits": "dealer-hits-soft-17.to
 def independent_row(upcard: int, hits_soft_17: bool) -> dict[str, QQ]:
     """Final-total chances by recursion over (hard sum, holds an ace, cards dealt)."""
 
-    @lru_cache(maxsize=None)
+    @cache
     def finish(hard: int, ace: bool, cards: int) -> tuple[tuple[str, QQ], ...]:
         soft = ace and hard + 10 <= 21
         total = hard + 10 if soft else hard
@@ -49,7 +49,7 @@ def independent_row(upcard: int, hits_soft_17: bool) -> dict[str, QQ]:
     return {name: row.get(name, QQ(0)) for name in FINALS}
 
 
-@lru_cache(maxsize=None)
+@cache
 def solved_rows(rule: str) -> dict[int, dict[str, QQ]]:
     ruleset = load_ruleset(RULESETS / FILES[rule])
     rows = {}

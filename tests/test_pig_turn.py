@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from functools import lru_cache
+from functools import cache
 
 import pytest
 from conftest import RULESETS
@@ -24,7 +24,7 @@ def pig():
 def recursion_score(n: int) -> QQ:
     """Expected score of one turn holding at n, by direct backward recursion (independent of the chain solver)."""
 
-    @lru_cache(maxsize=None)
+    @cache
     def score(total: int) -> QQ:
         if total >= GOAL:
             return QQ(total)
