@@ -156,3 +156,11 @@ def test_bundled_family_rulesets_are_valid(name):
     result = read_ruleset_text((RULESETS / name).read_text(), name)
     assert result.ruleset is not None, [str(p) for p in result.problems]
     assert result.warnings == ()
+
+
+def test_sum_errors_in_a_member_name_the_family_and_index():
+    text = WALK.replace(
+        '{ to = "at-{i - 1}", prob = "1/2", when = "i > 1" }', '{ to = "at-{i - 1}", prob = "1/3", when = "i > 1" }'
+    )
+    messages = problems_of(text)
+    assert "test.toml: state 'at-2' (family 'at' at i=2): probabilities sum to 5/6, not 1" in messages

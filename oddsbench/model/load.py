@@ -90,13 +90,28 @@ def read_ruleset_text(content: str, source: str = "<text>") -> LoadResult:
     except RecursionError:
         return _failed(source, "not valid TOML: nested too deeply")
     problems: list[Problem] = []
-    ruleset = _Reader(source, problems).read(document)
+    reader = _Reader(source, problems)
+    ruleset = reader.read(document)
     if ruleset is not None:
         from oddsbench.model.validate import validate
 
-        problems.extend(validate(ruleset))
+        problems.extend(family_origin(problem, reader.members) for problem in validate(ruleset))
     has_error = any(problem.is_error for problem in problems)
     return LoadResult(None if has_error else ruleset, tuple(problems))
+
+
+def family_origin(problem: Problem, members: dict[str, FamilyMember]) -> Problem:
+    """A problem in a state made by a family, with the family and index values added to its place."""
+    if not members or not problem.where.startswith("state '"):
+        return problem
+    name = problem.where[len("state '") :].split("'", 1)[0]
+    member = members.get(name)
+    if member is None:
+        return problem
+    index = ", ".join(f"{variable}={text(value)}" for variable, value in member.index)
+    place = f"state {name!r}"
+    where = problem.where.replace(place, f"{place} (family {member.family!r} at {index})", 1)
+    return Problem(problem.source, where, problem.message, problem.severity)
 
 
 def load_ruleset(path: str | Path) -> Ruleset:

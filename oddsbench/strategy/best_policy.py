@@ -31,7 +31,7 @@ from oddsbench.strategy.goals import Goal, goal_named
 
 DEFAULT_EXACT_LIMIT = 5_000
 MAX_ITERATIONS = 1_000
-DECIMAL_TOLERANCE = 1e-10
+DECIMAL_TOLERANCE = 1e-11  # relative: small chances (1e-20) still compare
 
 
 @dataclass(frozen=True)
@@ -106,6 +106,8 @@ class _Step:
     target: int  # transient index, or -1 for an end state
     prob: Rational
     reward: Rational
+    prob_float: float
+    reward_float: float
 
 
 class _Process:
@@ -136,7 +138,9 @@ class _Process:
                 continue
             target = by_name[outcome.to]
             result = target.result if target.is_end else None
-            steps.append(_Step(self.index.get(outcome.to, -1), outcome.prob, goal.reward(outcome.pay, result)))
+            reward = goal.reward(outcome.pay, result)
+            target_index = self.index.get(outcome.to, -1)
+            steps.append(_Step(target_index, outcome.prob, reward, to_float(outcome.prob), to_float(reward)))
         return tuple(steps)
 
     def ends_surely(self, policy: list[int], members: list[int] | None = None) -> set[int]:
@@ -207,11 +211,11 @@ class _Process:
         rhs = np.zeros(len(members))
         for k, i in enumerate(members):
             for step in self.steps[i][policy[i]]:
-                rhs[k] += to_float(step.prob) * to_float(step.reward)
+                rhs[k] += step.prob_float * step.reward_float
                 if step.target >= 0:
                     rows.append(k)
                     cols.append(position[step.target])
-                    data.append(to_float(step.prob))
+                    data.append(step.prob_float)
         q = csc_matrix((data, (rows, cols)), shape=(len(members), len(members)))
         values = DecimalSparseLU(q).solve(rhs) if members else np.zeros(0)
         return {i: float(values[k]) for k, i in enumerate(members)}
@@ -229,7 +233,7 @@ class _Process:
             if exact:
                 total += step.prob * (step.reward + after)
             else:
-                total += to_float(step.prob) * (to_float(step.reward) + after)
+                total += step.prob_float * (step.reward_float + after)
         return total
 
 
@@ -394,7 +398,7 @@ def _better(q, than, exact: bool) -> bool:
         return True
     if exact:
         return q > than
-    return q > than + DECIMAL_TOLERANCE * max(1.0, abs(than))
+    return q > than + DECIMAL_TOLERANCE * max(abs(q), abs(than))
 
 
 def _break_ties(process: _Process, policy: list[int], values: dict, zero, exact: bool) -> list[int]:
@@ -439,7 +443,7 @@ def _certify(process: _Process, policy: list[int], values: dict, zero, exact: bo
             gap = q - own
             if largest is None or gap > largest:
                 largest = gap
-            if a != policy[i] and (q == own if exact else abs(gap) <= DECIMAL_TOLERANCE * max(1.0, abs(own))):
+            if a != policy[i] and (q == own if exact else abs(gap) <= DECIMAL_TOLERANCE * max(abs(q), abs(own))):
                 equal.append(process.actions[i][a])
             if exact and q > own:
                 holds = False
