@@ -52,9 +52,9 @@ def value_iteration(goal: int) -> tuple[float, int]:
         values = new
 
 
-def timed(function):
+def timed(function, *args):
     start = time.perf_counter()
-    result = function()
+    result = function(*args)
     return result, time.perf_counter() - start
 
 
@@ -62,10 +62,10 @@ def main() -> None:
     goals = [100, 500] if "--quick" in sys.argv else [100, 500, 2000, 5000]
     print(f"{'goal':>6} {'states':>7} {'read s':>7} {'exact PI s':>11} {'decimal PI s':>13} {'float VI s':>11}  value")
     for goal in goals:
-        ruleset, read = timed(lambda: load_ruleset_text(PIG.format(goal=goal), "bench.toml"))
-        exact, exact_time = timed(lambda: best_policy(ruleset, "max-return"))
-        decimal, decimal_time = timed(lambda: best_policy(ruleset, "max-return", exact_limit=0))
-        (vi_value, sweeps), vi_time = timed(lambda: value_iteration(goal))
+        ruleset, read = timed(load_ruleset_text, PIG.format(goal=goal), "bench.toml")
+        exact, exact_time = timed(best_policy, ruleset, "max-return")
+        decimal, decimal_time = timed(best_policy, ruleset, "max-return", 0)
+        (vi_value, sweeps), vi_time = timed(value_iteration, goal)
         assert abs(decimal.value.decimal - exact.value.decimal) < 1e-9 and abs(vi_value - exact.value.decimal) < 1e-9
         print(
             f"{goal:>6} {len(ruleset.states):>7} {read:>7.2f} {exact_time:>11.2f} {decimal_time:>13.2f} "
@@ -77,8 +77,8 @@ def main() -> None:
     for goal in [100, 300] if "--quick" in sys.argv else [100, 300, 1000]:
         text = PIG.format(goal=goal).replace("[states.done]", '[states.done]\nresult = "win"')
         ruleset = load_ruleset_text(text, "bench.toml")
-        exact, exact_time = timed(lambda: best_policy(ruleset, "max-win"))
-        decimal, decimal_time = timed(lambda: best_policy(ruleset, "max-win", exact_limit=0))
+        exact, exact_time = timed(best_policy, ruleset, "max-win")
+        decimal, decimal_time = timed(best_policy, ruleset, "max-win", 0)
         assert abs(decimal.value.decimal - exact.value.decimal) <= 1e-9 * exact.value.decimal
         print(
             f"{goal:>6} {exact_time:>11.2f} {exact.iterations:>7} {decimal_time:>13.2f} {decimal.iterations:>7}"
