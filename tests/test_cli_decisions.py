@@ -106,3 +106,33 @@ def test_bad_family_exits_2_with_one_line_naming_family_and_index(capsys, tmp_pa
     code, _, err = run_cli(capsys, "best", path)
     assert code == 2
     assert err.strip() == "bad.toml: family 'turn' at t=50, choice 'hold', outcome 1: division by zero"
+
+
+def test_solve_from_a_pattern_puts_every_upcard_side_by_side(capsys):
+    code, out, _ = run_cli(capsys, "solve", DEALER, "--from", "up-*", "--cells", "decimal")
+    assert code == 0
+    header = next(line for line in out.splitlines() if line.startswith("quantity"))
+    assert header.split() == ["quantity"] + [f"up-{c}" for c in range(2, 12)]
+    bust = next(line for line in out.splitlines() if line.startswith("ends in 'bust'"))
+    assert "0.42315 (42.32 %)" in bust  # upcard 6; Griffin, The Theory of Blackjack (from memory)
+
+
+def test_solve_from_a_list_json_has_one_object_per_start(capsys):
+    _, out, _ = run_cli(capsys, "solve", DEALER, "--from", "up-10,up-11", "--json")
+    data = json.loads(out)
+    assert data["starts"] == ["up-10", "up-11"]
+    assert data["by_start"]["up-11"]["figures"]["end_probability"]["blackjack"]["exact"] == "4/13"
+
+
+def test_several_starts_of_a_file_with_decisions_need_a_strategy(capsys):
+    code, _, err = run_cli(capsys, "solve", PIG, "--from", "turn-0,turn-10")
+    assert code == 2 and "choose a strategy to compare start states" in err
+    code, out, _ = run_cli(capsys, "solve", PIG, "--from", "turn-0,turn-10", "--strategy", "hold-at-20", "--json")
+    assert (
+        code == 0 and json.loads(out)["by_start"]["turn-0"]["figures"]["expected_net"]["exact"] == "492303203/60466176"
+    )
+
+
+def test_pattern_matching_no_state_exits_2(capsys):
+    code, _, err = run_cli(capsys, "solve", DEALER, "--from", "top-*")
+    assert code == 2 and "no state matches 'top-*'" in err

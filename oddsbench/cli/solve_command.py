@@ -32,7 +32,19 @@ def register(commands) -> None:
         help="play the file's named strategy (without it, a file with decisions is solved under each "
         "named strategy, side by side)",
     )
-    parser.add_argument("--from", dest="start", metavar="STATE", help="start the round in STATE instead")
+    parser.add_argument(
+        "--from",
+        dest="start",
+        metavar="STATES",
+        help="start the round in STATE instead; several states (comma-separated, or a pattern such as "
+        "'up-*') are solved side by side",
+    )
+    parser.add_argument(
+        "--cells",
+        choices=("both", "exact", "decimal"),
+        default="both",
+        help="side-by-side tables: show exact | decimal (default), or only one of them",
+    )
     add_exact_limit(parser, DEFAULT_EXACT_LIMIT)
     parser.set_defaults(run=run)
 
@@ -44,7 +56,10 @@ def run(args: argparse.Namespace) -> int:
     from oddsbench.solve.round import solve_round
     from oddsbench.strategy.compare import named_strategy, starting_at, strategy_policy
 
-    ruleset = starting_at(load_ruleset(args.file), args.start)
+    ruleset = load_ruleset(args.file)
+    if args.start is not None and ("," in args.start or any(char in args.start for char in "*?[")):
+        return _from_each(ruleset, args)
+    ruleset = starting_at(ruleset, args.start)
     if args.strategy is None and ruleset.has_decisions:
         return _side_by_side(ruleset, args)
     policy = {}
@@ -63,5 +78,15 @@ def _side_by_side(ruleset, args: argparse.Namespace) -> int:
     from oddsbench.strategy.compare import compare_strategies
 
     comparison = compare_strategies(ruleset, rounds=args.rounds, exact_limit=args.exact_limit)
-    print(json.dumps(comparison_json(comparison), indent=2) if args.json else comparison_text(comparison))
+    print(json.dumps(comparison_json(comparison), indent=2) if args.json else comparison_text(comparison, args.cells))
+    return 0
+
+
+def _from_each(ruleset, args: argparse.Namespace) -> int:
+    from oddsbench.report.strategy_report import comparison_text, starts_json
+    from oddsbench.strategy.compare import compare_starts, matching_states
+
+    starts = matching_states(ruleset, args.start)
+    comparison = compare_starts(ruleset, starts, args.strategy, rounds=args.rounds, exact_limit=args.exact_limit)
+    print(json.dumps(starts_json(comparison), indent=2) if args.json else comparison_text(comparison, args.cells))
     return 0

@@ -10,19 +10,27 @@ from oddsbench.report.numbers_text import render_table
 from oddsbench.report.round_report import PERCENT_FIGURES, figure_cells, figure_json, figure_label, round_json
 from oddsbench.solve.round import Figure
 from oddsbench.strategy.best_policy import BestPolicy, StrategyCheck
-from oddsbench.strategy.compare import StrategyComparison
+from oddsbench.strategy.compare import StartComparison, StrategyComparison
+
+CELL_KINDS = ("both", "exact", "decimal")
 
 SIDE_BY_SIDE_EXACT_WIDTH = 28
 MAX_LISTED_IMPROVEMENTS = 40
 
 
-def cell(figure: Figure | None, percent: bool = False, width: int | None = SIDE_BY_SIDE_EXACT_WIDTH) -> str:
-    """One ``exact | decimal`` cell; ``-`` where a figure does not apply."""
+def cell(
+    figure: Figure | None, percent: bool = False, width: int | None = SIDE_BY_SIDE_EXACT_WIDTH, kind: str = "both"
+) -> str:
+    """One ``exact | decimal`` cell (or only one of them); ``-`` where a figure does not apply."""
     if figure is None:
         return "-"
     exact, decimal = figure_cells(figure, percent, None)
     if width is not None and len(exact) > width:
         exact = _compact(exact)
+    if kind == "exact":
+        return exact if figure.exact is not None else f"- | {decimal}"
+    if kind == "decimal":
+        return decimal
     return f"{exact} | {decimal}"
 
 
@@ -35,8 +43,11 @@ def _compact(exact: str) -> str:
     return f"{top[:6]}.../{bottom[:5]}... ({digits}/{len(bottom)} digits)"
 
 
-def comparison_rows(comparison: StrategyComparison) -> tuple[list[str], list[list[str]]]:
-    """quantity, then one ``exact | decimal`` column per strategy."""
+Comparison = StrategyComparison | StartComparison
+
+
+def comparison_rows(comparison: Comparison, kind: str = "both") -> tuple[list[str], list[list[str]]]:
+    """quantity, then one ``exact | decimal`` column per strategy (or per start state)."""
     first = comparison.figures[0] if comparison.figures else None
     names: list[str] = []
     ends: list[str] = []
@@ -46,7 +57,8 @@ def comparison_rows(comparison: StrategyComparison) -> tuple[list[str], list[lis
     rows = []
     for name in names:
         label = figure_label(name, first.rounds if first else None)
-        rows.append([label] + [cell(f.figures.get(name), name in PERCENT_FIGURES) for f in comparison.figures])
+        percent = name in PERCENT_FIGURES
+        rows.append([label] + [cell(f.figures.get(name), percent, kind=kind) for f in comparison.figures])
     zero = Figure(None, 0.0)
     for name in ends:
         result = next((f.end_results.get(name) for f in comparison.figures if name in f.end_results), None)
@@ -56,9 +68,9 @@ def comparison_rows(comparison: StrategyComparison) -> tuple[list[str], list[lis
             figure = figures.end_probability.get(name)
             if figure is None:  # not reachable under this strategy: chance exactly 0
                 figure = Figure(_zero(), 0.0) if figures.exact else zero
-            cells.append(cell(figure, percent=True))
+            cells.append(cell(figure, percent=True, kind=kind))
         rows.append([label] + cells)
-    return ["quantity", *comparison.strategies], rows
+    return ["quantity", *comparison.columns], rows
 
 
 def _zero():
@@ -67,17 +79,22 @@ def _zero():
     return QQ(0)
 
 
-def comparison_text(comparison: StrategyComparison) -> str:
-    """The human output of ``oddsbench solve`` for a file with decisions and no ``--strategy``."""
-    count = len(comparison.strategies)
-    heading = (
-        f"{comparison.title}: one round from {comparison.start!r} under each of {count} named "
-        f"strateg{'y' if count == 1 else 'ies'} (cells: exact | decimal)"
-    )
-    headers, rows = comparison_rows(comparison)
+def comparison_text(comparison: Comparison, kind: str = "both") -> str:
+    """Side-by-side output of ``oddsbench solve``: per named strategy, or per start state (``--from``)."""
+    count = len(comparison.columns)
+    shown = {"both": "exact | decimal", "exact": "exact", "decimal": "decimal"}[kind]
+    if isinstance(comparison, StrategyComparison):
+        heading = (
+            f"{comparison.title}: one round from {comparison.start!r} under each of {count} named "
+            f"strateg{'y' if count == 1 else 'ies'} (cells: {shown})"
+        )
+    else:
+        play = f", strategy {comparison.strategy!r}" if comparison.strategy else ""
+        heading = f"{comparison.title}: one round from each of {count} start states{play} (cells: {shown})"
+    headers, rows = comparison_rows(comparison, kind)
     parts = [heading, "", render_table(headers, rows)]
     notes = []
-    for name, figures in zip(comparison.strategies, comparison.figures):
+    for name, figures in zip(comparison.columns, comparison.figures):
         for note in figures.notes:
             if all(note in other.notes for other in comparison.figures):
                 if f"every strategy: {note}" not in notes:
@@ -88,6 +105,22 @@ def comparison_text(comparison: StrategyComparison) -> str:
         parts += ["", "Notes:"] + [f"  - {note}" for note in notes]
     parts += ["", caution_block()]
     return "\n".join(parts)
+
+
+def starts_json(comparison: StartComparison) -> dict[str, Any]:
+    """``{"ruleset", "starts": [...], "strategy", "by_start": {STATE: <solve JSON>}, "cautions"}``."""
+    by_start = {}
+    for name, figures in zip(comparison.starts, comparison.figures):
+        body = round_json(figures, comparison.title)
+        body.pop("cautions", None)
+        by_start[name] = body
+    return {
+        "ruleset": comparison.title,
+        "starts": list(comparison.starts),
+        "strategy": comparison.strategy,
+        "by_start": by_start,
+        "cautions": list(CAUTIONS),
+    }
 
 
 def comparison_json(comparison: StrategyComparison) -> dict[str, Any]:
