@@ -164,3 +164,27 @@ def test_sum_errors_in_a_member_name_the_family_and_index():
     )
     messages = problems_of(text)
     assert "test.toml: state 'at-2' (family 'at' at i=2): probabilities sum to 5/6, not 1" in messages
+
+
+def test_strategy_missing_many_family_states_is_one_line():
+    # The rule covers t >= 10; without a default, turn-0 and turn-2 .. turn-9 have no action.
+    text = (
+        (RULESETS / "pig-turn.toml")
+        .read_text()
+        .replace('[strategies.hold-at-10]\ndefault = "roll"', "[strategies.hold-at-10]")
+    )
+    messages = [m for m in problems_of(text) if "hold-at-10" in m]
+    assert messages == [
+        "test.toml: strategy 'hold-at-10': no action and no default for decision state(s) "
+        "'turn-0', 'turn-2', 'turn-3', 'turn-4', 'turn-5', 'turn-6', 'turn-7', 'turn-8' and 1 more"
+    ]
+
+
+def test_strategy_default_not_offered_is_one_line():
+    text = (
+        (RULESETS / "pig-turn.toml")
+        .read_text()
+        .replace('[strategies.hold-at-10]\ndefault = "roll"', '[strategies.hold-at-10]\ndefault = "fold"')
+    )
+    messages = [m for m in problems_of(text) if "hold-at-10" in m]
+    assert len(messages) == 1 and "action 'fold' is not offered in state(s) 'turn-0'" in messages[0]

@@ -117,6 +117,8 @@ class _Range:
 
 
 def _value_node(raw: Any, what: str) -> Node | int:
+    if isinstance(raw, float):
+        raise FamilyError(f'{what}: write decimals in quotes ("{raw}") so they stay exact')
     if isinstance(raw, bool) or not isinstance(raw, int | str):
         raise FamilyError(f"{what} must be a whole number or an expression in quotes, not {_type_name(raw)}")
     if isinstance(raw, int):
