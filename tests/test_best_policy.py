@@ -144,3 +144,15 @@ def test_above_the_exact_limit_the_decimal_answer_is_not_certified(ladder):
 def test_file_without_decisions_has_nothing_to_choose():
     best = best_policy(load_ruleset(RULESETS / "pass-line.toml"))
     assert best.policy == () and best.value.exact == QQ(-7, 495) and best.certified
+
+
+def test_goal_whose_result_never_occurs_says_so():
+    best = best_policy(load_ruleset_text(TIED), "max-win")
+    assert best.value.exact == 0
+    assert any('no end state has result "win"' in note for note in best.notes)
+
+
+def test_best_carries_every_round_figure_under_its_play(ladder):
+    best = best_policy(ladder, "max-win")
+    assert best.figures.result_probability["win"].exact == best.value.exact
+    assert best.figures.figures["expected_net"].exact == QQ(-3307, 35152)

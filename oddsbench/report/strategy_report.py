@@ -7,7 +7,14 @@ from typing import Any
 
 from oddsbench.report.cautions import CAUTIONS, caution_block
 from oddsbench.report.numbers_text import render_table
-from oddsbench.report.round_report import PERCENT_FIGURES, figure_cells, figure_json, figure_label, round_json
+from oddsbench.report.round_report import (
+    PERCENT_FIGURES,
+    figure_cells,
+    figure_json,
+    figure_label,
+    round_json,
+    round_rows,
+)
 from oddsbench.solve.round import Figure
 from oddsbench.strategy.best_policy import BestPolicy, StrategyCheck
 from oddsbench.strategy.compare import StartComparison, StrategyComparison
@@ -184,6 +191,16 @@ def best_text(best: BestPolicy, every_state: bool = False) -> str:
         f"Policy iteration: {best.iterations} evaluation(s); {len(best.reached)} of {len(best.policy)} "
         "decision states are reached under this play."
     )
+    if best.figures is not None:
+        rows = [list(row) for row in round_rows(best.figures)]
+        parts += [
+            "",
+            "Every figure of the round under this play:",
+            render_table(["quantity", "exact", "decimal"], rows),
+        ]
+        notes = [note for note in best.figures.notes if note not in best.notes]
+        if notes:
+            parts += [f"  ({note})" for note in notes]
     if best.notes:
         parts += ["", "Notes:"] + [f"  - {note}" for note in best.notes]
     parts += ["", caution_block()]
@@ -214,6 +231,7 @@ def best_json(best: BestPolicy) -> dict[str, Any]:
         },
         "reached": list(best.reached),
         "iterations": best.iterations,
+        "figures": round_json(best.figures, best.title)["figures"] if best.figures is not None else None,
         "notes": list(best.notes),
         "cautions": list(CAUTIONS),
     }

@@ -21,12 +21,13 @@ from dataclasses import dataclass
 
 import numpy as np
 
+from oddsbench.chain.round_chain import build_round_chain
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.numbers import QQ, Rational, text, to_float
 from oddsbench.model.ruleset import Ruleset
 from oddsbench.model.validate import reachable_from, successor_graph
 from oddsbench.solve.exact_linear import ExactSparseLU, identity_minus
-from oddsbench.solve.round import Figure
+from oddsbench.solve.round import Figure, RoundFigures, solve_round
 from oddsbench.strategy.goals import Goal, goal_named
 
 DEFAULT_EXACT_LIMIT = 5_000
@@ -71,6 +72,7 @@ class BestPolicy:
     certificate: Certificate
     iterations: int
     notes: tuple[str, ...]
+    figures: RoundFigures | None = None  # every round figure under this play (None: nothing to solve)
 
 
 @dataclass(frozen=True)
@@ -254,6 +256,10 @@ def best_policy(
             f"{count:,} states exceed the exact limit of {exact_limit:,}: decimal policy iteration "
             "(float64, sparse LU); the certificate is a decimal check, not an exact one"
         )
+    if chosen_goal.result is not None and all(
+        state.result != chosen_goal.result for state in ruleset.states if state.is_end
+    ):
+        notes.append(f'no end state has result "{chosen_goal.result}", so every play gives 0 and every action ties')
     if count == 0:
         return _trivial(ruleset, chosen_goal, notes)
     policy = process.surely_ending_policy()
@@ -291,6 +297,8 @@ def best_policy(
     certificate = _certify(process, policy, values, zero, exact, chosen_goal)
     reached = _reached(process, policy)
     value = _figure(values[0], chosen_goal.sign, exact)
+    chosen = {process.names[i]: process.actions[i][policy[i]] for i in range(count) if process.decision[i]}
+    figures = solve_round(build_round_chain(ruleset, chosen), exact_limit=exact_limit, should_stop=should_stop)
     return BestPolicy(
         title=ruleset.title,
         start=ruleset.start,
@@ -303,6 +311,7 @@ def best_policy(
         certificate=certificate,
         iterations=iterations,
         notes=tuple(notes),
+        figures=figures,
     )
 
 
