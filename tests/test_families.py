@@ -188,3 +188,34 @@ def test_strategy_default_not_offered_is_one_line():
     )
     messages = [m for m in problems_of(text) if "hold-at-10" in m]
     assert len(messages) == 1 and "action 'fold' is not offered in state(s) 'turn-0'" in messages[0]
+
+
+RUIN = """
+[ruleset]
+title = "ruin"
+start = "at-{start}"
+[params]
+p = "18/37"
+top = {top}
+[families.at]
+state = "at-{{i}}"
+index = {{ i = [1, "top - 1"] }}
+outcomes = [
+  {{ prob = "p", to = [{{ when = "i + 1 == top", to = "reached" }}, {{ to = "at-{{i + 1}}" }}] }},
+  {{ prob = "1 - p", to = [{{ when = "i == 1", to = "ruined" }}, {{ to = "at-{{i - 1}}" }}] }},
+]
+[states.reached]
+result = "win"
+[states.ruined]
+result = "loss"
+"""
+
+
+@pytest.mark.parametrize(("start", "top"), [(1, 2), (5, 10), (20, 60), (37, 50)])
+def test_family_walk_matches_the_classical_ruin_formula(start, top):
+    # Feller, An Introduction to Probability Theory, Vol. I, ch. XIV.2 (from memory):
+    # P(reach top from i) = (1 - r^i) / (1 - r^top) with r = q/p.
+    r = QQ(19, 18)
+    expected = (1 - r**start) / (1 - r**top)
+    figures = solve_text(RUIN.format(start=start, top=top))
+    assert figures.result_probability["win"].exact == expected
