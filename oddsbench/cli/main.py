@@ -45,6 +45,13 @@ def main(argv: Sequence[str] | None = None) -> int:
     except KeyboardInterrupt:
         print("oddsbench: interrupted", file=sys.stderr)
         return 130
+    except BrokenPipeError:
+        # The reader (e.g. `head`) closed the pipe: stop quietly, as Unix tools do.
+        import os
+
+        devnull = os.open(os.devnull, os.O_WRONLY)
+        os.dup2(devnull, sys.stdout.fileno())
+        return 141
 
 
 def _no_command(parser: argparse.ArgumentParser) -> int:
