@@ -12,32 +12,6 @@ RULESETS = Path(__file__).parent.parent / "rulesets"
 PASS_LINE = str(RULESETS / "pass-line.toml")
 WHEEL = str(RULESETS / "single-zero-wheel.toml")
 
-# An invented two-action game for the strategies-compared section.
-CHOICE_GAME = """
-[ruleset]
-title = "Coin with a second chance"
-start = "first"
-
-[states.first]
-outcomes = [{ to = "won", prob = "1/2", pay = 1 }, { to = "offer", prob = "1/2" }]
-
-[states.offer.choices]
-accept = [{ to = "won", prob = "1/3", pay = 1 }, { to = "lost", pay = -1 }]
-refuse = [{ to = "lost", pay = -1 }]
-
-[states.won]
-result = "win"
-
-[states.lost]
-result = "loss"
-
-[strategies.eager]
-offer = "accept"
-
-[strategies.careful]
-offer = "refuse"
-"""
-
 
 def test_csv_report_parses_back_with_exact_figures_and_cautions(tmp_path, capsys):
     target = tmp_path / "pass.csv"
@@ -91,9 +65,8 @@ def test_a_missing_folder_is_one_line_and_no_file(tmp_path, capsys):
     assert "does not exist" in capsys.readouterr().err and not target.exists()
 
 
-def test_strategies_are_reported_side_by_side(tmp_path):
-    game = tmp_path / "coin.toml"
-    game.write_text(CHOICE_GAME)
+def test_strategies_are_reported_side_by_side(tmp_path, choice_game):
+    game = choice_game
     target = tmp_path / "coin.json"
     assert main(["report", str(game), "--output", str(target)]) == 0
     body = json.loads(target.read_text())
@@ -103,9 +76,8 @@ def test_strategies_are_reported_side_by_side(tmp_path):
     assert body["strategies_compared"]["columns"] == ["quantity", "eager", "careful"]
 
 
-def test_one_named_strategy_restricts_the_report(capsys, tmp_path):
-    game = tmp_path / "coin.toml"
-    game.write_text(CHOICE_GAME)
+def test_one_named_strategy_restricts_the_report(capsys, choice_game):
+    game = choice_game
     assert main(["report", str(game), "--format", "json", "--strategy", "careful"]) == 0
     body = json.loads(capsys.readouterr().out)
     assert [r["strategy"] for r in body["rounds"]] == ["careful"] and "strategies_compared" not in body

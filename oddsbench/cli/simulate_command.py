@@ -75,12 +75,12 @@ def run(args: argparse.Namespace) -> int:
     import numpy as np
 
     from oddsbench.chain.round_chain import build_round_chain
-    from oddsbench.cli.strategy_option import policy_for
     from oddsbench.model.load import load_ruleset
     from oddsbench.report.simulation_report import simulation_json, simulation_text
     from oddsbench.simulate.checks import round_checks
     from oddsbench.simulate.round_sim import simulate_round
     from oddsbench.solve.round import solve_round
+    from oddsbench.strategy.policy import policy_for
 
     ruleset = load_ruleset(args.file)
     chain = build_round_chain(ruleset, policy_for(ruleset, args.strategy))

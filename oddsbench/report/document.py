@@ -13,6 +13,7 @@ from oddsbench.model.ruleset import Ruleset
 from oddsbench.report.cautions import CAUTIONS
 from oddsbench.report.method_sources import ROUND_SOURCES, MethodSource
 from oddsbench.solve.round import RoundFigures, solve_round
+from oddsbench.strategy.policy import policy_for
 
 
 @dataclass(frozen=True)
@@ -39,15 +40,6 @@ class ReportDocument:
         return len(self.rounds) > 1
 
 
-def policy_of(ruleset: Ruleset, name: str) -> dict[str, str]:
-    try:
-        strategy = ruleset.strategy(name)
-    except KeyError:
-        known = ", ".join(s.name for s in ruleset.strategies) or "none defined"
-        raise OddsbenchError(f"{ruleset.source}: unknown strategy {name!r} (known: {known})") from None
-    return {state.name: strategy.action_for(state) for state in ruleset.states if state.is_decision}
-
-
 def round_sections(
     ruleset: Ruleset, strategies: Sequence[str] = (), rounds: int | None = None, exact_limit: int = 5_000
 ) -> tuple[RoundSection, ...]:
@@ -62,7 +54,7 @@ def round_sections(
             names = [None]
     sections = []
     for name in names:
-        policy = policy_of(ruleset, name) if name is not None else {}
+        policy = policy_for(ruleset, name) if name is not None else {}
         figures = solve_round(build_round_chain(ruleset, policy), rounds=rounds, exact_limit=exact_limit)
         sections.append(RoundSection(name, policy, figures))
     return tuple(sections)

@@ -1,4 +1,4 @@
-"""``--strategy NAME``: a file's named strategy as a policy (decision state -> action)."""
+"""A file's named strategy as a policy (decision state -> action), for every command and layer above."""
 
 from __future__ import annotations
 
