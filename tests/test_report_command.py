@@ -33,9 +33,9 @@ def test_json_report_parses_back_and_echoes_the_ruleset(tmp_path):
     body = json.loads(target.read_text())
     assert body["cautions"] == list(CAUTIONS)
     assert body["ruleset"]["text"] == Path(WHEEL).read_text()
-    assert body["ruleset"]["params"]["win"]["exact"] == "1/37"
+    assert body["ruleset"]["params"]["pockets"]["exact"] == "37"
     (round_,) = body["rounds"]
-    # 1/37 for a straight-up bet on a single-zero wheel: common practice, no source
+    # 1/37 for an even-money bet on a single-zero wheel: common practice, no source
     assert round_["figures"]["house_edge"] == {"exact": "1/37", "decimal": 1 / 37}
     assert body["sources"] and all(item["reference"] for item in body["sources"])
 

@@ -32,7 +32,7 @@ def test_pass_line_simulation_brackets_every_exact_figure():
 
 
 def test_wheel_simulation_brackets_every_exact_figure():
-    # straight-up bet on 37 pockets: win chance 1/37, edge 1/37 (common practice, no source)
+    # even-money bet on 37 pockets: win chance 18/37, edge 1/37 (common practice, no source)
     checks = checks_for(WHEEL, seed=7)
     assert [c.name for c in checks if c.outside] == []
 

@@ -33,7 +33,8 @@ def test_the_example_grid_has_100_points_with_exact_edges():
         settings = dict(point.settings)
         pockets, payout = parse_fraction(settings["pockets"]), parse_fraction(settings["payout"])
         edge = dict((name, exact) for name, exact, _ in solved.figures)["house_edge"]
-        # a bet paying `payout` to 1 with chance 1/pockets: edge 1 - (payout + 1) / pockets (arithmetic)
+        # one pocket paying `payout` to 1 with chance 1/pockets: edge 1 - (payout + 1) / pockets (arithmetic)
+        assert settings["pockets_won"] == "1"
         assert parse_fraction(edge) == 1 - (payout + 1) / pockets
         assert solved.exact
 
@@ -71,7 +72,7 @@ def test_a_local_dask_cluster_gives_identical_results(tmp_path):
 
 
 def test_csv_has_one_row_per_point_and_the_cautions(tmp_path, capsys):
-    spec = write_spec(tmp_path, "[params]\npayout = [34, 35, 36]\n")
+    spec = write_spec(tmp_path, "[params]\npockets_won = [1]\npayout = [34, 35, 36]\n")
     target = tmp_path / "out.csv"
     assert main(["sweep", str(spec), "--csv", str(target), "--no-progress"]) == 0
     rows = list(csv.reader(io.StringIO(target.read_text())))
