@@ -7,7 +7,7 @@ the state and the field, and the caller decides (the CLI exits 2, the TUI shows 
 from __future__ import annotations
 
 import tomllib
-from collections.abc import Callable
+from collections.abc import Callable, Mapping
 from dataclasses import dataclass
 from pathlib import Path
 from typing import Any
@@ -55,8 +55,15 @@ class LoadResult:
         return tuple(p for p in self.problems if not p.is_error)
 
 
-def read_ruleset_file(path: str | Path) -> LoadResult:
-    """Read and validate a ruleset file; never raises for bad content."""
+ParamOverrides = Mapping[str, Rational]
+
+
+def read_ruleset_file(path: str | Path, params: ParamOverrides | None = None) -> LoadResult:
+    """Read and validate a ruleset file; never raises for bad content.
+
+    ``params`` replaces values of the file's ``[params]`` (by name) before anything else is
+    evaluated, so later parameters and every outcome that depend on them follow.
+    """
     path = Path(path)
     source = path.name
     try:
@@ -74,11 +81,12 @@ def read_ruleset_file(path: str | Path) -> LoadResult:
         content = raw.decode("utf-8")
     except UnicodeDecodeError as error:
         return _failed(source, f"is not UTF-8 text (bad byte at position {error.start})")
-    return read_ruleset_text(content, source)
+    return read_ruleset_text(content, source, params)
 
 
-def read_ruleset_text(content: str, source: str = "<text>") -> LoadResult:
-    """Read and validate ruleset text; the heart of ``oddsbench check``."""
+def read_ruleset_text(content: str, source: str = "<text>", params: ParamOverrides | None = None) -> LoadResult:
+    """Read and validate ruleset text (the heart of ``oddsbench check``), optionally with
+    parameter overrides as in ``read_ruleset_file``."""
     if len(content.encode("utf-8", "surrogatepass")) > MAX_FILE_BYTES:
         return _failed(source, f"text is over the limit of {MAX_FILE_BYTES:,} bytes")
     if not content.strip():
@@ -90,7 +98,7 @@ def read_ruleset_text(content: str, source: str = "<text>") -> LoadResult:
     except RecursionError:
         return _failed(source, "not valid TOML: nested too deeply")
     problems: list[Problem] = []
-    reader = _Reader(source, problems)
+    reader = _Reader(source, problems, params)
     ruleset = reader.read(document)
     if ruleset is not None:
         from oddsbench.model.validate import validate
@@ -114,14 +122,14 @@ def family_origin(problem: Problem, members: dict[str, FamilyMember]) -> Problem
     return Problem(problem.source, where, problem.message, problem.severity)
 
 
-def load_ruleset(path: str | Path) -> Ruleset:
-    """Read a ruleset file or raise RulesetError with every problem."""
-    return _unwrap(read_ruleset_file(path))
+def load_ruleset(path: str | Path, params: ParamOverrides | None = None) -> Ruleset:
+    """Read a ruleset file (with optional parameter overrides) or raise RulesetError."""
+    return _unwrap(read_ruleset_file(path, params))
 
 
-def load_ruleset_text(content: str, source: str = "<text>") -> Ruleset:
-    """Read ruleset text or raise RulesetError with every problem."""
-    return _unwrap(read_ruleset_text(content, source))
+def load_ruleset_text(content: str, source: str = "<text>", params: ParamOverrides | None = None) -> Ruleset:
+    """Read ruleset text (with optional parameter overrides) or raise RulesetError."""
+    return _unwrap(read_ruleset_text(content, source, params))
 
 
 def _unwrap(result: LoadResult) -> Ruleset:
@@ -154,11 +162,12 @@ def type_name(value: Any) -> str:
 class _Reader:
     """One pass over the TOML document; records problems instead of raising."""
 
-    def __init__(self, source: str, problems: list[Problem]) -> None:
+    def __init__(self, source: str, problems: list[Problem], overrides: ParamOverrides | None = None) -> None:
         self.source = source
         self.problems = problems
         self.params: dict[str, Rational] = {}
         self.members: dict[str, FamilyMember] = {}
+        self.overrides = dict(overrides or {})
 
     def error(self, where: str, message: str) -> None:
         self.problems.append(Problem(self.source, where, message))
@@ -251,9 +260,18 @@ class _Reader:
             except ExpressionError:
                 self.error(where, "a parameter name must be letters, digits and _ (not starting with a digit)")
                 continue
+            if name in self.overrides:
+                self.params[name] = self.overrides[name]
+                continue
             result = self.value(value, where)
             if result is not None:
                 self.params[name] = result
+        for name in self.overrides:
+            if name not in raw:
+                known = ", ".join(repr(key) for key in raw) or "none"
+                self.error(
+                    f"param {name!r}", f"cannot be set: the file has no such parameter (its parameters: {known})"
+                )
 
     def read_states(self, document: dict[str, Any]) -> list[State]:
         raw_states = document.get("states")
