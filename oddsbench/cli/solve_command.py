@@ -5,7 +5,7 @@ from __future__ import annotations
 import argparse
 import json
 
-from oddsbench.cli.options import add_exact_limit, positive_int
+from oddsbench.cli.options import add_exact_limit, add_max_states, positive_int
 
 DEFAULT_EXACT_LIMIT = 5_000
 
@@ -46,6 +46,7 @@ def register(commands) -> None:
         help="side-by-side tables: show exact | decimal (default), or only one of them",
     )
     add_exact_limit(parser, DEFAULT_EXACT_LIMIT)
+    add_max_states(parser)
     parser.set_defaults(run=run)
 
 
@@ -65,7 +66,8 @@ def run(args: argparse.Namespace) -> int:
     policy = {}
     if args.strategy is not None:
         policy = strategy_policy(ruleset, named_strategy(ruleset, args.strategy))
-    figures = solve_round(build_round_chain(ruleset, policy), rounds=args.rounds, exact_limit=args.exact_limit)
+    chain = build_round_chain(ruleset, policy, args.max_states)
+    figures = solve_round(chain, rounds=args.rounds, exact_limit=args.exact_limit)
     if args.json:
         print(json.dumps(round_json(figures, ruleset.title), indent=2))
     else:
