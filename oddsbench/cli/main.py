@@ -8,10 +8,17 @@ import sys
 from collections.abc import Sequence
 
 from oddsbench import __version__
-from oddsbench.cli import check_command, solve_command
+from oddsbench.cli import (
+    best_command,
+    check_command,
+    report_command,
+    simulate_command,
+    solve_command,
+    sweep_command,
+)
 from oddsbench.model.errors import OddsbenchError, RulesetError
 
-COMMANDS = (check_command, solve_command)
+COMMANDS = (check_command, solve_command, best_command, simulate_command, report_command, sweep_command)
 EXIT_BAD_INPUT = 2
 EXIT_INTERNAL = 70
 EXIT_INTERRUPTED = 130

@@ -46,3 +46,19 @@ def add_exact_limit(parser: argparse.ArgumentParser, default: int) -> None:
         help=f"largest chain (transient states) solved in exact arithmetic (default {default:,}); "
         "larger chains get decimals only, with a note",
     )
+
+
+def load_with_warnings(path: str, params=None):
+    """Read a ruleset for a command: warnings go to stderr one line each, errors raise
+    RulesetError (exit 2), so no command silently drops what the reader found."""
+    import sys
+
+    from oddsbench.model.errors import RulesetError
+    from oddsbench.model.load import read_ruleset_file
+
+    loaded = read_ruleset_file(path, params)
+    if loaded.ruleset is None:
+        raise RulesetError(loaded.problems)
+    for warning in loaded.warnings:
+        print(warning, file=sys.stderr)
+    return loaded.ruleset

@@ -7,13 +7,20 @@ the state and the field, and the caller decides (the CLI exits 2, the TUI shows 
 from __future__ import annotations
 
 import tomllib
-from collections.abc import Callable
+from collections.abc import Callable, Mapping
 from dataclasses import dataclass
 from pathlib import Path
 from typing import Any
 
 from oddsbench.model.errors import Problem, RulesetError, shown_name
 from oddsbench.model.expr import ExpressionError, evaluate, names_in, parse
+from oddsbench.model.families import (
+    FamilyMember,
+    expand_families,
+    expand_plain_state,
+    rule_actions,
+    uses_family_outcomes,
+)
 from oddsbench.model.numbers import QQ, Rational, text
 from oddsbench.model.ruleset import Outcome, Ruleset, State, Strategy
 
@@ -50,8 +57,15 @@ class LoadResult:
         return tuple(p for p in self.problems if not p.is_error)
 
 
-def read_ruleset_file(path: str | Path) -> LoadResult:
-    """Read and validate a ruleset file; never raises for bad content."""
+ParamOverrides = Mapping[str, Rational]
+
+
+def read_ruleset_file(path: str | Path, params: ParamOverrides | None = None) -> LoadResult:
+    """Read and validate a ruleset file; never raises for bad content.
+
+    ``params`` replaces values of the file's ``[params]`` (by name) before anything else is
+    evaluated, so later parameters and every outcome that depend on them follow.
+    """
     path = Path(path)
     source = path.name
     try:
@@ -69,11 +83,12 @@ def read_ruleset_file(path: str | Path) -> LoadResult:
         content = raw.decode("utf-8")
     except UnicodeDecodeError as error:
         return _failed(source, f"is not UTF-8 text (bad byte at position {error.start})")
-    return read_ruleset_text(content, source)
+    return read_ruleset_text(content, source, params)
 
 
-def read_ruleset_text(content: str, source: str = "<text>") -> LoadResult:
-    """Read and validate ruleset text; the heart of ``oddsbench check``."""
+def read_ruleset_text(content: str, source: str = "<text>", params: ParamOverrides | None = None) -> LoadResult:
+    """Read and validate ruleset text (the heart of ``oddsbench check``), optionally with
+    parameter overrides as in ``read_ruleset_file``."""
     if len(content.encode("utf-8", "surrogatepass")) > MAX_FILE_BYTES:
         return _failed(source, f"text is over the limit of {MAX_FILE_BYTES:,} bytes")
     content = content.removeprefix("\ufeff")  # a byte-order mark some editors write
@@ -88,23 +103,38 @@ def read_ruleset_text(content: str, source: str = "<text>") -> LoadResult:
     problems = document_problems(document, source)
     if problems:
         return LoadResult(None, tuple(problems))
-    ruleset = _Reader(source, problems).read(document)
+    reader = _Reader(source, problems, params)
+    ruleset = reader.read(document)
     if ruleset is not None:
         from oddsbench.model.validate import validate
 
-        problems.extend(validate(ruleset))
+        problems.extend(family_origin(problem, reader.members) for problem in validate(ruleset))
     has_error = any(problem.is_error for problem in problems)
     return LoadResult(None if has_error else ruleset, tuple(problems))
 
 
-def load_ruleset(path: str | Path) -> Ruleset:
-    """Read a ruleset file or raise RulesetError with every problem."""
-    return _unwrap(read_ruleset_file(path))
+def family_origin(problem: Problem, members: dict[str, FamilyMember]) -> Problem:
+    """A problem in a state made by a family, with the family and index values added to its place."""
+    if not members or not problem.where.startswith("state '"):
+        return problem
+    name = problem.where[len("state '") :].split("'", 1)[0]
+    member = members.get(name)
+    if member is None:
+        return problem
+    index = ", ".join(f"{variable}={text(value)}" for variable, value in member.index)
+    place = f"state {name!r}"
+    where = problem.where.replace(place, f"{place} (family {member.family!r} at {index})", 1)
+    return Problem(problem.source, where, problem.message, problem.severity)
 
 
-def load_ruleset_text(content: str, source: str = "<text>") -> Ruleset:
-    """Read ruleset text or raise RulesetError with every problem."""
-    return _unwrap(read_ruleset_text(content, source))
+def load_ruleset(path: str | Path, params: ParamOverrides | None = None) -> Ruleset:
+    """Read a ruleset file (with optional parameter overrides) or raise RulesetError."""
+    return _unwrap(read_ruleset_file(path, params))
+
+
+def load_ruleset_text(content: str, source: str = "<text>", params: ParamOverrides | None = None) -> Ruleset:
+    """Read ruleset text (with optional parameter overrides) or raise RulesetError."""
+    return _unwrap(read_ruleset_text(content, source, params))
 
 
 def _unwrap(result: LoadResult) -> Ruleset:
@@ -185,11 +215,13 @@ def type_name(value: Any) -> str:
 class _Reader:
     """One pass over the TOML document; records problems instead of raising."""
 
-    def __init__(self, source: str, problems: list[Problem]) -> None:
+    def __init__(self, source: str, problems: list[Problem], overrides: ParamOverrides | None = None) -> None:
         self.source = source
         self.problems = problems
         self.params: dict[str, Rational] = {}
         self.failed_params: set[str] = set()
+        self.members: dict[str, FamilyMember] = {}
+        self.overrides = dict(overrides or {})
 
     def error(self, where: str, message: str) -> None:
         self.problems.append(Problem(self.source, where, message))
@@ -261,8 +293,8 @@ class _Reader:
         about = self.text_field(head, "about", "[ruleset]", required=False) or ""
         start = self.text_field(head, "start", "[ruleset]", required=True)
         stake = self.value(head.get("stake", 1), "[ruleset], stake")
-        if stake is not None and stake <= 0:
-            self.error("[ruleset], stake", f"must be more than 0, got {text(stake)}")
+        if stake is not None and stake < 0:
+            self.error("[ruleset], stake", f"cannot be negative, got {text(stake)}")
         self.read_params(document.get("params", {}))
         states = self.read_states(document)
         strategies = self.read_strategies(document.get("strategies", {}))
@@ -301,11 +333,20 @@ class _Reader:
                 rule = "letters, digits and _ (not starting with a digit or '__')"
                 self.error(where, f"a parameter name must be {rule}")
                 continue
+            if name in self.overrides:
+                self.params[name] = self.overrides[name]
+                continue
             result = self.value(value, where)
             if result is None:
                 self.failed_params.add(name)
             else:
                 self.params[name] = result
+        for name in self.overrides:
+            if name not in raw:
+                known = ", ".join(repr(key) for key in raw) or "none"
+                self.error(
+                    f"param {name!r}", f"cannot be set: the file has no such parameter (its parameters: {known})"
+                )
 
     def read_states(self, document: dict[str, Any]) -> list[State]:
         raw_states = document.get("states")
@@ -314,7 +355,22 @@ class _Reader:
         if not isinstance(raw_states, dict):
             self.error("[states]", f"must be a table, not {type_name(raw_states)}")
             return []
-        tables: dict[str, Any] = dict(raw_states)
+        tables: dict[str, Any] = {}
+        for name, table in raw_states.items():
+            if uses_family_outcomes(table):
+                table = expand_plain_state(name, table, self.source, self.problems, self.params)
+                if table is None:
+                    continue
+            tables[name] = table
+        expansion = expand_families(document, self.source, self.problems, self.params)
+        self.members = expansion.members
+        for name, table in expansion.tables.items():
+            if name in tables:
+                self.error(
+                    f"state {name!r}", f"defined twice (by hand and by family {expansion.members[name].family!r})"
+                )
+                continue
+            tables[name] = table
         for expand in STATE_EXPANDERS:
             for name, table in expand(document, self.source, self.problems, self.params).items():
                 if name in tables:
@@ -453,7 +509,10 @@ class _Reader:
                 continue
             actions = []
             default = None
+            rules = table.get("rules")
             for state_name, action in table.items():
+                if state_name == "rules":
+                    continue
                 if not isinstance(action, str):
                     self.error(f"{where}, {shown_name(state_name)}", f"action must be text, not {type_name(action)}")
                     continue
@@ -464,5 +523,8 @@ class _Reader:
                     default = action
                 else:
                     actions.append((state_name, action))
+            if rules is not None:
+                explicit = {state_name for state_name, _ in actions}
+                actions += rule_actions(rules, where, self.members, self.params, explicit, self.problems, self.source)
             strategies.append(Strategy(name=name, actions=tuple(actions), default=default))
         return strategies

@@ -177,21 +177,30 @@ def _check_strategies(ruleset: Ruleset) -> list[Problem]:
                         f"unknown action {action!r} (choose from {', '.join(state.actions)})",
                     )
                 )
+        missing: list[str] = []
+        not_offered: list[str] = []
+        named = {name for name, _ in strategy.actions}
         for state in decision_states.values():
             action = strategy.action_for(state)
             if action is None:
-                problems.append(
-                    Problem(ruleset.source, where, f"no action for decision state {state.name!r} and no default")
+                missing.append(state.name)
+            elif action not in state.actions and state.name not in named:
+                not_offered.append(state.name)
+        if missing:
+            # One line for all of them: a family can make hundreds of decision states.
+            problems.append(
+                Problem(ruleset.source, where, f"no action and no default for decision state(s) {_listing(missing)}")
+            )
+        if not_offered:
+            first = decision_states[not_offered[0]]
+            problems.append(
+                Problem(
+                    ruleset.source,
+                    f"{where}, default",
+                    f"action {strategy.default!r} is not offered in state(s) {_listing(not_offered)} "
+                    f"(in {first.name!r} choose from {', '.join(first.actions)})",
                 )
-            elif action not in state.actions and all(name != state.name for name, _ in strategy.actions):
-                problems.append(
-                    Problem(
-                        ruleset.source,
-                        f"{where}, default",
-                        f"action {action!r} is not offered in state {state.name!r} "
-                        f"(choose from {', '.join(state.actions)})",
-                    )
-                )
+            )
     return problems
 
 

@@ -1,0 +1,76 @@
+"""Shared test helpers: bundled ruleset paths, in-process solving and CLI runs."""
+
+from __future__ import annotations
+
+from pathlib import Path
+
+import pytest
+
+ROOT = Path(__file__).resolve().parent.parent
+RULESETS = ROOT / "rulesets"
+
+
+@pytest.fixture
+def rulesets_dir() -> Path:
+    return RULESETS
+
+
+def solve_text(text: str, rounds: int | None = None, policy: dict | None = None):
+    """Read ruleset text and solve one round (raises RulesetError on bad text)."""
+    from oddsbench.chain.round_chain import build_round_chain
+    from oddsbench.model.load import load_ruleset_text
+    from oddsbench.solve.round import solve_round
+
+    return solve_round(build_round_chain(load_ruleset_text(text, "test.toml"), policy), rounds=rounds)
+
+
+def solve_file(name: str, rounds: int | None = None):
+    from oddsbench.chain.round_chain import build_round_chain
+    from oddsbench.model.load import load_ruleset
+    from oddsbench.solve.round import solve_round
+
+    return solve_round(build_round_chain(load_ruleset(RULESETS / name)), rounds=rounds)
+
+
+def run_cli(capsys, *args: str) -> tuple[int, str, str]:
+    """Run the command line in-process: (exit code, stdout, stderr)."""
+    from oddsbench.cli.main import main
+
+    code = main([str(arg) for arg in args])
+    captured = capsys.readouterr()
+    return code, captured.out, captured.err
+
+
+# An invented two-action game for the strategies-compared section.
+CHOICE_GAME = """
+[ruleset]
+title = "Coin with a second chance"
+start = "first"
+
+[states.first]
+outcomes = [{ to = "won", prob = "1/2", pay = 1 }, { to = "offer", prob = "1/2" }]
+
+[states.offer.choices]
+accept = [{ to = "won", prob = "1/3", pay = 1 }, { to = "lost", pay = -1 }]
+refuse = [{ to = "lost", pay = -1 }]
+
+[states.won]
+result = "win"
+
+[states.lost]
+result = "loss"
+
+[strategies.eager]
+offer = "accept"
+
+[strategies.careful]
+offer = "refuse"
+"""
+
+
+@pytest.fixture
+def choice_game(tmp_path):
+    """The invented coin game as a file."""
+    path = tmp_path / "coin.toml"
+    path.write_text(CHOICE_GAME)
+    return path
