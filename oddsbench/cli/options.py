@@ -37,6 +37,19 @@ def add_max_states(parser: argparse.ArgumentParser) -> None:
     )
 
 
+def add_exact_bits(parser: argparse.ArgumentParser) -> None:
+    from oddsbench.model.limits import DEFAULT_EXACT_BITS
+
+    parser.add_argument(
+        "--exact-bits",
+        type=positive_int,
+        default=DEFAULT_EXACT_BITS,
+        metavar="BITS",
+        help=f"size limit of exact arithmetic: estimated bits held by the exact factors (default "
+        f"{DEFAULT_EXACT_BITS:,}); past it the exact engine stops and decimals come from the float engine",
+    )
+
+
 def add_exact_limit(parser: argparse.ArgumentParser, default: int) -> None:
     parser.add_argument(
         "--exact-limit",
