@@ -89,9 +89,7 @@ def run(args: argparse.Namespace) -> int:
     figures = solve_round(chain, exact_limit=args.exact_limit)
     checks = round_checks(sample, figures, args.confidence)
     if args.json:
-        print(json.dumps(simulation_json(sample, checks, args.confidence), indent=2))
+        print(json.dumps(simulation_json(sample, checks, args.confidence, figures.notes), indent=2))
     else:
-        print(simulation_text(sample, checks, args.confidence, args.strategy))
-        for note in figures.notes:
-            print(f"  - {note}")
+        print(simulation_text(sample, checks, args.confidence, args.strategy, figures.notes))
     return 0
