@@ -7,10 +7,10 @@ import sys
 from collections.abc import Sequence
 
 from oddsbench import __version__
-from oddsbench.cli import check_command, solve_command
+from oddsbench.cli import check_command, open_command, solve_command
 from oddsbench.model.errors import OddsbenchError, RulesetError
 
-COMMANDS = (check_command, solve_command)
+COMMANDS = (check_command, solve_command, open_command)
 EXIT_BAD_INPUT = 2
 
 
@@ -31,9 +31,9 @@ def build_parser() -> argparse.ArgumentParser:
 def main(argv: Sequence[str] | None = None) -> int:
     parser = build_parser()
     args = parser.parse_args(argv)
-    if args.command is None:
-        return _no_command(parser)
     try:
+        if args.command is None:
+            return open_command.run_workbench(None)
         return int(args.run(args) or 0)
     except RulesetError as error:
         for problem in error.problems:
@@ -45,11 +45,6 @@ def main(argv: Sequence[str] | None = None) -> int:
     except KeyboardInterrupt:
         print("oddsbench: interrupted", file=sys.stderr)
         return 130
-
-
-def _no_command(parser: argparse.ArgumentParser) -> int:
-    parser.print_help()
-    return 0
 
 
 def entry() -> None:
