@@ -78,3 +78,49 @@ def solve_round_text(
     if strategy and ruleset.has_decisions:
         heading += f", strategy {strategy!r}"
     return RoundResult(heading, tuple(round_rows(figures)), summary, figures.notes, strategy)
+
+
+@dataclass(frozen=True)
+class StrategiesResult:
+    """The named strategies side by side (``exact | decimal`` cells) and the best play with its certificate."""
+
+    heading: str
+    headers: tuple[str, ...]
+    rows: tuple[tuple[str, ...], ...]
+    best: str
+    goal: str
+
+
+def strategies_text(
+    ruleset: Ruleset, goal: str, should_stop: Callable[[], bool] | None = None
+) -> StrategiesResult | RoundFailure:
+    """``oddsbench solve`` under every named strategy and ``oddsbench best`` for ``goal``, as report text."""
+    from oddsbench.report.cautions import caution_block
+    from oddsbench.report.strategy_report import best_text, comparison_rows
+    from oddsbench.strategy.best_policy import best_policy
+    from oddsbench.strategy.compare import compare_strategies
+
+    if not ruleset.has_decisions:
+        return RoundFailure(
+            "this game has no decision states, so there is no play to choose: "
+            "open one with choices (pig-turn.toml, lamplighter-ladder.toml, a dealer's game)"
+        )
+    headers: tuple[str, ...] = ()
+    rows: tuple[tuple[str, ...], ...] = ()
+    heading = f"{ruleset.title}: no named strategies in the file ([strategies] table)"
+    try:
+        if ruleset.strategies:
+            comparison = compare_strategies(ruleset, should_stop=should_stop)
+            names, table = comparison_rows(comparison)
+            headers, rows = tuple(names), tuple(tuple(row) for row in table)
+            heading = (
+                f"{ruleset.title}: one round from {comparison.start!r} under each of "
+                f"{len(comparison.strategies)} named strategies (cells: exact | decimal)"
+            )
+        best = best_text(best_policy(ruleset, goal, should_stop=should_stop))
+    except OddsbenchError as error:
+        return RoundFailure(str(error))
+    block = caution_block()
+    if best.endswith(block):  # the cautions are on screen already, below every view
+        best = best[: -len(block)].rstrip()
+    return StrategiesResult(heading, headers, rows, best, goal)

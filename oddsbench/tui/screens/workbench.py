@@ -32,9 +32,16 @@ from oddsbench.tui.widgets.navigator import PARAMS, SETUP, STATE, Navigator
 from oddsbench.tui.widgets.problems import ProblemsPanel
 from oddsbench.tui.widgets.setup_editor import ParamsEditor, SetupEditor
 from oddsbench.tui.widgets.state_editor import StateEditor
+from oddsbench.tui.widgets.strategies import StrategiesPanel
 
-VIEWS = (("edit", "Edit", "f2"), ("round", "Round", "f3"), ("source", "Source", "f6"))
-WIDE = 118
+VIEWS = (
+    ("edit", "Edit", "f2"),
+    ("round", "Round", "f3"),
+    ("strategies", "Strategies", "f4"),
+    ("source", "Source", "f6"),
+)
+GOALS = ("max-return", "max-win", "min-loss", "min-steps")
+WIDE = 150
 
 
 class WorkbenchScreen(Screen):
@@ -43,7 +50,9 @@ class WorkbenchScreen(Screen):
     BINDINGS = [
         Binding("f2", "view('edit')", "Edit"),
         Binding("f3", "view('round')", "Round"),
+        Binding("f4", "view('strategies')", "Strategies", show=False),
         Binding("f6", "view('source')", "Source", show=False),
+        Binding("g", "next_goal", "Next goal (strategies)", show=False),
         Binding("ctrl+s", "save", "Save", priority=True),
         Binding("f12", "save_as", "Save as", show=False),
         Binding("ctrl+z", "undo", "Undo", priority=True),
@@ -67,6 +76,10 @@ class WorkbenchScreen(Screen):
         self.strategy: str | None = None
         self.status_note = ""
         self.entry: str | None = None
+        self.goal = GOALS[0]
+        self.strategies_result = None
+        self.strategies_key: tuple | None = None
+        self.strategies_busy = False
 
     # ----- layout -----
 
@@ -89,6 +102,8 @@ class WorkbenchScreen(Screen):
                 yield ProgressBar(total=None, show_eta=False, show_percentage=False, id="progress")
                 yield FiguresTable(id="round-table")
                 yield Static("", id="round-notes")
+            with Vertical(id="strategies"):
+                yield StrategiesPanel(id="strategies-panel")
             with Vertical(id="source"):
                 yield Static(
                     "The file as text: anything the forms do not cover. Edits here are undoable too.",
@@ -223,6 +238,9 @@ class WorkbenchScreen(Screen):
             self._show_editor(problems)
         if ruleset is None:
             self._show_figures(stale=True)
+            self._show_strategies()
+        elif self.query_one("#views", ContentSwitcher).current == "strategies":
+            self.compare_strategies()
 
     def _set_solving(self, generation: int, solving: bool) -> None:
         if generation != self.generation:
@@ -276,6 +294,56 @@ class WorkbenchScreen(Screen):
             table.show(result)
         notes = self.query_one("#round-notes", Static)
         notes.update("\n".join(f"note: {note}" for note in result.notes))
+
+    def compare_strategies(self) -> None:
+        """Solve every strategy and the best play, unless this text and goal are solved already."""
+        ruleset = self.reading.ruleset if self.reading else None
+        if ruleset is None:
+            return
+        key = (self.session.text, self.goal)
+        if key == self.strategies_key:
+            return
+        self.strategies_key = key
+        self.strategies_busy = True
+        self._show_strategies()
+        self._compare(ruleset, self.goal, key)
+
+    @work(thread=True, exclusive=True, group="strategies")
+    def _compare(self, ruleset, goal: str, key: tuple) -> None:
+        from oddsbench.solve.exact_linear import SolveCancelled
+
+        worker = get_current_worker()
+        try:
+            result = analysis.strategies_text(ruleset, goal, should_stop=lambda: worker.is_cancelled)
+        except SolveCancelled:
+            self.app.call_from_thread(self._strategies_cancelled, key)
+            return
+        except (ArithmeticError, ValueError, MemoryError) as error:
+            result = RoundFailure(f"the strategies could not be solved: {error}")
+        if not worker.is_cancelled:
+            self.app.call_from_thread(self._strategies_done, key, result)
+
+    def _strategies_done(self, key: tuple, result) -> None:
+        if key != self.strategies_key:
+            return
+        self.strategies_busy = False
+        self.strategies_result = result
+        self._show_strategies()
+
+    def _strategies_cancelled(self, key: tuple) -> None:
+        if key == self.strategies_key:
+            self.strategies_busy = False
+            self.strategies_key = None
+            self._show_strategies()
+
+    def _show_strategies(self) -> None:
+        stale = self.reading is not None and self.reading.ruleset is None
+        self.query_one(StrategiesPanel).show(self.strategies_result, stale=stale, busy=self.strategies_busy)
+
+    def action_next_goal(self) -> None:
+        self.goal = GOALS[(GOALS.index(self.goal) + 1) % len(GOALS)]
+        self.notify(f"best play for goal {self.goal}")
+        self.compare_strategies()
 
     # ----- edits -----
 
@@ -390,6 +458,9 @@ class WorkbenchScreen(Screen):
             self.query_one("#source-text").focus()
         elif view == "round":
             self.query_one("#round-table").focus()
+        elif view == "strategies":
+            self.query_one("#strategies-table").focus()
+            self.compare_strategies()
         else:
             self.query_one(Navigator).focus()
         self._update_topbar()
@@ -411,9 +482,13 @@ class WorkbenchScreen(Screen):
         self.refresh_document()
 
     def action_escape(self) -> None:
-        if self.solving:
-            self.workers.cancel_group(self, "analysis")
-            self._cancelled(self.generation)
+        if self.solving or self.strategies_busy:
+            if self.solving:
+                self.workers.cancel_group(self, "analysis")
+                self._cancelled(self.generation)
+            if self.strategies_busy:
+                self.workers.cancel_group(self, "strategies")
+                self._strategies_cancelled(self.strategies_key)
             return
         if self.query_one("#views", ContentSwitcher).current == "edit":
             focused = self.focused

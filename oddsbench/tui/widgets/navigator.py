@@ -53,16 +53,28 @@ class Navigator(OptionList):
             label = Text(name)
             if kind == "end":
                 result = document.state_result(name)
-                label.append(f"  end{': ' + result if result else ''}", style="dim")
+                label.append(f" ({result or 'end'})", style="dim")
             elif kind == "choices":
-                label.append("  decision", style="dim")
+                label.append(" (decision)", style="dim")
             if name in failing:
                 label.append(" ✗", style="red")
             options.append(Option(label, id=STATE + name))
-        signature = tuple((o.id, o.prompt.plain) if o else None for o in options)
+        signature = tuple((o.id, o.prompt.plain) if o else None for o in options) + (document.family_count(),)
         if signature == getattr(self, "_signature", None) and select is None:
             return
         self._signature = signature
+        generated = document.family_count()
+        if generated:
+            options.append(None)
+            options.append(
+                Option(
+                    Text(
+                        f"+ states from {generated} famil{'y' if generated == 1 else 'ies'}: F6 Source",
+                        style="dim italic",
+                    ),
+                    disabled=True,
+                )
+            )
         self.clear_options()
         self.add_options(options)
         ids = [option.id for option in options if option is not None]
