@@ -7,10 +7,10 @@ import sys
 from collections.abc import Sequence
 
 from oddsbench import __version__
-from oddsbench.cli import check_command, solve_command
+from oddsbench.cli import check_command, session_command, solve_command
 from oddsbench.model.errors import OddsbenchError, RulesetError
 
-COMMANDS = (check_command, solve_command)
+COMMANDS = (check_command, solve_command, session_command)
 EXIT_BAD_INPUT = 2
 
 

@@ -27,6 +27,7 @@ EXACT_STEP_BUDGET = 3_000_000
 RELATIVE_TOLERANCE = 1e-8
 ZERO_TOLERANCE = 1e-11
 TINY = 1e-290
+EXACT_WORK_LIMIT = 20_000_000
 
 
 @dataclass(frozen=True)
@@ -68,6 +69,12 @@ def solve_session(
             f"exact arithmetic skipped: {chain.size:,} bankroll states exceed the exact limit of "
             f"{exact_limit:,} (raise it with --exact-limit); decimals are from the float engine"
         )
+    elif max_rounds is None and exact_work(chain) > EXACT_WORK_LIMIT * max(exact_limit / DEFAULT_EXACT_LIMIT, 1):
+        use_exact = False
+        notes.append(
+            f"exact arithmetic skipped: the {chain.size:,}-state system fills in too much for rational "
+            "elimination (a plan with large or varied bets); decimals are from the float engine"
+        )
     if max_rounds is not None:
         budget_ok = max_rounds * chain.target.size <= EXACT_STEP_BUDGET
         if use_exact and not budget_ok:
@@ -108,6 +115,22 @@ def solve_session(
         exact=raw_exact is not None,
         notes=tuple(notes),
     )
+
+
+def exact_work(chain: BankrollChain) -> int:
+    """Estimated cost of the exact solve: entries of L and U (no reordering) times the state count.
+
+    Exact values carry about as many digits as there are states, so the rational work grows like
+    fill x size. The fill is read from a float factorisation in the same (natural) order.
+    """
+    from scipy.sparse import identity
+    from scipy.sparse.linalg import splu
+
+    n = chain.size
+    if n == 0:
+        return 0
+    lu = splu((identity(n, format="csc") - chain.q_matrix()).tocsc(), permc_spec="NATURAL", diag_pivot_thresh=0)
+    return int(lu.L.nnz + lu.U.nnz) * n
 
 
 def _rhs_columns(chain: BankrollChain):
@@ -374,13 +397,13 @@ def _series(chain: BankrollChain, series, series_exact) -> tuple[tuple[float, ..
     decimal[grid.goal] = 1.0
     width = grid.width
     if width:
-        decimal[grid.low : grid.goal] = np.asarray(series, dtype=float)[:width]
+        decimal[grid.low : grid.goal] = np.asarray(series, dtype=float)[:: chain.levels][:width]
     exact = None
     if series_exact is not None:
         exact = [QQ(0)] * size
         exact[grid.goal] = QQ(1)
         for k in range(width):
-            exact[grid.low + k] = series_exact[k]
+            exact[grid.low + k] = series_exact[k * chain.levels]
         decimal = np.array([to_float(v) for v in exact])
     return tuple(decimal.tolist()), (tuple(exact) if exact is not None else None)
 
