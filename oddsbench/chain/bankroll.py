@@ -83,7 +83,8 @@ def make_grid(
 ) -> BankrollGrid:
     """Check the money amounts and express them in grid steps (one clear line per problem)."""
     floor = QQ(0) if floor is None else floor
-    unit = unit if unit is not None else (min_bet if min_bet is not None else QQ(1))
+    if unit is None:
+        unit = QQ(1) if min_bet is None or is_integer(min_bet) else min_bet
     if unit <= 0:
         raise OddsbenchError(f"betting unit must be more than 0, got {text(unit)}")
     min_bet = min_bet if min_bet is not None else unit

@@ -51,7 +51,7 @@ def register(commands) -> None:
     parser.add_argument("--min-bet", metavar="MONEY", help="table minimum (default: the betting unit)")
     parser.add_argument("--max-bet", metavar="MONEY", help="table maximum (default: none)")
     parser.add_argument(
-        "--unit", metavar="MONEY", help="betting unit: bets are whole multiples (default: min bet, else 1)"
+        "--unit", metavar="MONEY", help="betting unit: bets are whole multiples (default 1, or a fractional min bet)"
     )
     parser.add_argument("--max-rounds", type=positive_int, metavar="N", help="time cap: stop after N rounds")
     parser.add_argument(
