@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import argparse
+import os
 import sys
 from collections.abc import Sequence
 
@@ -20,6 +21,9 @@ from oddsbench.model.errors import OddsbenchError, RulesetError
 
 COMMANDS = (check_command, solve_command, best_command, simulate_command, report_command, sweep_command, open_command)
 EXIT_BAD_INPUT = 2
+EXIT_INTERNAL = 70
+EXIT_INTERRUPTED = 130
+EXIT_BROKEN_PIPE = 141
 
 
 def build_parser() -> argparse.ArgumentParser:
@@ -37,6 +41,9 @@ def build_parser() -> argparse.ArgumentParser:
 
 
 def main(argv: Sequence[str] | None = None) -> int:
+    for stream in (sys.stdout, sys.stderr):
+        if hasattr(stream, "reconfigure"):
+            stream.reconfigure(errors="backslashreplace")  # odd names never crash the output
     parser = build_parser()
     args = parser.parse_args(argv)
     try:
@@ -52,14 +59,25 @@ def main(argv: Sequence[str] | None = None) -> int:
         return EXIT_BAD_INPUT
     except KeyboardInterrupt:
         print("oddsbench: interrupted", file=sys.stderr)
-        return 130
+        return EXIT_INTERRUPTED
     except BrokenPipeError:
-        # The reader (e.g. `head`) closed the pipe: stop quietly, as Unix tools do.
-        import os
-
+        # The reader went away (``| head``): stop quietly, and keep Python's exit flush quiet too.
         devnull = os.open(os.devnull, os.O_WRONLY)
         os.dup2(devnull, sys.stdout.fileno())
-        return 141
+        return EXIT_BROKEN_PIPE
+    except MemoryError:
+        print("oddsbench: out of memory: lower --exact-limit or --max-states", file=sys.stderr)
+        return EXIT_BAD_INPUT
+    except Exception as error:  # the last line of defence: one line, never a traceback
+        if os.environ.get("ODDSBENCH_DEBUG"):
+            raise
+        message = " ".join(str(error).split())[:300]
+        print(
+            f"oddsbench: internal error: {type(error).__name__}: {message} "
+            "(a bug: please report it; set ODDSBENCH_DEBUG=1 for the details)",
+            file=sys.stderr,
+        )
+        return EXIT_INTERNAL
 
 
 def entry() -> None:
