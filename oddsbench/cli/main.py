@@ -85,4 +85,9 @@ def _no_command(parser: argparse.ArgumentParser) -> int:
 
 
 def entry() -> None:
-    sys.exit(main())
+    try:
+        code = main()
+    except KeyboardInterrupt:  # Ctrl-C before a command started (while parsing or importing)
+        print("oddsbench: interrupted", file=sys.stderr)
+        code = EXIT_INTERRUPTED
+    sys.exit(code)
