@@ -12,7 +12,7 @@ from __future__ import annotations
 import os
 
 import tomlkit
-from hypothesis import HealthCheck, assume, given, settings
+from hypothesis import HealthCheck, assume, event, given, settings
 from hypothesis import strategies as st
 
 from oddsbench.chain.round_chain import build_round_chain
@@ -106,6 +106,31 @@ STATE = st.one_of(
     st.fixed_dictionaries({"choices": st.dictionaries(NAMES, OUTCOMES, max_size=3)}),
     JUNK,
 )
+TEMPLATES = st.sampled_from(["f-{t}", "f-{t + 1}", "f-{t - 1}", "f-{t}-{u}", "a", "won", "f-{", "f-{t/2}", "f-{x}"])
+FAMILY_OUTCOME = st.dictionaries(
+    st.sampled_from(["to", "prob", "pay", "when", "each", "note"]),
+    st.one_of(TEMPLATES, EXPRESSIONS, st.just({"u": [0, 2]}), st.sampled_from(["t > 0", "t < 3", "u == t"]), SCALARS),
+    max_size=5,
+)
+FAMILY = st.one_of(
+    st.fixed_dictionaries(
+        {"state": st.one_of(TEMPLATES, SCALARS)},
+        optional={
+            "index": st.one_of(
+                st.dictionaries(
+                    st.sampled_from(["t", "u", "p", "if", "1t"]),
+                    st.one_of(st.tuples(st.integers(-3, 12), st.integers(-3, 12)).map(list), SCALARS),
+                    max_size=2,
+                ),
+                JUNK,
+            ),
+            "when": st.one_of(st.sampled_from(["t != 1", "t > 100", "1 -", "t"]), SCALARS),
+            "outcomes": st.one_of(st.lists(FAMILY_OUTCOME, max_size=3), JUNK),
+            "result": st.one_of(TEMPLATES, SCALARS),
+        },
+    ),
+    JUNK,
+)
 DOCUMENT = st.fixed_dictionaries(
     {},
     optional={
@@ -124,6 +149,7 @@ DOCUMENT = st.fixed_dictionaries(
         "params": st.one_of(st.dictionaries(st.sampled_from(["p", "q", "r", "1x", "__x", "if"]), SCALARS), JUNK),
         "states": st.one_of(st.dictionaries(NAMES, STATE, max_size=5), JUNK),
         "strategies": st.one_of(st.dictionaries(NAMES, st.dictionaries(NAMES, NAMES, max_size=3)), JUNK),
+        "families": st.one_of(st.dictionaries(st.sampled_from(["f", "g", ""]), FAMILY, max_size=2), JUNK),
         "session": JUNK,
         "extra": JUNK,
     },
@@ -137,12 +163,15 @@ def check_ruleset_text(text: str) -> None:
         assert str(problem).startswith("fuzz.toml: ")
     assert (result.ruleset is None) == bool(result.errors)
     if result.ruleset is None:
+        event("refused with problems")
         return
     try:
         figures = solve_round(build_round_chain(result.ruleset))
     except OddsbenchError as error:
+        event("valid, but the chain was refused")
         assert_one_line(str(error))
     else:
+        event("valid and solved")
         assert sum(figure.exact for figure in figures.end_probability.values()) == 1
 
 
@@ -195,3 +224,34 @@ def test_damaged_copies_of_a_valid_ruleset_are_read_or_refused_in_one_line(edits
 def test_the_undamaged_ruleset_is_valid():
     result = read_ruleset_text(VALID, "fuzz.toml")
     assert result.ruleset is not None, result.problems
+
+
+# Near-valid rulesets: the right shape with random targets, chances, pays and end states, so
+# many come out valid and go on through the chain builder and both engines.
+SHAPED_OUTCOME = st.fixed_dictionaries(
+    {"to": st.sampled_from(["a", "b", "won", "lost", "gone"])},
+    optional={
+        "prob": st.sampled_from(["1/2", "1/3", "1/6", "18/37", "0", "1", "1 - 1/10^30", "1/10^40"]),
+        "pay": st.one_of(st.integers(-5, 35), st.sampled_from(["-1", "35", "1/2", "2^60"])),
+        "stake": st.sampled_from([0, 1, "1/2"]),
+    },
+)
+SHAPED = st.fixed_dictionaries(
+    {
+        "ruleset": st.just({"title": "shaped", "start": "a"}),
+        "states": st.fixed_dictionaries(
+            {
+                "a": st.fixed_dictionaries({"outcomes": st.lists(SHAPED_OUTCOME, min_size=1, max_size=4)}),
+                "won": st.just({"result": "win"}),
+                "lost": st.just({"result": "loss"}),
+            },
+            optional={"b": st.fixed_dictionaries({"outcomes": st.lists(SHAPED_OUTCOME, min_size=1, max_size=4)})},
+        ),
+    }
+)
+
+
+@FUZZ
+@given(SHAPED)
+def test_near_valid_rulesets_are_solved_or_refused_in_one_line(document):
+    check_ruleset_text(toml_text(document))
