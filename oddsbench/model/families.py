@@ -231,6 +231,20 @@ def _combinations(
         yield from _combinations(rest, inner, tried)
 
 
+def _fixed_count(ranges: list[_Range], params: Mapping[str, Rational]) -> int | None:
+    """How many combinations the ranges give, when no range depends on another (else None):
+    a hopeless expansion is refused at once, with its size, instead of after the budget runs out."""
+    count = 1
+    for item in ranges:
+        try:
+            low = _whole(item.low, params, "low end")
+            high = _whole(item.high, params, "high end")
+        except ExpressionError:
+            return None
+        count *= max(high - low + 1, 0)
+    return count
+
+
 def _where(env: Mapping[str, Rational], names: list[str]) -> str:
     shown = ", ".join(f"{name}={text(env[name])}" for name in names if name in env)
     return f" at {shown}" if shown else ""
@@ -359,6 +373,12 @@ class _Family:
 
     def members(self, params: dict[str, Rational]) -> Iterator[tuple[dict[str, Rational], str]]:
         env: dict[str, Rational] = params
+        count = _fixed_count(self.ranges, params)
+        if count is not None and count > self.tried[0]:
+            raise FamilyError(
+                f"family {self.name!r}: index ranges give {count:,} combinations, over the limit of "
+                f"{MAX_FAMILY_COMBINATIONS:,}"
+            )
         combinations = _combinations(self.ranges, params, self.tried)
         while True:
             try:
