@@ -11,6 +11,7 @@ from oddsbench import __version__
 from oddsbench.cli import (
     best_command,
     check_command,
+    open_command,
     report_command,
     simulate_command,
     solve_command,
@@ -18,7 +19,7 @@ from oddsbench.cli import (
 )
 from oddsbench.model.errors import OddsbenchError, RulesetError
 
-COMMANDS = (check_command, solve_command, best_command, simulate_command, report_command, sweep_command)
+COMMANDS = (check_command, solve_command, best_command, simulate_command, report_command, sweep_command, open_command)
 EXIT_BAD_INPUT = 2
 EXIT_INTERNAL = 70
 EXIT_INTERRUPTED = 130
@@ -45,9 +46,9 @@ def main(argv: Sequence[str] | None = None) -> int:
             stream.reconfigure(errors="backslashreplace")  # odd names never crash the output
     parser = build_parser()
     args = parser.parse_args(argv)
-    if args.command is None:
-        return _no_command(parser)
     try:
+        if args.command is None:
+            return open_command.run_workbench(None)
         return int(args.run(args) or 0)
     except RulesetError as error:
         for problem in error.problems:
@@ -77,11 +78,6 @@ def main(argv: Sequence[str] | None = None) -> int:
             file=sys.stderr,
         )
         return EXIT_INTERNAL
-
-
-def _no_command(parser: argparse.ArgumentParser) -> int:
-    parser.print_help()
-    return 0
 
 
 def entry() -> None:
