@@ -99,3 +99,42 @@ def test_a_process_killed_while_saving_leaves_the_old_file_whole(moment, tmp_pat
     written = target.read_text(encoding="utf-8")
     assert "Pass line" in written
     assert written.strip() == printed.stdout.strip()  # the whole report, as printed to the terminal
+
+
+SAVE_AT = """
+import os, sys, time
+from oddsbench.model.atomic_write import write_text_atomically
+
+real = getattr(os, sys.argv[1])
+
+def wait_to_be_killed(*args, **kwargs):
+    print("at-write", flush=True)
+    time.sleep(120)
+    return real(*args, **kwargs)
+
+setattr(os, sys.argv[1], wait_to_be_killed)
+write_text_atomically(sys.argv[2], "new text\\n" * 100000)
+"""
+
+
+@pytest.mark.skipif(sys.platform == "win32", reason="POSIX signals")
+@pytest.mark.parametrize("moment", ["fsync", "replace"])
+def test_a_workbench_save_killed_midway_leaves_the_old_ruleset_whole(moment, tmp_path):
+    target = tmp_path / "mine.toml"
+    old = (PASS_LINE).read_text(encoding="utf-8")
+    target.write_text(old, encoding="utf-8")
+    process = subprocess.Popen(
+        [sys.executable, "-c", SAVE_AT, moment, str(target)],
+        cwd=tmp_path,
+        env=_env(),
+        stdout=subprocess.PIPE,
+        stderr=subprocess.PIPE,
+        text=True,
+    )
+    try:
+        assert process.stdout.readline() == "at-write\n", process.stderr.read()
+    finally:
+        process.kill()
+        process.communicate(timeout=30)
+    assert process.returncode == -signal.SIGKILL
+    assert target.read_text(encoding="utf-8") == old
