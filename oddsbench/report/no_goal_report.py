@@ -10,6 +10,7 @@ from oddsbench.report.numbers_text import exact_text, render_table
 from oddsbench.solve.unbounded_ruin import Certified, RoundsToRuin, UnboundedRuin
 from oddsbench.strategy.endless_play import EndlessPlayFigures
 
+WRITTEN_OUT_WIDTH = 90
 APPROXIMATION_LABEL = "approximation, not a bound (common practice, no source)"
 
 
@@ -37,7 +38,7 @@ def no_goal_rows(figures: EndlessPlayFigures) -> list[tuple[str, str, str]]:
     ruin = figures.ruin
     rows: list[tuple[str, str, str]] = [("ruin chance (play never stops)", ruin.ruin_exact_text, ruin.ruin.text)]
     if ruin.ruin_exact is not None and ruin.ruin_exact_text != text(ruin.ruin_exact):
-        rows.append(("  written out", exact_text(ruin.ruin_exact), ""))
+        rows.append(("  written out", exact_text(ruin.ruin_exact, WRITTEN_OUT_WIDTH), ""))
     root = ruin.theta
     if root is not None:
         name = "theta: root in (0, 1) of E[t^X] = 1" if ruin.is_skip_free else "rho: root in (0, 1) of E[t^X] = 1"
@@ -86,12 +87,12 @@ def no_goal_text(figures: EndlessPlayFigures, title: str = "round") -> str:
         f"({text(walk.bet * walk.cover)})."
     )
     verdict = {
-        "certain": "Ruin is certain (probability exactly 1).",
-        "never": "Ruin cannot happen (probability 0).",
-        "possible": "Ruin is possible but not certain.",
+        "certain": "Ruin is certain: probability exactly 1. Reason:",
+        "never": "Ruin cannot happen: probability 0. Reason:",
+        "possible": "Verdict:",
     }[ruin.verdict]
     table = render_table(["quantity", "exact", "decimal"], [list(row) for row in no_goal_rows(figures)])
-    parts = [heading, "", f"{verdict} Why: {ruin.reason}.", "", table, ""]
+    parts = [heading, "", f"{verdict} {ruin.reason}.", "", table, ""]
     parts.append(f"Method: {ruin.method}.")
     parts.append(f"Error bound of the decimal: {ruin.error_bound}.")
     if ruin.lundberg is not None:
@@ -107,9 +108,10 @@ def no_goal_text(figures: EndlessPlayFigures, title: str = "round") -> str:
     if ruin.rounds_if_ruined is not None:
         parts.append(f"When ruin comes: {ruin.rounds_if_ruined.method}.")
     if ruin.truncation is not None:
+        power = "theta" if ruin.is_skip_free else "rho"
         parts.append(
             "Check: ruin before a goal, solved exactly, is a lower bound that rises to the answer; "
-            f"the gap is at most rho^goal; the result above lies inside it"
+            f"the gap is at most {power}^goal; the result above lies inside it"
             f" ({'yes' if ruin.truncation.consistent else 'NO'})."
         )
     notes = list(ruin.notes) + [

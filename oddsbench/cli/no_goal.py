@@ -1,0 +1,89 @@
+"""``--goal none`` for the session command: endless play until ruin, no target.
+
+The session command hands over the round's results, the bankroll and the plan; this module
+checks that the plan's bet stays bounded (flat and timid plans), solves the unbounded walk and
+prints the figures with the cautions.
+"""
+
+from __future__ import annotations
+
+import argparse
+import json
+from collections.abc import Iterable
+
+from oddsbench.cli.options import positive_int
+from oddsbench.model.errors import OddsbenchError
+
+NO_GOAL_WORDS = frozenset({"none", "no", "never"})
+DEFAULT_NO_GOAL_DIGITS = 20
+ENDLESS_PLANS = "flat:B (a fixed bet of B) or timid[:U] (always the smallest bet, U, default 1)"
+
+
+def is_no_goal(goal: object) -> bool:
+    """``goal = "none"`` in a [session] table, or ``--goal none`` on the command line."""
+    return isinstance(goal, str) and goal.strip().lower() in NO_GOAL_WORDS
+
+
+def add_no_goal_arguments(parser: argparse.ArgumentParser) -> None:
+    parser.add_argument(
+        "--digits",
+        type=positive_int,
+        default=DEFAULT_NO_GOAL_DIGITS,
+        metavar="N",
+        help=f"with --goal none: significant digits of each decimal, each one proved (default "
+        f"{DEFAULT_NO_GOAL_DIGITS})",
+    )
+    parser.add_argument(
+        "--no-check",
+        action="store_true",
+        help="with --goal none: skip the exact truncation cross-check (faster for long bankrolls)",
+    )
+
+
+def endless_bet(plan: str | None, source: str = "--plan"):
+    """The bet of a plan that can be played for ever: flat:B or timid[:U]; others are refused."""
+    from oddsbench.model.expr import ExpressionError, evaluate_text
+    from oddsbench.model.numbers import QQ, text
+
+    if plan is None or plan.strip() == "":
+        return QQ(1)
+    kind, _, amount = plan.strip().partition(":")
+    kind = kind.strip().lower()
+    if kind not in ("flat", "timid"):
+        raise OddsbenchError(
+            f"{source} {plan!r}: with no goal the bet must stay bounded; use {ENDLESS_PLANS}"
+            + (" (bold play needs a goal to aim at)" if kind == "bold" else "")
+        )
+    if not amount.strip():
+        if kind == "flat":
+            raise OddsbenchError(f"{source} {plan!r}: give the bet, e.g. flat:1")
+        return QQ(1)
+    try:
+        bet = evaluate_text(amount.strip())
+    except ExpressionError as error:
+        raise OddsbenchError(f"{source} {plan!r}: {error}") from None
+    if bet <= 0:
+        raise OddsbenchError(f"{source} {plan!r}: the bet must be positive, got {text(bet)}")
+    return bet
+
+
+def run_no_goal(
+    outcomes: Iterable[tuple[object, object]],
+    bankroll,
+    bet,
+    cover=None,
+    digits: int = DEFAULT_NO_GOAL_DIGITS,
+    check: bool = True,
+    as_json: bool = False,
+    title: str = "round",
+) -> int:
+    """Solve and print endless play; ``outcomes`` are (net per unit bet, chance), exact."""
+    from oddsbench.report.no_goal_report import no_goal_json, no_goal_text
+    from oddsbench.strategy.endless_play import solve_endless_play
+
+    figures = solve_endless_play(list(outcomes), bet, bankroll, cover=cover, digits=digits, check=check)
+    if as_json:
+        print(json.dumps(no_goal_json(figures, title), indent=2))
+    else:
+        print(no_goal_text(figures, title))
+    return 0
