@@ -240,3 +240,17 @@ def test_flat_bet_of_two_units_counts_the_bankroll_in_steps_of_the_bet():
 def test_bankroll_that_cannot_cover_one_bet_is_refused():
     with pytest.raises(OddsbenchError, match="cannot cover one bet"):
         endless_flat_walk([(QQ(1), QQ(1, 2)), (QQ(-1), QQ(1, 2))], 3, 2)
+
+
+def test_float_truncation_agrees_with_exact_truncation():
+    from oddsbench.solve.unbounded_ruin import ruin_before_goal_float
+
+    law = tuple(sorted({-2: QQ(1, 5), -1: QQ(1, 10), 1: QQ(3, 5), 2: QQ(1, 10)}.items()))
+    assert abs(ruin_before_goal_float(law, 7, 120) - float(ruin_before_goal(law, 7, 120))) < 1e-14
+
+
+def test_large_systems_are_checked_in_floating_point():
+    # a favourable 35-to-1 bet (won 1 time in 30): the check needs thousands of levels of band 36
+    ruin = solve_unbounded_ruin({35: QQ(1, 30), -1: QQ(29, 30)}, 50)
+    assert ruin.truncation.arithmetic == "floating point" and ruin.truncation.consistent
+    assert any("floating point" in note for note in ruin.notes)

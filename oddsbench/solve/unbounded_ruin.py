@@ -43,8 +43,11 @@ DEFAULT_DIGITS = 30
 MAX_DIGITS = 2000
 MAX_SPAN = 400  # largest loss + largest win, in steps: the degree of the characteristic polynomial
 MAX_EXACT_BITS = 200_000  # expand theta^bankroll as one fraction only below this size
-CHECK_DIGITS = 12  # the truncation cross-check aims at an error bound of 10^-12
-MAX_CHECK_LEVELS = 3_000  # exact truncation systems larger than this are not attempted
+CHECK_DIGITS = 12  # the truncation cross-check aims at an error bound of 10^-12 (relative to rho^bankroll)
+EXACT_CHECK_WORK = 5_000_000  # levels^2 x span: exact truncation above this (~0.5 s) is done in floats
+EXACT_FALLBACK_WORK = 60_000_000  # when truncation is the method itself, exact up to this (~10 s)
+MAX_FLOAT_CHECK_LEVELS = 1_000_000  # float truncation (banded solve) up to this many levels
+FLOAT_CHECK_TOLERANCE = 1e-11  # absolute error allowed to the float check (direct solvers: ~1e-14)
 VERDICT_CERTAIN = "certain"
 VERDICT_NEVER = "never"
 VERDICT_POSSIBLE = "possible"
@@ -92,10 +95,11 @@ class TruncationCheck:
     """P(ruin before the bankroll reaches ``goal``): an exact lower bound on the ruin chance."""
 
     goal: int  # in steps of the walk
-    lower: Rational
+    lower: Rational | None  # exact, when solved in exact arithmetic
     lower_decimal: Certified
     gap_bound: Certified  # psi - lower <= rho^goal
     consistent: bool  # the root result lies inside [lower, lower + gap bound]
+    arithmetic: str = "exact"  # "exact", or "floating point" for systems too large for rationals
 
 
 @dataclass(frozen=True)
@@ -462,29 +466,72 @@ def ruin_before_goal(law: tuple[tuple[int, Rational], ...], level: int, goal: in
     return solution[level - 1]
 
 
-def _truncation_goal(level: int, rate: float, digits: int) -> int | None:
-    """Goal whose gap bound rho^goal is 10^-digits times rho^level (None if too large to solve)."""
-    goal = level + 1 + math.ceil(digits * math.log(10) / rate)
-    return goal if goal <= MAX_CHECK_LEVELS else None
+def ruin_before_goal_float(law: tuple[tuple[int, Rational], ...], level: int, goal: int) -> float:
+    """The same chance in floating point: one banded solve (scipy), for systems too big for rationals."""
+    import numpy as np
+    from scipy.linalg import solve_banded
+
+    if level <= 0:
+        return 1.0
+    if level >= goal:
+        return 0.0
+    size = goal - 1
+    below = -min(0, law[0][0])
+    above = max(0, law[-1][0])
+    bands = np.zeros((below + above + 1, size))
+    bands[above, :] = 1.0
+    rhs = np.zeros(size)
+    for jump, chance in law:
+        p = float(chance)
+        for_rows = np.arange(1, goal)
+        targets = for_rows + jump
+        ruin_rows = targets <= 0
+        rhs[ruin_rows] += p
+        inside = (targets >= 1) & (targets < goal)
+        rows, cols = for_rows[inside] - 1, targets[inside] - 1
+        bands[above + rows - cols, cols] -= p
+    solution = solve_banded((below, above), bands, rhs)
+    return float(solution[level - 1])
 
 
-def _truncation_check(law, level: int, rho: CharacteristicRoot, rate: float, digits: int, goal: int | None,
-                      root_ball=None) -> TruncationCheck | None:
+def _truncation_goal(level: int, rate: float, digits: int) -> int:
+    """Goal whose gap bound rho^goal is 10^-digits times rho^level."""
+    return level + 1 + math.ceil(digits * math.log(10) / rate)
+
+
+def _truncation_check(law, level: int, rho: CharacteristicRoot, digits: int, goal: int | None,
+                      root_ball=None, exact_work: int = EXACT_CHECK_WORK) -> TruncationCheck | None:
+    """P(ruin before goal) beside the root result: exact when small enough, else floats, else None."""
     from flint import arb
 
     if goal is None:
         return None
-    lower = ruin_before_goal(law, level, goal)
+    span = law[-1][0] - law[0][0]
+    exact = goal * goal * max(span, 1) <= exact_work
     with _precision(_bits_for(digits, goal)):
         rho_ball = _arb_of(rho.exact) if rho.is_rational else _real_root_ball(rho.polynomial, 0, 1)
         gap = rho_ball**goal
+        gap_upper = arb(gap.mid() + gap.rad())
+    if not exact:
+        if goal > MAX_FLOAT_CHECK_LEVELS or root_ball is None or not root_ball > arb("1e-280"):
+            return None
+        lower_float = ruin_before_goal_float(law, level, goal)
+        with _precision(_bits_for(digits, goal)):
+            consistent = bool(
+                root_ball > arb(lower_float - FLOAT_CHECK_TOLERANCE)
+                and root_ball < arb(lower_float + FLOAT_CHECK_TOLERANCE) + gap_upper
+            )
+            shown = Certified(f"{lower_float:.12g}", f"{FLOAT_CHECK_TOLERANCE:g}", math.log10(lower_float)
+                              if lower_float > 0 else -math.inf, lower_float)
+            return TruncationCheck(goal, None, shown, _certified(gap_upper, 3), consistent, "floating point")
+    lower = ruin_before_goal(law, level, goal)
+    with _precision(_bits_for(digits, goal)):
         lower_ball = _arb_of(lower)
         consistent = True
         if root_ball is not None:
             # proved: lower <= psi <= lower + gap; the root result must overlap that interval
             interval = arb(lower_ball.mid() + gap.mid() / 2, gap.mid() / 2 + gap.rad() + lower_ball.rad())
             consistent = bool(interval.overlaps(root_ball))
-        gap_upper = arb(gap.mid() + gap.rad())
         return TruncationCheck(goal, lower, _certified(lower_ball, digits), _certified(gap_upper, 3), consistent)
 
 
@@ -710,24 +757,29 @@ def _possible_ruin(common: dict, reduced, level: int, notes: list[str], check: b
             )
             error_bound = f"at most {ruin.radius} (proved by interval arithmetic)"
         else:
-            truncation_goal = truncation_goal or _truncation_goal(level, rate, 6)
-            if truncation_goal is None:
+            truncation_goal = _truncation_goal(level, rate, min(digits, CHECK_DIGITS))
+            check_only = _truncation_check(reduced, level, rho, digits, truncation_goal,
+                                           exact_work=EXACT_FALLBACK_WORK)
+            if check_only is None or check_only.lower is None:
                 raise OddsbenchError(
-                    "this walk has repeated or too many characteristic roots and its edge is too small for "
-                    f"exact truncation within {MAX_CHECK_LEVELS:,} levels"
+                    "this walk has repeated characteristic roots (or too many to isolate) and its edge is too "
+                    "small for exact truncation: no proved answer within the limits"
                 )
-            check_only = _truncation_check(reduced, level, rho, rate, digits, truncation_goal)
-            assert check_only is not None
             return _truncation_answer(common, check_only, rho, adjustment, lundberg, lundberg_text, diffusion,
                                       diffusion_text, reason, notes)
-    truncation = _truncation_check(reduced, level, rho, rate, digits, truncation_goal, root_ball)
+    truncation = _truncation_check(reduced, level, rho, digits, truncation_goal, root_ball)
     if check and truncation is None:
         notes.append(
-            f"truncation cross-check skipped: an error bound of 1e-{CHECK_DIGITS} would need more than "
-            f"{MAX_CHECK_LEVELS:,} levels"
+            f"truncation cross-check skipped: the goal it needs ({truncation_goal:,} steps) is too far for a "
+            "check, or the ruin chance is below the float range"
+        )
+    elif truncation is not None and truncation.arithmetic != "exact":
+        notes.append(
+            f"truncation cross-check solved in floating point: {truncation.goal:,} levels are too many for "
+            "rationals in good time"
         )
     if truncation is not None and not truncation.consistent:
-        raise OddsbenchError("internal check failed: the root method disagrees with exact truncation")
+        raise OddsbenchError("internal check failed: the root method disagrees with truncation")
     return UnboundedRuin(
         **common, verdict=VERDICT_POSSIBLE, reason=reason, ruin=ruin, ruin_exact=ruin_exact,
         ruin_closed_form=closed_form, ruin_exact_text=exact_text, method=method, error_bound=error_bound,
