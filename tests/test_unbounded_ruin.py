@@ -36,8 +36,7 @@ def test_favourable_even_money_ruin_is_q_over_p_to_the_bankroll(p, z):
     ruin = solve_unbounded_ruin(even_money(p), z, check=False)
     q = 1 - p
     assert ruin.verdict == "possible"
-    assert ruin.ruin_exact == QQ(numerator(q) ** z * denominator(p) ** z,
-                                 numerator(p) ** z * denominator(q) ** z)
+    assert ruin.ruin_exact == QQ(numerator(q) ** z * denominator(p) ** z, numerator(p) ** z * denominator(q) ** z)
     assert ruin.theta.is_rational and ruin.theta.exact == q / p
 
 
@@ -229,17 +228,31 @@ def test_chances_that_do_not_add_up_to_one_are_refused():
         solve_unbounded_ruin({1: QQ(1, 2), -1: QQ(2, 5)}, 3)
 
 
-def test_flat_bet_of_two_units_counts_the_bankroll_in_steps_of_the_bet():
-    # bankroll 5, bet 2 on even money, ruin when under 2: 5 -> 3 -> 1 takes two losses in a row
-    walk = endless_flat_walk([(QQ(1), QQ(3, 5)), (QQ(-1), QQ(2, 5))], 2, 5)
-    assert walk.level == 4 and dict(walk.jumps) == {2: QQ(3, 5), -2: QQ(2, 5)}
+def test_flat_bet_of_two_units_on_an_even_bankroll_never_needs_a_cut_bet():
+    # bankroll 20, bet 2 on even money: the bankroll stays even and ruin is (q/p)^10 in steps of 2
+    figures = solve_endless_play([(QQ(1), QQ(51, 100)), (QQ(-1), QQ(49, 100))], 2, 20)
+    assert figures.walk.bottom == ((QQ(1), ((-1, QQ(49, 100)), (1, QQ(51, 100)))),)
+    assert figures.ruin.ruin_exact == QQ(49**10, 51**10)
+
+
+def test_cut_bets_near_the_bottom_match_exact_truncation():
+    # bankroll 5, bet 2, ruin below 1: at a bankroll of 1 the bet is cut to 1 (the session rules)
+    from oddsbench.solve import unbounded_ruin as ur
+    from oddsbench.solve.clipped_ruin import _Problem, ruin_before_goal_levels
+
     figures = solve_endless_play([(QQ(1), QQ(3, 5)), (QQ(-1), QQ(2, 5))], 2, 5)
-    assert figures.ruin.ruin_exact == QQ(4, 9)
+    walk = figures.walk
+    assert walk.level == 5 and len(walk.bottom) == 1
+    problem = _Problem(walk.jumps, tuple(law for _, law in walk.bottom), 5)
+    lower = ruin_before_goal_levels(problem, 5, 300)
+    assert figures.ruin.ruin_exact is not None  # theta = 2/3 is rational: one exact system
+    assert 0 <= figures.ruin.ruin_exact - lower < QQ(1, 10**20)
+    assert ur.VERDICT_POSSIBLE == figures.ruin.verdict
 
 
 def test_bankroll_that_cannot_cover_one_bet_is_refused():
-    with pytest.raises(OddsbenchError, match="cannot cover one bet"):
-        endless_flat_walk([(QQ(1), QQ(1, 2)), (QQ(-1), QQ(1, 2))], 3, 2)
+    with pytest.raises(OddsbenchError, match="cannot cover the minimum bet"):
+        endless_flat_walk([(QQ(1), QQ(1, 2)), (QQ(-1), QQ(1, 2))], 3, 2, unit=1, min_bet=3)
 
 
 def test_float_truncation_agrees_with_exact_truncation():
@@ -254,3 +267,53 @@ def test_large_systems_are_checked_in_floating_point():
     ruin = solve_unbounded_ruin({35: QQ(1, 30), -1: QQ(29, 30)}, 50)
     assert ruin.truncation.arithmetic == "floating point" and ruin.truncation.consistent
     assert any("floating point" in note for note in ruin.notes)
+
+
+def _levels_problem(tail, bottom, bankroll):
+    from oddsbench.solve import unbounded_ruin as ur
+    from oddsbench.solve.clipped_ruin import _Problem
+
+    return _Problem(ur._normalise(tail), tuple(ur._normalise(law) for law in bottom), bankroll)
+
+
+def _scaled(law, units):
+    return {jump * units: chance for jump, chance in law.items()}
+
+
+@pytest.mark.parametrize(
+    "law",
+    [SKIP_FREE, {-2: QQ(1, 5), -1: QQ(1, 10), 1: QQ(3, 5), 2: QQ(1, 10)}],
+    ids=["skip-free payouts", "losses of one and two"],
+)
+def test_cut_bets_with_irrational_roots_match_exact_truncation(law):
+    from oddsbench.solve.clipped_ruin import ruin_before_goal_levels, solve_clipped_ruin
+
+    tail, bottom = _scaled(law, 3), [_scaled(law, 1), _scaled(law, 2)]
+    ruin = solve_clipped_ruin(tail, bottom, 10)
+    assert ruin.truncation.consistent
+    lower = ruin_before_goal_levels(_levels_problem(tail, bottom, 10), 10, 500)
+    assert abs(ruin.ruin.value - float(lower)) < 1e-12
+    assert ruin.ruin.value <= ruin.lundberg.value
+
+
+def test_cut_bets_subfair_expected_rounds_match_a_long_truncated_walk():
+    from oddsbench.solve.clipped_ruin import solve_clipped_ruin
+
+    p, q = QQ(18, 37), QQ(19, 37)
+    tail, bottom = {3: p, -3: q}, [{1: p, -1: q}, {2: p, -2: q}]
+    ruin = solve_clipped_ruin(tail, bottom, 20)
+    assert ruin.verdict == "certain" and ruin.rounds_to_ruin.exact is not None
+    # E[rounds] by first-step analysis on levels 1..3000 (reaching 3000 from 20 is negligible)
+    import scipy.sparse as sp
+    from scipy.sparse.linalg import spsolve
+
+    problem = _levels_problem(tail, bottom, 20)
+    size = 3_000
+    rows, cols, vals = [], [], []
+    for k in range(1, size + 1):
+        rows.append(k - 1), cols.append(k - 1), vals.append(1.0)
+        for jump, chance in problem.law_at(k):
+            if 1 <= k + jump <= size:
+                rows.append(k - 1), cols.append(k + jump - 1), vals.append(-float(chance))
+    durations = spsolve(sp.csc_matrix((vals, (rows, cols)), shape=(size, size)), np.ones(size))
+    assert abs(float(ruin.rounds_to_ruin.exact) - durations[19]) < 1e-6

@@ -46,15 +46,11 @@ def no_goal_rows(figures: EndlessPlayFigures) -> list[tuple[str, str, str]]:
     if ruin.adjustment_coefficient is not None:
         rows.append(("adjustment coefficient R", ruin.adjustment_text, ruin.adjustment_coefficient.text))
     if ruin.lundberg is not None:
-        power = "theta" if ruin.is_skip_free else "rho"
-        rows.append((
-            "Lundberg upper bound exp(-R x bankroll)",
-            f"{power}^{ruin.steps_bankroll}" + (" (= the exact figure)" if ruin.is_skip_free else ""),
-            ruin.lundberg.text,
-        ))
+        rows.append(("Lundberg upper bound exp(-R x bankroll)", ruin.lundberg_exact_text, ruin.lundberg.text))
     if ruin.diffusion is not None and ruin.diffusion_exponent is not None:
-        rows.append(("diffusion approximation (rule of thumb)", f"exp({text(ruin.diffusion_exponent)})",
-                     ruin.diffusion.text))
+        rows.append(
+            ("diffusion approximation (rule of thumb)", f"exp({text(ruin.diffusion_exponent)})", ruin.diffusion.text)
+        )
     if ruin.diffusion_ratio is not None:
         rows.append(("  rule of thumb / exact", "", ruin.diffusion_ratio.text))
     rows.append(("expected result per round (edge)", exact_text(ruin.mean * figures.walk.grid), ""))
@@ -63,8 +59,13 @@ def no_goal_rows(figures: EndlessPlayFigures) -> list[tuple[str, str, str]]:
         rows.append(("expected rounds to ruin, when ruin comes", *_rounds_cells(ruin.rounds_if_ruined)))
     check = ruin.truncation
     if check is not None:
-        rows.append((f"check: ruin before the bankroll reaches {_goal_text(figures)}", exact_text(check.lower),
-                     check.lower_decimal.text))
+        rows.append(
+            (
+                f"check: ruin before the bankroll reaches {_goal_text(figures)}",
+                exact_text(check.lower),
+                check.lower_decimal.text,
+            )
+        )
         power = "theta" if ruin.is_skip_free else "rho"
         rows.append(("  its gap to the answer is at most", f"{power}^{check.goal}", check.gap_bound.text))
     return rows
@@ -72,10 +73,8 @@ def no_goal_rows(figures: EndlessPlayFigures) -> list[tuple[str, str, str]]:
 
 def _goal_text(figures: EndlessPlayFigures) -> str:
     walk, ruin = figures.walk, figures.ruin
-    # the check's goal is in steps of the walk (step s, start ceil(level / s)); back to betting units
-    goal = ruin.truncation.goal if ruin.truncation else 0
-    grid_goal = walk.level + ruin.step * (goal - ruin.steps_bankroll) + walk.need_grid - 1
-    return exact_text(grid_goal * walk.grid)
+    goal_level = ruin.truncation.goal_level if ruin.truncation else 0
+    return exact_text((goal_level + walk.low - 1) * walk.grid)
 
 
 def no_goal_text(figures: EndlessPlayFigures, title: str = "round") -> str:
@@ -83,9 +82,14 @@ def no_goal_text(figures: EndlessPlayFigures, title: str = "round") -> str:
     walk, ruin = figures.walk, figures.ruin
     heading = (
         f"{title}: endless play, no goal. Round {figures.round_text}; flat bet {text(walk.bet)}; "
-        f"bankroll {text(walk.bankroll)}. Ruin: the bankroll can no longer cover a bet "
-        f"({text(walk.bet * walk.cover)})."
+        f"bankroll {text(walk.bankroll)}. Ruin: the bankroll can no longer cover the minimum bet "
+        f"(it needs {text(walk.low * walk.grid)})."
     )
+    if walk.floor:
+        heading += f" Play also stops at the floor {text(walk.floor)}, counted as ruin here."
+    if walk.bottom:
+        cut = ", ".join(sorted({text(bet) for bet, _ in walk.bottom}))
+        heading += f" Below {text(walk.full_bet_from)} the bet is cut to what the bankroll covers ({cut})."
     verdict = {
         "certain": "Ruin is certain: probability exactly 1. Reason:",
         "never": "Ruin cannot happen: probability 0. Reason:",
@@ -175,14 +179,18 @@ def no_goal_json(figures: EndlessPlayFigures, title: str = "round") -> dict[str,
             "method": ruin.method,
             "error_bound": ruin.error_bound,
         },
-        "root": None if root is None else {
+        "root": None
+        if root is None
+        else {
             "polynomial": root.polynomial_text,
             "exact": root.exact_text,
             "decimal": _certified_json(root.decimal),
         },
         "adjustment_coefficient": _certified_json(ruin.adjustment_coefficient),
         "lundberg_bound": _certified_json(ruin.lundberg),
-        "diffusion_approximation": None if ruin.diffusion is None else {
+        "diffusion_approximation": None
+        if ruin.diffusion is None
+        else {
             **_certified_json(ruin.diffusion),
             "exponent": None if ruin.diffusion_exponent is None else text(ruin.diffusion_exponent),
             "ratio_to_exact": _certified_json(ruin.diffusion_ratio),
@@ -191,7 +199,9 @@ def no_goal_json(figures: EndlessPlayFigures, title: str = "round") -> dict[str,
         "expected_result_per_round": text(ruin.mean * walk.grid),
         "expected_rounds_to_ruin": _rounds_json(ruin.rounds_to_ruin),
         "expected_rounds_if_ruined": _rounds_json(ruin.rounds_if_ruined),
-        "truncation_check": None if check is None else {
+        "truncation_check": None
+        if check is None
+        else {
             "goal_steps": check.goal,
             "lower": text(check.lower),
             "lower_decimal": _certified_json(check.lower_decimal),

@@ -100,6 +100,7 @@ class TruncationCheck:
     gap_bound: Certified  # psi - lower <= rho^goal
     consistent: bool  # the root result lies inside [lower, lower + gap bound]
     arithmetic: str = "exact"  # "exact", or "floating point" for systems too large for rationals
+    goal_level: int = 0  # the goal in grid units above the ruin line (``goal`` may count steps)
 
 
 @dataclass(frozen=True)
@@ -125,6 +126,7 @@ class UnboundedRuin:
     adjustment_coefficient: Certified | None  # R = -ln(rho) per step of the walk
     lundberg: Certified | None  # exp(-R * steps_bankroll) = rho^steps_bankroll
     lundberg_text: str
+    lundberg_exact_text: str  # "theta^20 (= the exact figure)", "rho^19"
     diffusion: Certified | None  # exp(-2 mean bankroll / variance): an approximation
     diffusion_text: str
     diffusion_exponent: Rational | None  # -2 mean bankroll / variance, exact
@@ -342,9 +344,7 @@ def _root_in_unit_interval(low_first: tuple[int, ...], digits: int) -> Character
     ball, _ = _with_retries(compute, digits, 1, lambda b: _enough(b, digits))
     with _precision(_bits_for(digits) * 2):
         decimal = _certified(ball, digits)
-    return CharacteristicRoot(
-        high_first, shown_poly, exact, f"root in (0, 1) of {shown_poly}", False, decimal
-    )
+    return CharacteristicRoot(high_first, shown_poly, exact, f"root in (0, 1) of {shown_poly}", False, decimal)
 
 
 def _real_root_ball(high_first: tuple[int, ...], low: int, high: int):
@@ -499,8 +499,15 @@ def _truncation_goal(level: int, rate: float, digits: int) -> int:
     return level + 1 + math.ceil(digits * math.log(10) / rate)
 
 
-def _truncation_check(law, level: int, rho: CharacteristicRoot, digits: int, goal: int | None,
-                      root_ball=None, exact_work: int = EXACT_CHECK_WORK) -> TruncationCheck | None:
+def _truncation_check(
+    law,
+    level: int,
+    rho: CharacteristicRoot,
+    digits: int,
+    goal: int | None,
+    root_ball=None,
+    exact_work: int = EXACT_CHECK_WORK,
+) -> TruncationCheck | None:
     """P(ruin before goal) beside the root result: exact when small enough, else floats, else None."""
     from flint import arb
 
@@ -521,8 +528,12 @@ def _truncation_check(law, level: int, rho: CharacteristicRoot, digits: int, goa
                 root_ball > arb(lower_float - FLOAT_CHECK_TOLERANCE)
                 and root_ball < arb(lower_float + FLOAT_CHECK_TOLERANCE) + gap_upper
             )
-            shown = Certified(f"{lower_float:.12g}", f"{FLOAT_CHECK_TOLERANCE:g}", math.log10(lower_float)
-                              if lower_float > 0 else -math.inf, lower_float)
+            shown = Certified(
+                f"{lower_float:.12g}",
+                f"{FLOAT_CHECK_TOLERANCE:g}",
+                math.log10(lower_float) if lower_float > 0 else -math.inf,
+                lower_float,
+            )
             return TruncationCheck(goal, None, shown, _certified(gap_upper, 3), consistent, "floating point")
     lower = ruin_before_goal(law, level, goal)
     with _precision(_bits_for(digits, goal)):
@@ -572,22 +583,43 @@ def solve_unbounded_ruin(
             f"so a bankroll of {bankroll} counts as {level} step(s)"
         )
     common = dict(
-        bankroll=bankroll, jumps=law, step=step, steps_bankroll=level, mean=mean, variance=variance,
-        largest_loss=largest_loss, digits=digits,
+        bankroll=bankroll,
+        jumps=law,
+        step=step,
+        steps_bankroll=level,
+        mean=mean,
+        variance=variance,
+        largest_loss=largest_loss,
+        digits=digits,
     )
     shown_mean = text(mean * QQ(unit))
 
     if largest_loss == 0:
         reason = "no result of the round loses money, so the bankroll never falls"
         return UnboundedRuin(
-            **common, verdict=VERDICT_NEVER, reason=reason, ruin=_certified_exact(QQ(0), digits),
-            ruin_exact=QQ(0), ruin_closed_form=QQ(0), ruin_exact_text="0", method="no losing result",
-            error_bound="none: exact", theta=None, adjustment_coefficient=None, lundberg=None,
-            lundberg_text="not applicable: no losing result", diffusion=None,
-            diffusion_text="not applicable: no losing result", diffusion_exponent=None, diffusion_ratio=None,
+            **common,
+            verdict=VERDICT_NEVER,
+            reason=reason,
+            ruin=_certified_exact(QQ(0), digits),
+            ruin_exact=QQ(0),
+            ruin_closed_form=QQ(0),
+            ruin_exact_text="0",
+            method="no losing result",
+            error_bound="none: exact",
+            theta=None,
+            adjustment_coefficient=None,
+            lundberg=None,
+            lundberg_exact_text="-",
+            lundberg_text="not applicable: no losing result",
+            diffusion=None,
+            diffusion_text="not applicable: no losing result",
+            diffusion_exponent=None,
+            diffusion_ratio=None,
             adjustment_text="not applicable",
             rounds_to_ruin=RoundsToRuin("none", None, None, None, None, "ruin never happens"),
-            rounds_if_ruined=None, truncation=None, notes=tuple(notes),
+            rounds_if_ruined=None,
+            truncation=None,
+            notes=tuple(notes),
         )
     if mean <= 0:
         return _certain_ruin(common, reduced, level, notes, shown_mean)
@@ -612,19 +644,39 @@ def _certain_ruin(common: dict, reduced, level: int, notes: list[str], shown_mea
             "so without a goal the bankroll is wiped out with probability 1"
         )
         rounds = RoundsToRuin(
-            "infinite", None, None, None, None,
+            "infinite",
+            None,
+            None,
+            None,
+            None,
             "fair game: ruin is certain but its expected time is infinite (Wald: a finite mean time "
             "would force the mean result at ruin to be 0, yet it is at most -bankroll)",
         )
         diffusion_text = "not applicable: ruin is certain"
     return UnboundedRuin(
-        **common, verdict=VERDICT_CERTAIN, reason=reason, ruin=_certified_exact(QQ(1), digits),
-        ruin_exact=QQ(1), ruin_closed_form=QQ(1), ruin_exact_text="1", method="expected result per round <= 0",
-        error_bound="none: exact", theta=None, adjustment_coefficient=None, lundberg=None,
+        **common,
+        verdict=VERDICT_CERTAIN,
+        reason=reason,
+        ruin=_certified_exact(QQ(1), digits),
+        ruin_exact=QQ(1),
+        ruin_closed_form=QQ(1),
+        ruin_exact_text="1",
+        method="expected result per round <= 0",
+        error_bound="none: exact",
+        theta=None,
+        adjustment_coefficient=None,
+        lundberg=None,
+        lundberg_exact_text="-",
         lundberg_text="not applicable: no adjustment coefficient R > 0 when the expected result is <= 0",
-        diffusion=None, diffusion_text=diffusion_text, diffusion_exponent=None, diffusion_ratio=None,
-        adjustment_text="not applicable", rounds_to_ruin=rounds, rounds_if_ruined=None,
-        truncation=None, notes=tuple(notes),
+        diffusion=None,
+        diffusion_text=diffusion_text,
+        diffusion_exponent=None,
+        diffusion_ratio=None,
+        adjustment_text="not applicable",
+        rounds_to_ruin=rounds,
+        rounds_if_ruined=None,
+        truncation=None,
+        notes=tuple(notes),
     )
 
 
@@ -634,7 +686,11 @@ def _subfair_rounds(reduced, level: int, drift: Rational, largest_loss: int, dig
     if largest_loss == 1:
         value = QQ(level) / loss
         return RoundsToRuin(
-            "finite", value, value, value, _certified_exact(value, digits),
+            "finite",
+            value,
+            value,
+            value,
+            _certified_exact(value, digits),
             "Wald's identity: the walk lands exactly on 0, so E[rounds] = bankroll / expected loss per round",
         )
     lower = QQ(level) / loss
@@ -758,16 +814,19 @@ def _possible_ruin(common: dict, reduced, level: int, notes: list[str], check: b
             error_bound = f"at most {ruin.radius} (proved by interval arithmetic)"
         else:
             truncation_goal = _truncation_goal(level, rate, min(digits, CHECK_DIGITS))
-            check_only = _truncation_check(reduced, level, rho, digits, truncation_goal,
-                                           exact_work=EXACT_FALLBACK_WORK)
+            check_only = _truncation_check(reduced, level, rho, digits, truncation_goal, exact_work=EXACT_FALLBACK_WORK)
+            check_only = _with_goal_level(check_only, common, level)
             if check_only is None or check_only.lower is None:
                 raise OddsbenchError(
                     "this walk has repeated characteristic roots (or too many to isolate) and its edge is too "
                     "small for exact truncation: no proved answer within the limits"
                 )
-            return _truncation_answer(common, check_only, rho, adjustment, lundberg, lundberg_text, diffusion,
-                                      diffusion_text, reason, notes)
-    truncation = _truncation_check(reduced, level, rho, digits, truncation_goal, root_ball)
+            return _truncation_answer(
+                common, check_only, rho, adjustment, lundberg, lundberg_text, diffusion, diffusion_text, reason, notes
+            )
+    truncation = _with_goal_level(
+        _truncation_check(reduced, level, rho, digits, truncation_goal, root_ball), common, level
+    )
     if check and truncation is None:
         notes.append(
             f"truncation cross-check skipped: the goal it needs ({truncation_goal:,} steps) is too far for a "
@@ -781,46 +840,93 @@ def _possible_ruin(common: dict, reduced, level: int, notes: list[str], check: b
     if truncation is not None and not truncation.consistent:
         raise OddsbenchError("internal check failed: the root method disagrees with truncation")
     return UnboundedRuin(
-        **common, verdict=VERDICT_POSSIBLE, reason=reason, ruin=ruin, ruin_exact=ruin_exact,
-        ruin_closed_form=closed_form, ruin_exact_text=exact_text, method=method, error_bound=error_bound,
-        theta=rho, adjustment_coefficient=adjustment, lundberg=lundberg, lundberg_text=lundberg_text,
-        diffusion=diffusion, diffusion_text=diffusion_text, **_diffusion_extras(common, root_ball, digits),
+        **common,
+        verdict=VERDICT_POSSIBLE,
+        reason=reason,
+        ruin=ruin,
+        ruin_exact=ruin_exact,
+        ruin_closed_form=closed_form,
+        ruin_exact_text=exact_text,
+        method=method,
+        error_bound=error_bound,
+        theta=rho,
+        adjustment_coefficient=adjustment,
+        lundberg=lundberg,
+        lundberg_text=lundberg_text,
+        lundberg_exact_text=f"{rho_name}^{level}" + (" (= the exact figure)" if largest_loss == 1 else ""),
+        diffusion=diffusion,
+        diffusion_text=diffusion_text,
+        **_diffusion_extras(common, root_ball, digits),
         adjustment_text=_adjustment_text(rho, common["step"]),
         rounds_to_ruin=RoundsToRuin(
-            "not defined", None, None, None, None,
+            "not defined",
+            None,
+            None,
+            None,
+            None,
             "ruin is not certain: with positive chance play goes on for ever, so the plain expected time to "
             "ruin is infinite",
         ),
         rounds_if_ruined=_rounds_if_ruined(reduced, level, rho, digits) if largest_loss == 1 else None,
-        truncation=truncation, notes=tuple(notes), _reduced=reduced,
+        truncation=truncation,
+        notes=tuple(notes),
+        _reduced=reduced,
     )
 
 
-def _truncation_answer(common, check: TruncationCheck, rho, adjustment, lundberg, lundberg_text, diffusion,
-                       diffusion_text, reason, notes) -> UnboundedRuin:
+def _truncation_answer(
+    common, check: TruncationCheck, rho, adjustment, lundberg, lundberg_text, diffusion, diffusion_text, reason, notes
+) -> UnboundedRuin:
     from flint import arb
 
     digits = common["digits"]
     with _precision(_bits_for(digits, check.goal)):
         low = _arb_of(check.lower)
-        gap = _real_root_ball(rho.polynomial, 0, 1) ** check.goal if not rho.is_rational else \
-            _arb_of(rho.exact) ** check.goal
+        gap = (
+            _real_root_ball(rho.polynomial, 0, 1) ** check.goal
+            if not rho.is_rational
+            else _arb_of(rho.exact) ** check.goal
+        )
         ball = arb(low.mid() + gap.mid() / 2, gap.mid() / 2 + gap.rad() + low.rad())
         ruin = _certified(ball, digits)
     return UnboundedRuin(
-        **common, verdict=VERDICT_POSSIBLE, reason=reason, ruin=ruin, ruin_exact=None, ruin_closed_form=None,
+        **common,
+        verdict=VERDICT_POSSIBLE,
+        reason=reason,
+        ruin=ruin,
+        ruin_exact=None,
+        ruin_closed_form=None,
         ruin_exact_text=f"between {text(check.lower)} and that plus rho^{check.goal}",
         method=(
             f"truncation at goal {check.goal} steps: P(ruin before the goal), exact, increases to the answer; "
             "the gap is at most rho^goal (Lundberg bound from the goal)"
         ),
-        error_bound=f"at most {check.gap_bound.text} (proved: rho^goal)", theta=rho, adjustment_coefficient=adjustment,
-        lundberg=lundberg, lundberg_text=lundberg_text, diffusion=diffusion, diffusion_text=diffusion_text,
-        **_diffusion_extras(common, ball, digits), adjustment_text=_adjustment_text(rho, common["step"]),
-        rounds_to_ruin=RoundsToRuin("not defined", None, None, None, None,
-                                    "ruin is not certain: the plain expected time to ruin is infinite"),
-        rounds_if_ruined=None, truncation=check, notes=tuple(notes),
+        error_bound=f"at most {check.gap_bound.text} (proved: rho^goal)",
+        theta=rho,
+        adjustment_coefficient=adjustment,
+        lundberg=lundberg,
+        lundberg_text=lundberg_text,
+        lundberg_exact_text=f"rho^{common['steps_bankroll']}",
+        diffusion=diffusion,
+        diffusion_text=diffusion_text,
+        **_diffusion_extras(common, ball, digits),
+        adjustment_text=_adjustment_text(rho, common["step"]),
+        rounds_to_ruin=RoundsToRuin(
+            "not defined", None, None, None, None, "ruin is not certain: the plain expected time to ruin is infinite"
+        ),
+        rounds_if_ruined=None,
+        truncation=check,
+        notes=tuple(notes),
     )
+
+
+def _with_goal_level(check: TruncationCheck | None, common: dict, level: int) -> TruncationCheck | None:
+    """The check's goal (in steps of the reduced walk from ``level``) back in grid units."""
+    from dataclasses import replace
+
+    if check is None:
+        return None
+    return replace(check, goal_level=common["bankroll"] + common["step"] * (check.goal - level))
 
 
 def _rounds_if_ruined(reduced, level: int, theta: CharacteristicRoot, digits: int) -> RoundsToRuin:
@@ -833,7 +939,11 @@ def _rounds_if_ruined(reduced, level: int, theta: CharacteristicRoot, digits: in
         tilted = sum((QQ(j) * p * _rational_power(theta.exact, j) for j, p in reduced), QQ(0))
         value = QQ(level) / -tilted
         return RoundsToRuin(
-            "finite", value, value, value, _certified_exact(value, digits),
+            "finite",
+            value,
+            value,
+            value,
+            _certified_exact(value, digits),
             "given ruin the walk has chances p_j theta^j (subfair); Wald: bankroll / its expected loss",
         )
 
@@ -850,7 +960,11 @@ def _rounds_if_ruined(reduced, level: int, theta: CharacteristicRoot, digits: in
     with _precision(bits):
         decimal = _certified(ball, digits)
     return RoundsToRuin(
-        "finite", None, None, None, decimal,
+        "finite",
+        None,
+        None,
+        None,
+        decimal,
         "given ruin the walk has chances p_j theta^j (subfair); Wald: bankroll / its expected loss",
     )
 

@@ -1,10 +1,15 @@
-"""Endless play with a flat bet: the round's results turned into a walk in grid units.
+"""Endless play with a flat bet: the round's results turned into a walk in grid steps.
 
-A session without a goal only stops at ruin. With a flat bet (timid play is the flat bet of the
-smallest unit) every round moves the bankroll by the same law, so the bankroll is a random walk
-and ``solve.unbounded_ruin`` answers it. The player is ruined when the bankroll can no longer
-cover the next bet (``cover`` x bet: the most one round can take or tie up), which we turn into
-"the walk at 0 or below" by shifting the bankroll.
+A session without a goal only stops at ruin (or at a stop-loss floor). With a flat bet (timid
+play is the flat bet of the minimum) every round moves the bankroll by one law once the bankroll
+covers the bet; below that the bet is cut to what the bankroll covers, down to the minimum bet,
+and the player is ruined when even the minimum cannot be covered ("cover" is the most one round
+can take or tie up per unit bet). These are the same rules as bounded sessions, so the answer is
+the limit of theirs as the goal goes to infinity.
+
+Grid: one step is the betting unit divided by the common denominator of the net results, so
+every bet of whole units moves the bankroll by whole steps. Levels count steps above the ruin
+line (level = bankroll - lowest playing bankroll + 1); ``solve.clipped_ruin`` solves the walk.
 """
 
 from __future__ import annotations
@@ -14,22 +19,39 @@ from collections.abc import Iterable
 from dataclasses import dataclass
 
 from oddsbench.model.errors import OddsbenchError
-from oddsbench.model.numbers import QQ, Rational, denominator, numerator, text
-from oddsbench.solve.unbounded_ruin import DEFAULT_DIGITS, UnboundedRuin, solve_unbounded_ruin
+from oddsbench.model.numbers import QQ, Rational, denominator, is_integer, numerator, text, to_int
+from oddsbench.solve.clipped_ruin import solve_clipped_ruin
+from oddsbench.solve.unbounded_ruin import DEFAULT_DIGITS, UnboundedRuin
+
+Law = tuple[tuple[int, Rational], ...]
 
 
 @dataclass(frozen=True)
 class EndlessWalk:
-    """The bankroll walk of endless flat betting, in grid units (exact)."""
+    """The bankroll walk of endless flat betting, in grid steps (exact)."""
 
-    bet: Rational  # betting units per round
-    bankroll: Rational  # betting units
+    bet: Rational  # the plan's bet, money
+    bankroll: Rational  # money
+    unit: Rational  # betting unit, money: bets are whole units
+    min_bet: Rational
     cover: Rational  # bankroll needed per unit bet to play a round
-    grid: Rational  # one grid unit, in betting units
-    jumps: tuple[tuple[int, Rational], ...]  # net result per round in grid units -> chance
-    bankroll_grid: int  # bankroll in grid units
-    need_grid: int  # bankroll (grid units) needed to play one more round
-    level: int  # bankroll_grid - need_grid + 1: ruin is this walk at 0 or below
+    floor: Rational  # stop-loss floor, money (0: none)
+    grid: Rational  # one grid step, money
+    jumps: Law  # net result per round at the full bet, in steps -> chance
+    bottom: tuple[tuple[Rational, Law], ...]  # cut bets (money) and their laws, lowest level first
+    bankroll_grid: int  # bankroll in steps
+    low: int  # lowest bankroll (steps) that still plays
+    level: int  # bankroll_grid - low + 1: ruin is this walk at 0 or below
+
+    @property
+    def need_grid(self) -> int:
+        """Bankroll (steps) needed to play one more round: the ruin line is just below it."""
+        return self.low
+
+    @property
+    def full_bet_from(self) -> Rational:
+        """Smallest bankroll (money) at which the full bet is placed."""
+        return (self.low + len(self.bottom)) * self.grid
 
 
 @dataclass(frozen=True)
@@ -41,46 +63,115 @@ class EndlessPlayFigures:
     round_text: str  # the round as "net:chance" pairs
 
     def ruin_from(self, bankroll: Rational, digits: int | None = None):
-        """Ruin chance from another starting bankroll (betting units), same round and bet."""
+        """Ruin chance from another starting bankroll (money), same round and bet.
+
+        Only for walks without cut bets (the root fit is the whole curve); others re-solve.
+        """
         walk = self.walk
-        scaled = QQ(bankroll) / walk.grid
-        grid_bankroll = numerator(scaled) // denominator(scaled)
-        return self.ruin.ruin_from(grid_bankroll - walk.need_grid + 1, digits)
+        steps = QQ(bankroll) / walk.grid
+        level = numerator(steps) // denominator(steps) - walk.low + 1
+        if walk.bottom:
+            figures = solve_clipped_ruin(
+                dict(walk.jumps),
+                [dict(law) for _, law in walk.bottom],
+                max(level, 1),
+                digits=digits or self.ruin.digits,
+                check=False,
+            )
+            return figures.ruin if level >= 1 else self.ruin.ruin_from(0)
+        return self.ruin.ruin_from(level, digits)
+
+
+def _whole_units(name: str, value: Rational, unit: Rational) -> int:
+    count = value / unit
+    if not is_integer(count) or count < 1:
+        raise OddsbenchError(f"{name} {text(value)} must be a whole, positive number of betting units ({text(unit)})")
+    return to_int(count)
 
 
 def endless_flat_walk(
-    outcomes: Iterable[tuple[Rational, Rational]], bet: Rational, bankroll: Rational, cover: Rational | None = None
+    outcomes: Iterable[tuple[Rational, Rational]],
+    bet: Rational,
+    bankroll: Rational,
+    cover: Rational | None = None,
+    unit: Rational | None = None,
+    min_bet: Rational | None = None,
+    floor: Rational = 0,
 ) -> EndlessWalk:
     """The walk of a flat bet: ``outcomes`` are (net per unit bet, chance) pairs, exact."""
     pairs = [(QQ(net), QQ(chance)) for net, chance in outcomes]
-    bet, bankroll = QQ(bet), QQ(bankroll)
-    if bet <= 0:
-        raise OddsbenchError(f"the bet must be positive (got {text(bet)})")
-    if bankroll <= 0:
-        raise OddsbenchError(f"the bankroll must be positive (got {text(bankroll)})")
     if not pairs:
         raise OddsbenchError("the round has no results")
+    bet, bankroll, floor = QQ(bet), QQ(bankroll), QQ(floor)
+    if bet <= 0:
+        raise OddsbenchError(f"the bet must be positive (got {text(bet)})")
+    unit = QQ(unit) if unit is not None else (QQ(min_bet) if min_bet is not None else min(QQ(1), bet))
+    min_bet = QQ(min_bet) if min_bet is not None else unit
+    if unit <= 0:
+        raise OddsbenchError(f"the betting unit must be positive (got {text(unit)})")
+    bet_units = _whole_units("the bet", bet, unit)
+    min_units = _whole_units("the minimum bet", min_bet, unit)
+    if bet_units < min_units:
+        raise OddsbenchError(f"the bet {text(bet)} is below the minimum bet {text(min_bet)}")
     if cover is None:
         cover = max([QQ(1)] + [-net for net, _ in pairs])
     cover = QQ(cover)
-    values = [net * bet for net, _ in pairs] + [bet * cover, bankroll]
-    grid_denominator = 1
-    for value in values:
-        grid_denominator = math.lcm(grid_denominator, denominator(value))
-    grid = QQ(1, grid_denominator)
-    jumps: dict[int, Rational] = {}
-    for net, chance in pairs:
-        jump = net * bet * grid_denominator
-        jumps[numerator(jump)] = jumps.get(numerator(jump), QQ(0)) + chance
-    need = numerator(bet * cover * grid_denominator)
-    held = numerator(bankroll * grid_denominator)
-    if held < need:
+    scale = 1
+    for net, _ in pairs:
+        scale = math.lcm(scale, denominator(net))
+    grid = unit / scale
+
+    def steps(name: str, value: Rational) -> int:
+        count = value / grid
+        if not is_integer(count):
+            raise OddsbenchError(
+                f"{name} {text(value)} is not a whole number of grid steps of {text(grid)} "
+                f"(betting unit {text(unit)} split by the payout denominator {scale})"
+            )
+        return to_int(count)
+
+    held = steps("the bankroll", bankroll)
+    floor_steps = steps("the floor", floor) if floor else 0
+    if floor < 0 or (floor and floor >= bankroll):
+        raise OddsbenchError(f"the floor {text(floor)} must be at least 0 and below the bankroll {text(bankroll)}")
+
+    def covers(units: int) -> int:  # steps needed to cover a bet of ``units`` units
+        needed = QQ(units * scale) * cover
+        return -((-numerator(needed)) // denominator(needed))
+
+    low = max(floor_steps + 1, covers(min_units), 1)
+    if held < low:
         raise OddsbenchError(
-            f"a bankroll of {text(bankroll)} cannot cover one bet of {text(bet)} (it needs {text(bet * cover)})"
+            f"a bankroll of {text(bankroll)} cannot cover the minimum bet of {text(min_bet)} "
+            f"(it needs {text(covers(min_units) * grid)})"
         )
+
+    def law_of(units: int) -> Law:
+        law: dict[int, Rational] = {}
+        for net, chance in pairs:
+            jump = to_int(net * scale * units)
+            law[jump] = law.get(jump, QQ(0)) + chance
+        return tuple(sorted(law.items()))
+
+    full_from = max(low, covers(bet_units))
+    bottom = []
+    for value in range(low, full_from):
+        cap = (value * denominator(cover)) // (numerator(cover) * scale)  # whole units the bankroll covers
+        units = max(min(bet_units, cap), min_units)
+        bottom.append((units * unit, law_of(units)))
     return EndlessWalk(
-        bet=bet, bankroll=bankroll, cover=cover, grid=grid, jumps=tuple(sorted(jumps.items())),
-        bankroll_grid=held, need_grid=need, level=held - need + 1,
+        bet=bet,
+        bankroll=bankroll,
+        unit=unit,
+        min_bet=min_bet,
+        cover=cover,
+        floor=floor,
+        grid=grid,
+        jumps=law_of(bet_units),
+        bottom=tuple(bottom),
+        bankroll_grid=held,
+        low=low,
+        level=held - low + 1,
     )
 
 
@@ -91,10 +182,20 @@ def solve_endless_play(
     cover: Rational | None = None,
     digits: int = DEFAULT_DIGITS,
     check: bool = True,
+    unit: Rational | None = None,
+    min_bet: Rational | None = None,
+    floor: Rational = 0,
 ) -> EndlessPlayFigures:
-    """Ruin figures of endless flat betting: the walk, then ``solve_unbounded_ruin`` on it."""
+    """Ruin figures of endless flat betting: the walk, then the unbounded-walk engine on it."""
     pairs = [(QQ(net), QQ(chance)) for net, chance in outcomes]
-    walk = endless_flat_walk(pairs, bet, bankroll, cover)
-    ruin = solve_unbounded_ruin(dict(walk.jumps), walk.level, digits=digits, check=check, unit=walk.grid)
-    shown = ", ".join(f"{text(net)}:{text(chance)}" for net, chance in sorted(pairs))
+    walk = endless_flat_walk(pairs, bet, bankroll, cover, unit=unit, min_bet=min_bet, floor=floor)
+    ruin = solve_clipped_ruin(
+        dict(walk.jumps),
+        [dict(law) for _, law in walk.bottom],
+        walk.level,
+        digits=digits,
+        check=check,
+        unit=walk.grid,
+    )
+    shown = ", ".join(f"{text(net)}:{text(chance)}" for net, chance in sorted(pairs, reverse=True))
     return EndlessPlayFigures(walk, ruin, shown)
