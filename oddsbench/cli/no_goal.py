@@ -41,12 +41,15 @@ def add_no_goal_arguments(parser: argparse.ArgumentParser) -> None:
 
 
 def endless_bet(plan: str | None, source: str = "--plan"):
-    """The bet of a plan that can be played for ever: flat:B or timid[:U]; others are refused."""
+    """The bet of a plan that can be played for ever: flat:B or timid[:U]; others are refused.
+
+    Returns the bet, or None for plain ``timid`` (the minimum bet, whatever it is).
+    """
     from oddsbench.model.expr import ExpressionError, evaluate_text
-    from oddsbench.model.numbers import QQ, text
+    from oddsbench.model.numbers import text
 
     if plan is None or plan.strip() == "":
-        return QQ(1)
+        return None
     kind, _, amount = plan.strip().partition(":")
     kind = kind.strip().lower()
     if kind not in ("flat", "timid"):
@@ -57,7 +60,7 @@ def endless_bet(plan: str | None, source: str = "--plan"):
     if not amount.strip():
         if kind == "flat":
             raise OddsbenchError(f"{source} {plan!r}: give the bet, e.g. flat:1")
-        return QQ(1)
+        return None
     try:
         bet = evaluate_text(amount.strip())
     except ExpressionError as error:
@@ -76,12 +79,30 @@ def run_no_goal(
     check: bool = True,
     as_json: bool = False,
     title: str = "round",
+    unit=None,
+    min_bet=None,
+    floor=0,
 ) -> int:
-    """Solve and print endless play; ``outcomes`` are (net per unit bet, chance), exact."""
+    """Solve and print endless play; ``outcomes`` are (net per unit bet, chance), exact.
+
+    ``bet`` None means timid play: always the minimum bet.
+    """
     from oddsbench.report.no_goal_report import no_goal_json, no_goal_text
     from oddsbench.strategy.endless_play import solve_endless_play
 
-    figures = solve_endless_play(list(outcomes), bet, bankroll, cover=cover, digits=digits, check=check)
+    if bet is None:
+        bet = min_bet if min_bet is not None else (unit if unit is not None else 1)
+    figures = solve_endless_play(
+        list(outcomes),
+        bet,
+        bankroll,
+        cover=cover,
+        digits=digits,
+        check=check,
+        unit=unit,
+        min_bet=min_bet,
+        floor=floor,
+    )
     if as_json:
         print(json.dumps(no_goal_json(figures, title), indent=2))
     else:
