@@ -77,6 +77,35 @@ def _goal_text(figures: EndlessPlayFigures) -> str:
     return exact_text((goal_level + walk.low - 1) * walk.grid)
 
 
+def no_goal_explanations(figures: EndlessPlayFigures) -> list[str]:
+    """The sentences under the table: method, error bound, bound, approximation, check."""
+    ruin = figures.ruin
+    lines: list[str] = []
+    lines.append(f"Method: {ruin.method}.")
+    lines.append(f"Error bound of the decimal: {ruin.error_bound}.")
+    if ruin.lundberg is not None:
+        lines.append(f"Lundberg bound: {ruin.lundberg_text}.")
+    if ruin.diffusion is not None:
+        lines.append(f"Diffusion figure: {ruin.diffusion_text}: an {APPROXIMATION_LABEL}.")
+    else:
+        lines.append(f"Diffusion figure: {ruin.diffusion_text}.")
+    comparison = _comparison(ruin)
+    if comparison:
+        lines.append(comparison)
+    lines.append(f"Expected rounds: {ruin.rounds_to_ruin.method}.")
+    if ruin.rounds_if_ruined is not None:
+        lines.append(f"When ruin comes: {ruin.rounds_if_ruined.method}.")
+    if ruin.truncation is not None:
+        power = "theta" if ruin.is_skip_free else "rho"
+        lines.append(
+            f"Check: ruin before a goal, solved in {ruin.truncation.arithmetic} arithmetic, is a lower bound that "
+            "rises to the answer; "
+            f"the gap is at most {power}^goal; the result above lies inside it"
+            f" ({'yes' if ruin.truncation.consistent else 'NO'})."
+        )
+    return lines
+
+
 def no_goal_text(figures: EndlessPlayFigures, title: str = "round") -> str:
     """The human output of ``oddsbench session ... --goal none``."""
     walk, ruin = figures.walk, figures.ruin
@@ -97,27 +126,7 @@ def no_goal_text(figures: EndlessPlayFigures, title: str = "round") -> str:
     }[ruin.verdict]
     table = render_table(["quantity", "exact", "decimal"], [list(row) for row in no_goal_rows(figures)])
     parts = [heading, "", f"{verdict} {ruin.reason}.", "", table, ""]
-    parts.append(f"Method: {ruin.method}.")
-    parts.append(f"Error bound of the decimal: {ruin.error_bound}.")
-    if ruin.lundberg is not None:
-        parts.append(f"Lundberg bound: {ruin.lundberg_text}.")
-    if ruin.diffusion is not None:
-        parts.append(f"Diffusion figure: {ruin.diffusion_text}: an {APPROXIMATION_LABEL}.")
-    else:
-        parts.append(f"Diffusion figure: {ruin.diffusion_text}.")
-    comparison = _comparison(ruin)
-    if comparison:
-        parts.append(comparison)
-    parts.append(f"Expected rounds: {ruin.rounds_to_ruin.method}.")
-    if ruin.rounds_if_ruined is not None:
-        parts.append(f"When ruin comes: {ruin.rounds_if_ruined.method}.")
-    if ruin.truncation is not None:
-        power = "theta" if ruin.is_skip_free else "rho"
-        parts.append(
-            "Check: ruin before a goal, solved exactly, is a lower bound that rises to the answer; "
-            f"the gap is at most {power}^goal; the result above lies inside it"
-            f" ({'yes' if ruin.truncation.consistent else 'NO'})."
-        )
+    parts += no_goal_explanations(figures)
     notes = list(ruin.notes) + [
         f"decimals are shown to at most {ruin.digits} significant digits, each proved by interval "
         "arithmetic (--digits N for more)",
