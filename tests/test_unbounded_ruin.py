@@ -317,3 +317,72 @@ def test_cut_bets_subfair_expected_rounds_match_a_long_truncated_walk():
                 rows.append(k - 1), cols.append(k + jump - 1), vals.append(-float(chance))
     durations = spsolve(sp.csc_matrix((vals, (rows, cols)), shape=(size, size)), np.ones(size))
     assert abs(float(ruin.rounds_to_ruin.exact) - durations[19]) < 1e-6
+
+
+def test_pushes_do_not_change_the_ruin_chance_but_stretch_the_rounds():
+    plain = solve_unbounded_ruin({1: QQ(9, 19), -1: QQ(10, 19)}, 10)
+    with_pushes = solve_unbounded_ruin({1: QQ(9, 38), -1: QQ(10, 38), 0: QQ(1, 2)}, 10)
+    assert plain.ruin_exact == with_pushes.ruin_exact == 1
+    assert with_pushes.rounds_to_ruin.exact == 2 * plain.rounds_to_ruin.exact
+    favourable = solve_unbounded_ruin({1: QQ(3, 10), -1: QQ(1, 5), 0: QQ(1, 2)}, 7)
+    assert favourable.ruin_exact == QQ(2**7, 3**7)
+
+
+BETS = st.tuples(st.integers(1, 3), st.integers(1, 3)).map(sorted)
+
+
+@settings(max_examples=EXAMPLES, deadline=None)
+@given(LAWS, BETS, st.integers(1, 12))
+def test_cut_bet_walks_agree_with_exact_truncation(weights, bets, bankroll):
+    from oddsbench.solve.clipped_ruin import ruin_before_goal_levels, solve_clipped_ruin
+
+    losses, wins = weights
+    total = sum(losses) + sum(wins)
+    law = {-(i + 1): QQ(w, total) for i, w in enumerate(losses)} | {i + 1: QQ(w, total) for i, w in enumerate(wins)}
+    small, full = bets
+    tail = _scaled(law, full)
+    bottom = [_scaled(law, small)] * (full * len(losses) - 1)
+    ruin = solve_clipped_ruin(tail, bottom, bankroll, digits=15, check=False)
+    problem = _levels_problem(tail, bottom, bankroll)
+    if ruin.verdict == "possible":
+        rate = float(ruin.adjustment_coefficient.value) * ruin.step
+        goal = bankroll + len(bottom) + 1 + ruin.step * (1 + math.ceil(9 * math.log(10) / rate))
+        if goal > 1500:
+            return
+        lower = float(ruin_before_goal_levels(problem, bankroll, goal))
+        assert lower - 1e-12 <= ruin.ruin.value <= lower + 2e-9
+    else:
+        assert ruin.ruin_exact == 1
+
+
+def _expected_rounds_by_truncation(problem, bankroll, size=4_000):
+    import scipy.sparse as sp
+    from scipy.sparse.linalg import spsolve
+
+    rows, cols, vals = [], [], []
+    for k in range(1, size + 1):
+        rows.append(k - 1), cols.append(k - 1), vals.append(1.0)
+        for jump, chance in problem.law_at(k):
+            if 1 <= k + jump <= size:
+                rows.append(k - 1), cols.append(k + jump - 1), vals.append(-float(chance))
+    return spsolve(sp.csc_matrix((vals, (rows, cols)), shape=(size, size)), np.ones(size))[bankroll - 1]
+
+
+@settings(max_examples=max(EXAMPLES // 2, 5), deadline=None)
+@given(LAWS, BETS, st.integers(1, 12))
+def test_subfair_expected_rounds_agree_with_a_long_truncated_walk(weights, bets, bankroll):
+    from oddsbench.solve.clipped_ruin import solve_clipped_ruin
+
+    losses, wins = weights
+    total = sum(losses) + sum(wins)
+    law = {-(i + 1): QQ(w, total) for i, w in enumerate(losses)} | {i + 1: QQ(w, total) for i, w in enumerate(wins)}
+    mean = sum(QQ(j) * p for j, p in law.items())
+    if mean >= QQ(-1, 20):
+        return  # favourable, fair, or so close to fair that 4,000 levels are not far enough
+    small, full = bets
+    tail = _scaled(law, full)
+    bottom = [_scaled(law, small)] * (full * len(losses) - 1)
+    ruin = solve_clipped_ruin(tail, bottom, bankroll, digits=15)
+    truth = _expected_rounds_by_truncation(_levels_problem(tail, bottom, bankroll), bankroll)
+    shown = ruin.rounds_to_ruin.decimal
+    assert shown is not None and abs(shown.value - truth) < 1e-6 * max(1.0, truth)
