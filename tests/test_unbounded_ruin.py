@@ -346,11 +346,11 @@ def test_cut_bet_walks_agree_with_exact_truncation(weights, bets, bankroll):
     problem = _levels_problem(tail, bottom, bankroll)
     if ruin.verdict == "possible":
         rate = float(ruin.adjustment_coefficient.value) * ruin.step
-        goal = bankroll + len(bottom) + 1 + ruin.step * (1 + math.ceil(9 * math.log(10) / rate))
-        if goal > 1500:
+        goal = bankroll + len(bottom) + 1 + ruin.step * (1 + math.ceil(7 * math.log(10) / rate))
+        if goal > 600:
             return
         lower = float(ruin_before_goal_levels(problem, bankroll, goal))
-        assert lower - 1e-12 <= ruin.ruin.value <= lower + 2e-9
+        assert lower - 1e-12 <= ruin.ruin.value <= lower + 2e-7  # gap below rho^distance <= 1e-7
     else:
         assert ruin.ruin_exact == 1
 
