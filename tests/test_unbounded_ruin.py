@@ -386,3 +386,17 @@ def test_subfair_expected_rounds_agree_with_a_long_truncated_walk(weights, bets,
     truth = _expected_rounds_by_truncation(_levels_problem(tail, bottom, bankroll), bankroll)
     shown = ruin.rounds_to_ruin.decimal
     assert shown is not None and abs(shown.value - truth) < 1e-6 * max(1.0, truth)
+
+
+def test_a_cancel_check_stops_the_solve():
+    from oddsbench.solve.exact_linear import SolveCancelled
+
+    with pytest.raises(SolveCancelled):
+        solve_unbounded_ruin(SKIP_FREE, 3, should_stop=lambda: True)
+
+
+def test_the_exact_closed_form_evaluates_to_the_shown_digits():
+    # sympy evaluates CRootOf(...)**3 by its own (mpmath-based) root refinement: an independent check
+    ruin = solve_unbounded_ruin(SKIP_FREE, 3, digits=30)
+    independent = ruin.ruin_closed_form.evalf(40)
+    assert abs(mpmath.mpf(str(independent)) - value(ruin.ruin)) < mpmath.mpf(10) ** -30

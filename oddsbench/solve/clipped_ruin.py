@@ -40,11 +40,22 @@ def solve_clipped_ruin(
     digits: int = DEFAULT_DIGITS,
     check: bool = True,
     unit: Rational | int = 1,
+    should_stop=None,
 ) -> UnboundedRuin:
     """Ruin figures of a walk whose level k < K = len(bottom) + 1 moves by ``bottom[k - 1]``.
 
     Levels are grid units above the ruin line (ruin: level <= 0); ``tail`` is the law from K up.
+    ``should_stop`` is polled by the long exact solves (raises ``SolveCancelled``).
     """
+    token = ur._SHOULD_STOP.set(should_stop) if should_stop is not None else None
+    try:
+        return _solve_clipped_ruin(tail, bottom, bankroll, digits, check, unit)
+    finally:
+        if token is not None:
+            ur._SHOULD_STOP.reset(token)
+
+
+def _solve_clipped_ruin(tail, bottom, bankroll, digits, check, unit) -> UnboundedRuin:
     tail_law = ur._normalise(tail)
     bottom_laws = [ur._normalise(law) for law in bottom]
     while bottom_laws and bottom_laws[-1] == tail_law:
@@ -461,7 +472,7 @@ def ruin_before_goal_levels(problem: _Problem, level: int, goal: int) -> Rationa
                 row[target - 1] = row.get(target - 1, QQ(0)) - chance
         rows.append(row)
         rhs.append(ruin_now)
-    return ExactSparseLU(rows).solve(rhs)[level - 1]
+    return ExactSparseLU(rows, should_stop=ur._SHOULD_STOP.get()).solve(rhs)[level - 1]
 
 
 def ruin_before_goal_levels_float(problem: _Problem, level: int, goal: int) -> float:

@@ -33,6 +33,7 @@ from __future__ import annotations
 import math
 from collections.abc import Callable, Iterator, Mapping
 from contextlib import contextmanager
+from contextvars import ContextVar
 from dataclasses import dataclass, field
 from typing import Any
 
@@ -48,6 +49,8 @@ EXACT_CHECK_WORK = 5_000_000  # levels^2 x span: exact truncation above this (~0
 EXACT_FALLBACK_WORK = 60_000_000  # when truncation is the method itself, exact up to this (~10 s)
 MAX_FLOAT_CHECK_LEVELS = 1_000_000  # float truncation (banded solve) up to this many levels
 FLOAT_CHECK_TOLERANCE = 1e-11  # absolute error allowed to the float check (direct solvers: ~1e-14)
+# the caller's cancel check (a TUI worker's), seen by the exact solves deep inside one call
+_SHOULD_STOP: ContextVar[Callable[[], bool] | None] = ContextVar("unbounded_ruin_should_stop", default=None)
 VERDICT_CERTAIN = "certain"
 VERDICT_NEVER = "never"
 VERDICT_POSSIBLE = "possible"
@@ -260,7 +263,12 @@ def _enough(ball, digits: int) -> bool:
 def _with_retries(compute: Callable[[], Any], digits: int, level: int, check: Callable[[Any], bool]):
     """Run ``compute`` at growing precision until ``check`` accepts its balls."""
     bits = _bits_for(digits, level)
+    stop = _SHOULD_STOP.get()
     for _ in range(6):
+        if stop is not None and stop():
+            from oddsbench.solve.exact_linear import SolveCancelled
+
+            raise SolveCancelled
         with _precision(bits):
             result = compute()
             if check(result):
@@ -461,7 +469,7 @@ def ruin_before_goal(law: tuple[tuple[int, Rational], ...], level: int, goal: in
                 row[target - 1] = row.get(target - 1, QQ(0)) - chance
         rows.append(row)
         rhs.append(ruin_now)
-    solution = ExactSparseLU(rows).solve(rhs)
+    solution = ExactSparseLU(rows, should_stop=_SHOULD_STOP.get()).solve(rhs)
     assert len(solution) == size
     return solution[level - 1]
 
@@ -556,13 +564,24 @@ def solve_unbounded_ruin(
     digits: int = DEFAULT_DIGITS,
     check: bool = True,
     unit: Rational | int = 1,
+    should_stop: Callable[[], bool] | None = None,
 ) -> UnboundedRuin:
     """Ruin chance, method, bounds and expected rounds for endless play from ``bankroll`` units.
 
     ``jumps`` maps each net result of one round (whole grid units) to its exact chance. Ruin is
     the bankroll at 0 or below; callers that need the next stake covered shift the bankroll.
     ``unit`` (betting units per grid unit) only scales the expected result quoted in the reason.
+    ``should_stop`` is polled by the long exact solves (raises ``SolveCancelled``).
     """
+    token = _SHOULD_STOP.set(should_stop) if should_stop is not None else None
+    try:
+        return _solve_unbounded_ruin(jumps, bankroll, digits, check, unit)
+    finally:
+        if token is not None:
+            _SHOULD_STOP.reset(token)
+
+
+def _solve_unbounded_ruin(jumps, bankroll, digits: int, check: bool, unit) -> UnboundedRuin:
     if not isinstance(bankroll, int) or bankroll < 1:
         raise OddsbenchError(f"bankroll must be a whole number of units, at least 1 (got {bankroll!r})")
     if not isinstance(digits, int) or not 1 <= digits <= MAX_DIGITS:

@@ -185,6 +185,7 @@ def solve_endless_play(
     unit: Rational | None = None,
     min_bet: Rational | None = None,
     floor: Rational = 0,
+    should_stop=None,
 ) -> EndlessPlayFigures:
     """Ruin figures of endless flat betting: the walk, then the unbounded-walk engine on it."""
     pairs = [(QQ(net), QQ(chance)) for net, chance in outcomes]
@@ -196,6 +197,7 @@ def solve_endless_play(
         digits=digits,
         check=check,
         unit=walk.grid,
+        should_stop=should_stop,
     )
     shown = ", ".join(f"{text(net)}:{text(chance)}" for net, chance in sorted(pairs, reverse=True))
     return EndlessPlayFigures(walk, ruin, shown)
