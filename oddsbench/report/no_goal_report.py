@@ -37,8 +37,6 @@ def no_goal_rows(figures: EndlessPlayFigures) -> list[tuple[str, str, str]]:
     """quantity | exact | decimal rows of endless play."""
     ruin = figures.ruin
     rows: list[tuple[str, str, str]] = [("ruin chance (play never stops)", ruin.ruin_exact_text, ruin.ruin.text)]
-    if ruin.ruin_exact is not None and ruin.ruin_exact_text != text(ruin.ruin_exact):
-        rows.append(("  written out", exact_text(ruin.ruin_exact, WRITTEN_OUT_WIDTH), ""))
     root = ruin.theta
     if root is not None:
         name = "theta: root in (0, 1) of E[t^X] = 1" if ruin.is_skip_free else "rho: root in (0, 1) of E[t^X] = 1"
@@ -81,6 +79,8 @@ def no_goal_explanations(figures: EndlessPlayFigures) -> list[str]:
     """The sentences under the table: method, error bound, bound, approximation, check."""
     ruin = figures.ruin
     lines: list[str] = []
+    if ruin.ruin_exact is not None and ruin.ruin_exact_text != text(ruin.ruin_exact):
+        lines.append(f"Exactly: {ruin.ruin_exact_text} = {exact_text(ruin.ruin_exact, WRITTEN_OUT_WIDTH)}.")
     lines.append(f"Method: {ruin.method}.")
     lines.append(f"Error bound of the decimal: {ruin.error_bound}.")
     if ruin.lundberg is not None:
