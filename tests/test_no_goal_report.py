@@ -61,3 +61,18 @@ def test_flat_and_timid_plans_give_bounded_bets():
 def test_plans_without_a_bounded_bet_are_refused_with_one_line(plan):
     with pytest.raises(OddsbenchError, match="bet must stay bounded"):
         endless_bet(plan)
+
+
+def test_huge_bankrolls_print_without_writing_out_giant_fractions(capsys):
+    # (49/51)^5000 has about 8,500 digits per part: beyond Python's 4,300-digit str limit
+    run_no_goal(EVEN_51, 5000, QQ(1))
+    run_no_goal(EVEN_51, 10**6 + 1, QQ(2), as_json=True)
+    out = capsys.readouterr().out
+    assert "(49/51)^5000" in out and "49/50 x (49/51)^500000" in out
+
+
+def test_cut_bet_closed_form_is_exact(capsys):
+    # bankroll 5, bet 2, even money 51/49: at 1 the bet is cut to 1, so psi(1) = 49/100 + 51/100 x 49/51
+    run_no_goal(EVEN_51, 5, QQ(2))
+    out = capsys.readouterr().out
+    assert "49/50 x (49/51)^2" in out and "cut to what the bankroll covers" in out

@@ -6,12 +6,34 @@ from typing import Any
 
 from oddsbench.model.numbers import text
 from oddsbench.report.cautions import CAUTIONS, caution_block
-from oddsbench.report.numbers_text import exact_text, render_table
+from oddsbench.report.numbers_text import render_table
 from oddsbench.solve.unbounded_ruin import Certified, RoundsToRuin, UnboundedRuin
 from oddsbench.strategy.endless_play import EndlessPlayFigures
 
 WRITTEN_OUT_WIDTH = 90
 APPROXIMATION_LABEL = "approximation, not a bound (common practice, no source)"
+
+
+def _full(value) -> str:
+    """Exact text of any size: flint's own str is not bound by Python's 4,300-digit int limit."""
+    return str(value)
+
+
+def _cell(value, width: int | None = 40) -> str:
+    """Like ``exact_text`` (cut in the middle with digit counts) but safe for huge rationals."""
+    if value is None:
+        return "-"
+    full = _full(value)
+    if width is None or len(full) <= width:
+        return full
+    parts = full.split("/")
+
+    def short(digits: str) -> str:
+        sign = "-" if digits.startswith("-") else ""
+        digits = digits.lstrip("-")
+        return sign + digits if len(digits) <= 14 else f"{sign}{digits[:5]}...{digits[-3:]} ({len(digits)} digits)"
+
+    return "/".join(short(part) for part in parts)
 
 
 def _certified_text(value: Certified | None) -> str:
@@ -21,10 +43,10 @@ def _certified_text(value: Certified | None) -> str:
 def _rounds_cells(rounds: RoundsToRuin) -> tuple[str, str]:
     if rounds.kind == "finite":
         if rounds.exact is not None:
-            return exact_text(rounds.exact), _certified_text(rounds.decimal)
+            return _cell(rounds.exact), _certified_text(rounds.decimal)
         if rounds.lower is None:
             return "algebraic", _certified_text(rounds.decimal)
-        bounds = f"between {exact_text(rounds.lower)} and {exact_text(rounds.upper)}"
+        bounds = f"between {_cell(rounds.lower)} and {_cell(rounds.upper)}"
         return bounds, _certified_text(rounds.decimal)
     if rounds.kind == "infinite":
         return "infinite", "infinite"
@@ -51,7 +73,7 @@ def no_goal_rows(figures: EndlessPlayFigures) -> list[tuple[str, str, str]]:
         )
     if ruin.diffusion_ratio is not None:
         rows.append(("  rule of thumb / exact", "", ruin.diffusion_ratio.text))
-    rows.append(("expected result per round (edge)", exact_text(ruin.mean * figures.walk.grid), ""))
+    rows.append(("expected result per round (edge)", _cell(ruin.mean * figures.walk.grid), ""))
     rows.append(("expected rounds to ruin", *_rounds_cells(ruin.rounds_to_ruin)))
     if ruin.rounds_if_ruined is not None:
         rows.append(("expected rounds to ruin, when ruin comes", *_rounds_cells(ruin.rounds_if_ruined)))
@@ -60,7 +82,7 @@ def no_goal_rows(figures: EndlessPlayFigures) -> list[tuple[str, str, str]]:
         rows.append(
             (
                 f"check: ruin before the bankroll reaches {_goal_text(figures)}",
-                exact_text(check.lower),
+                _cell(check.lower),
                 check.lower_decimal.text,
             )
         )
@@ -72,15 +94,15 @@ def no_goal_rows(figures: EndlessPlayFigures) -> list[tuple[str, str, str]]:
 def _goal_text(figures: EndlessPlayFigures) -> str:
     walk, ruin = figures.walk, figures.ruin
     goal_level = ruin.truncation.goal_level if ruin.truncation else 0
-    return exact_text((goal_level + walk.low - 1) * walk.grid)
+    return _cell((goal_level + walk.low - 1) * walk.grid)
 
 
 def no_goal_explanations(figures: EndlessPlayFigures) -> list[str]:
     """The sentences under the table: method, error bound, bound, approximation, check."""
     ruin = figures.ruin
     lines: list[str] = []
-    if ruin.ruin_exact is not None and ruin.ruin_exact_text != text(ruin.ruin_exact):
-        lines.append(f"Exactly: {ruin.ruin_exact_text} = {exact_text(ruin.ruin_exact, WRITTEN_OUT_WIDTH)}.")
+    if ruin.ruin_exact is not None and ruin.ruin_exact_text != _full(ruin.ruin_exact):
+        lines.append(f"Exactly: {ruin.ruin_exact_text} = {_cell(ruin.ruin_exact, WRITTEN_OUT_WIDTH)}.")
     lines.append(f"Method: {ruin.method}.")
     lines.append(f"Error bound of the decimal: {ruin.error_bound}.")
     if ruin.lundberg is not None:
@@ -157,9 +179,9 @@ def _rounds_json(rounds: RoundsToRuin | None) -> dict[str, Any] | None:
         return None
     return {
         "kind": rounds.kind,
-        "exact": None if rounds.exact is None else text(rounds.exact),
-        "lower": None if rounds.lower is None else text(rounds.lower),
-        "upper": None if rounds.upper is None else text(rounds.upper),
+        "exact": None if rounds.exact is None else _full(rounds.exact),
+        "lower": None if rounds.lower is None else _full(rounds.lower),
+        "upper": None if rounds.upper is None else _full(rounds.upper),
         "decimal": _certified_json(rounds.decimal),
         "method": rounds.method,
     }
@@ -182,7 +204,7 @@ def no_goal_json(figures: EndlessPlayFigures, title: str = "round") -> dict[str,
         "verdict": ruin.verdict,
         "reason": ruin.reason,
         "ruin": {
-            "exact": None if ruin.ruin_exact is None else text(ruin.ruin_exact),
+            "exact": None if ruin.ruin_exact is None else _full(ruin.ruin_exact),
             "closed_form": ruin.ruin_exact_text,
             "decimal": _certified_json(ruin.ruin),
             "method": ruin.method,
@@ -212,7 +234,8 @@ def no_goal_json(figures: EndlessPlayFigures, title: str = "round") -> dict[str,
         if check is None
         else {
             "goal_steps": check.goal,
-            "lower": text(check.lower),
+            "lower": None if check.lower is None else _full(check.lower),
+            "arithmetic": check.arithmetic,
             "lower_decimal": _certified_json(check.lower_decimal),
             "gap_at_most": _certified_json(check.gap_bound),
             "consistent": check.consistent,

@@ -205,6 +205,7 @@ def _solve_levels(problem: _Problem, bases: list[Any], kind: str, arithmetic: st
             total += coefficients[b] * f(b, level)
         return total
 
+    at.coefficients = coefficients  # type: ignore[attr-defined]
     return at
 
 
@@ -223,12 +224,25 @@ def _certified_value(problem: _Problem, kind: str, digits: int, level: int, thet
     """(Certified, exact or None, ball) of the ruin chance or the expected rounds at ``level``."""
     wanted = problem.m if kind == "ruin" else problem.m - 1
     if kind == "ruin" and problem.m == 1 and theta_exact is not None:
-        value = _solve_levels(problem, [theta_exact], kind, "exact", loss)(level)
+        at = _solve_levels(problem, [theta_exact], kind, "exact", loss)
+        if level < problem.top:
+            value = at(level)
+            with ur._precision(ur._bits_for(digits, level)):
+                return ur._certified_exact(value, digits), value, ur._arb_of(value), _short_text(value)
+        # above the cut levels: psi = c_a theta^(level div g), a = level mod g, c_a exact
+        coefficient = at.coefficients[level % problem.g]
+        power = level // problem.g
+        closed = f"{ur.text(coefficient)} x ({ur.text(theta_exact)})^{power}"
+        size = max(ur.numerator(theta_exact).bit_length(), ur.denominator(theta_exact).bit_length())
         with ur._precision(ur._bits_for(digits, level)):
-            return ur._certified_exact(value, digits), value, ur._arb_of(value)
+            ball = ur._arb_of(coefficient) * ur._arb_of(theta_exact) ** power
+            certified = ur._certified(ball, digits)
+        if power * size <= ur.MAX_EXACT_DIGITS_BITS:
+            return certified, coefficient * ur._rational_power(theta_exact, power), ball, closed
+        return certified, None, ball, closed
     if kind == "rounds" and problem.m == 1:
         value = _solve_levels(problem, [QQ(1)], kind, "exact", loss)(level)
-        return ur._certified_exact(value, digits), value, None
+        return ur._certified_exact(value, digits), value, None, _short_text(value)
 
     def compute():
         roots = _reduced_roots_inside(problem, wanted)
@@ -252,7 +266,13 @@ def _certified_value(problem: _Problem, kind: str, digits: int, level: int, thet
     if result[0] != "ok":
         return None
     with ur._precision(bits):
-        return ur._certified(result[1], digits), None, result[1]
+        return ur._certified(result[1], digits), None, result[1], None
+
+
+def _short_text(value: Rational) -> str:
+    """Exact text when short, else a pointer to the written-out value."""
+    size = max(ur.numerator(value).bit_length(), ur.denominator(value).bit_length())
+    return ur.text(value) if size <= 200 else "rational (written out below)"
 
 
 def _certain(problem: _Problem, common: dict, notes: list[str], shown_mean: str, digits: int) -> UnboundedRuin:
@@ -273,7 +293,7 @@ def _certain(problem: _Problem, common: dict, notes: list[str], shown_mean: str,
                 "finite (subfair), but the characteristic roots could not be separated",
             )
         else:
-            certified, exact, _ = found
+            certified, exact, _, _ = found
             rounds = RoundsToRuin(
                 "finite",
                 exact,
@@ -345,9 +365,9 @@ def _possible(
         _truncation(problem, level, goal, rho_ball, digits) if (check or found is None) else (None, None)
     )
     if found is not None:
-        ruin, ruin_exact, ball = found
-        if ruin_exact is not None:
-            exact_text = text(ruin_exact) if len(text(ruin_exact)) <= 60 else "rational (written out below)"
+        ruin, ruin_exact, ball, closed = found
+        if closed is not None:
+            exact_text = closed
             method = (
                 "levels with cut bets solved exactly together with theta^(k div g) per residue class above them "
                 "(theta rational: one exact rational system)"
@@ -374,7 +394,7 @@ def _possible(
             gap = rho_ball ** problem.tail_distance(truncation.goal)
             ball = arb(low.mid() + gap.mid() / 2, gap.mid() / 2 + gap.rad() + low.rad())
             ruin = ur._certified(ball, digits)
-        ruin_exact, exact_text = None, f"between {text(truncation.lower)} and that plus the gap"
+        ruin_exact, exact_text = None, "between the truncation's lower bound and that plus the gap"
         method = "truncation at a far goal, exact; the gap is at most rho^distance (Lundberg bound from the goal)"
         error_bound = f"at most {truncation.gap_bound.text} (proved)"
     if check and truncation is None:

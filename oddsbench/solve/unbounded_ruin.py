@@ -44,6 +44,7 @@ DEFAULT_DIGITS = 30
 MAX_DIGITS = 2000
 MAX_SPAN = 400  # largest loss + largest win, in steps: the degree of the characteristic polynomial
 MAX_EXACT_BITS = 200_000  # expand theta^bankroll as one fraction only below this size
+MAX_EXACT_DIGITS_BITS = 100_000  # the same limit on the larger of numerator and denominator
 CHECK_DIGITS = 12  # the truncation cross-check aims at an error bound of 10^-12 (relative to rho^bankroll)
 EXACT_CHECK_WORK = 5_000_000  # levels^2 x span: exact truncation above this (~0.5 s) is done in floats
 EXACT_FALLBACK_WORK = 60_000_000  # when truncation is the method itself, exact up to this (~10 s)
