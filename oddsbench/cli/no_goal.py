@@ -70,6 +70,88 @@ def endless_bet(plan: str | None, source: str = "--plan"):
     return bet
 
 
+def wants_no_goal(args: argparse.Namespace, table: dict | None) -> bool:
+    """``--goal none``, or no --goal and ``goal = "none"`` in the ruleset's [session] table."""
+    if getattr(args, "goal", None) is not None:
+        return is_no_goal(args.goal)
+    return bool(table) and is_no_goal(table.get("goal"))
+
+
+def run_no_goal_session(args: argparse.Namespace, distribution, title: str, source: str, table: dict | None) -> int:
+    """The ``session`` command with no goal: each plan (flat or timid) played until ruin.
+
+    ``distribution`` is the session's round (outcomes with net, prob, extra per unit staked, and
+    its ``cover``); ``table`` the ruleset's raw [session] table (its ``goal`` is "none" or unused).
+    """
+    from oddsbench.strategy.session import settings_from_table
+
+    if getattr(args, "max_rounds", None) is not None or (table and "max_rounds" in table):
+        raise OddsbenchError(
+            f"{source}: --goal none plays until ruin; a time cap (max_rounds) needs a goal, or use --rounds N "
+            "with a goal for the chance of ruin within N rounds"
+        )
+    defaults = settings_from_table({k: v for k, v in (table or {}).items() if k != "goal"}, source)
+    settings = dict(defaults)
+    for name in ("bankroll", "floor", "min_bet", "max_bet", "unit"):
+        raw = getattr(args, name, None)
+        if raw is not None:
+            settings[name] = _money(raw, name.replace("_", "-"))
+    if "bankroll" not in settings:
+        raise OddsbenchError(f"{source}: session needs --bankroll (or bankroll in the [session] table)")
+    outcomes = [(o.net, o.prob) for o in distribution.outcomes]
+    plans = getattr(args, "plan", None) or ["timid"]
+    bodies = []
+    for plan in plans:
+        bet = endless_bet(plan)
+        if bet is None:
+            bet = settings.get("min_bet") or settings.get("unit") or 1
+        kwargs = dict(
+            cover=distribution.cover,
+            digits=getattr(args, "digits", DEFAULT_NO_GOAL_DIGITS),
+            check=not getattr(args, "no_check", False),
+            unit=settings.get("unit"),
+            min_bet=settings.get("min_bet"),
+            max_bet=settings.get("max_bet"),
+            floor=settings.get("floor") or 0,
+        )
+        if getattr(args, "json", False):
+            bodies.append(_figures_json(outcomes, settings["bankroll"], bet, title, plan, kwargs))
+        else:
+            bodies.append(_figures_text(outcomes, settings["bankroll"], bet, title, plan, kwargs))
+    if getattr(args, "json", False):
+        print(json.dumps(bodies[0] if len(bodies) == 1 else {"title": title, "plans": bodies}, indent=2))
+    else:
+        from oddsbench.report.cautions import caution_block
+
+        print("\n\n".join(bodies) + "\n\n" + caution_block())
+    return 0
+
+
+def _money(value: str, option: str):
+    from oddsbench.model.expr import ExpressionError, evaluate_text
+
+    try:
+        return evaluate_text(value)
+    except ExpressionError as error:
+        raise OddsbenchError(f"--{option} {value!r}: {error}") from None
+
+
+def _figures_json(outcomes, bankroll, bet, title, plan, kwargs) -> dict:
+    from oddsbench.report.no_goal_report import no_goal_json
+    from oddsbench.strategy.endless_play import solve_endless_play
+
+    body = no_goal_json(solve_endless_play(outcomes, bet, bankroll, **kwargs), title)
+    body["plan"] = plan
+    return body
+
+
+def _figures_text(outcomes, bankroll, bet, title, plan, kwargs) -> str:
+    from oddsbench.report.no_goal_report import no_goal_text
+    from oddsbench.strategy.endless_play import solve_endless_play
+
+    return no_goal_text(solve_endless_play(outcomes, bet, bankroll, **kwargs), f"{title}, plan {plan}", cautions=False)
+
+
 def run_no_goal(
     outcomes: Iterable[tuple[object, object]],
     bankroll,

@@ -128,7 +128,7 @@ def no_goal_explanations(figures: EndlessPlayFigures) -> list[str]:
     return lines
 
 
-def no_goal_text(figures: EndlessPlayFigures, title: str = "round") -> str:
+def no_goal_text(figures: EndlessPlayFigures, title: str = "round", cautions: bool = True) -> str:
     """The human output of ``oddsbench session ... --goal none``."""
     walk, ruin = figures.walk, figures.ruin
     heading = (
@@ -154,7 +154,8 @@ def no_goal_text(figures: EndlessPlayFigures, title: str = "round") -> str:
         "arithmetic (--digits N for more)",
     ]
     parts += ["", "Notes:"] + [f"  - {note}" for note in notes]
-    parts += ["", caution_block()]
+    if cautions:
+        parts += ["", caution_block()]
     return "\n".join(parts)
 
 

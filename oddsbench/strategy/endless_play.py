@@ -97,6 +97,7 @@ def endless_flat_walk(
     unit: Rational | None = None,
     min_bet: Rational | None = None,
     floor: Rational = 0,
+    max_bet: Rational | None = None,
 ) -> EndlessWalk:
     """The walk of a flat bet: ``outcomes`` are (net per unit bet, chance) pairs, exact."""
     pairs = [(QQ(net), QQ(chance)) for net, chance in outcomes]
@@ -111,8 +112,12 @@ def endless_flat_walk(
         raise OddsbenchError(f"the betting unit must be positive (got {text(unit)})")
     bet_units = _whole_units("the bet", bet, unit)
     min_units = _whole_units("the minimum bet", min_bet, unit)
-    if bet_units < min_units:
-        raise OddsbenchError(f"the bet {text(bet)} is below the minimum bet {text(min_bet)}")
+    if max_bet is not None:
+        max_units = _whole_units("the maximum bet", QQ(max_bet), unit)
+        if max_units < min_units:
+            raise OddsbenchError(f"the maximum bet {text(QQ(max_bet))} is below the minimum bet {text(min_bet)}")
+        bet_units = min(bet_units, max_units)  # the table maximum cuts the plan's bet, as in sessions
+    bet_units = max(bet_units, min_units)  # and the table minimum raises it
     if cover is None:
         cover = max([QQ(1)] + [-net for net, _ in pairs])
     cover = QQ(cover)
@@ -186,10 +191,11 @@ def solve_endless_play(
     min_bet: Rational | None = None,
     floor: Rational = 0,
     should_stop=None,
+    max_bet: Rational | None = None,
 ) -> EndlessPlayFigures:
     """Ruin figures of endless flat betting: the walk, then the unbounded-walk engine on it."""
     pairs = [(QQ(net), QQ(chance)) for net, chance in outcomes]
-    walk = endless_flat_walk(pairs, bet, bankroll, cover, unit=unit, min_bet=min_bet, floor=floor)
+    walk = endless_flat_walk(pairs, bet, bankroll, cover, unit=unit, min_bet=min_bet, floor=floor, max_bet=max_bet)
     ruin = solve_clipped_ruin(
         dict(walk.jumps),
         [dict(law) for _, law in walk.bottom],
