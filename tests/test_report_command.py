@@ -18,7 +18,7 @@ def test_csv_report_parses_back_with_exact_figures_and_cautions(tmp_path, capsys
     assert main(["report", PASS_LINE, "--output", str(target)]) == 0
     rows = list(csv.DictReader(io.StringIO(target.read_text())))
     figures = {row["quantity"]: row for row in rows if row["section"] == "round"}
-    # 7/495: E. O. Thorp, The Mathematics of Gambling (1984) (from memory)
+    # 7/495: S. N. Ethier, The Doctrine of Chances (2010), as in test_published_values
     assert figures["house_edge"]["exact"] == "7/495"
     assert float(figures["house_edge"]["decimal"]) == 7 / 495
     assert figures["end_probability[won]"]["exact"] == "244/495"

@@ -24,7 +24,7 @@ def checks_for(path, trials=200_000, seed=1, truth_from=None):
 
 
 def test_pass_line_simulation_brackets_every_exact_figure():
-    # house edge 7/495 of the pass line: E. O. Thorp, The Mathematics of Gambling (1984) (from memory)
+    # house edge 7/495 of the pass line: S. N. Ethier, The Doctrine of Chances (2010), as in test_published_values
     checks = checks_for(PASS_LINE)
     assert {c.name: c.exact.exact for c in checks}["house_edge"] == QQ(7, 495)
     assert [c.name for c in checks if c.outside] == []

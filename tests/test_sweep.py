@@ -144,3 +144,10 @@ def test_a_strategy_axis_solves_each_named_strategy(tmp_path, choice_game):
     }
     # eager: edge -1/3, careful: 0 (arithmetic, as in the report test)
     assert edges == {"eager": "-1/3", "careful": "0"}
+
+
+def test_a_malformed_cluster_address_is_one_line_before_connecting(capsys):
+    assert main(["sweep", str(EXAMPLE), "--cluster", "foo://x", "--no-progress"]) == 2
+    err = capsys.readouterr().err
+    assert "--cluster 'foo://x': expected a scheduler address such as tcp://" in err
+    assert len(err.strip().splitlines()) == 1

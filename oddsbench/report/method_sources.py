@@ -35,7 +35,7 @@ ROUND_SOURCES: tuple[MethodSource, ...] = (
     MethodSource(
         "house edge",
         "House edge = -(expected net) / (expected total staked); return to player = 1 - house edge.",
-        "E. O. Thorp, The Mathematics of Gambling, Lyle Stuart (1984) (from memory); "
+        "S. N. Ethier, The Doctrine of Chances: Probabilistic Aspects of Gambling, Springer (2010); "
         "common practice for rounds with extra stakes.",
     ),
 )

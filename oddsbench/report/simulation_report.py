@@ -64,20 +64,27 @@ def verdict(checks: list[Check], confidence: float) -> str:
     level = f"{confidence * 100:g} %"
     if not compared:
         return "No exact values to compare with."
+    kind = "exact values" if all(c.exact.exact is not None for c in compared) else "solver values (decimal only)"
     if not outside:
-        return f"All {len(compared)} exact values lie inside their {level} intervals."
+        return f"All {len(compared)} {kind} lie inside their {level} intervals."
     names = ", ".join(check_label(c.name) for c in outside)
     return (
-        f"{len(outside)} of {len(compared)} exact values fall OUTSIDE their {level} intervals: {names}. "
+        f"{len(outside)} of {len(compared)} {kind} fall OUTSIDE their {level} intervals: {names}. "
         f"By chance alone about {(1 - confidence) * 100:g} in 100 would; run again with another seed "
         "or more trials to tell chance from a wrong model."
     )
 
 
-def simulation_text(sample: RoundSample, checks: list[Check], confidence: float, strategy: str | None = None) -> str:
-    """The human output of ``oddsbench simulate`` for rounds."""
+def simulation_text(
+    sample: RoundSample,
+    checks: list[Check],
+    confidence: float,
+    strategy: str | None = None,
+    solver_notes: tuple[str, ...] = (),
+) -> str:
+    """The human output of ``oddsbench simulate`` for rounds; ``solver_notes`` from the exact side."""
     heading = f"{sample.title}: {sample.trials:,} simulated rounds from {sample.start!r}, seed {sample.seed}" + (
-        f", strategy {strategy!r}" if strategy else ""
+        f", playing {strategy!r}" if strategy else ""
     )
     speed = (
         f"{sample.seconds:.2f} s, {sample.rounds_per_second:,.0f} rounds/s, "
@@ -87,7 +94,7 @@ def simulation_text(sample: RoundSample, checks: list[Check], confidence: float,
     headers = ["quantity", "estimate", f"{confidence * 100:g} % interval", "exact", "exact decimal", "check"]
     table = render_table(headers, check_rows(checks, sample), right={1, 2, 3, 4})
     parts = [heading, speed, "", table, "", verdict(checks, confidence)]
-    notes = simulation_notes(sample)
+    notes = simulation_notes(sample) + list(solver_notes)
     if notes:
         parts += ["", "Notes:"] + [f"  - {note}" for note in notes]
     parts += ["", caution_block()]
@@ -117,7 +124,9 @@ def check_json(check: Check) -> dict[str, Any]:
     }
 
 
-def simulation_json(sample: RoundSample, checks: list[Check], confidence: float) -> dict[str, Any]:
+def simulation_json(
+    sample: RoundSample, checks: list[Check], confidence: float, solver_notes: tuple[str, ...] = ()
+) -> dict[str, Any]:
     return {
         "ruleset": sample.title,
         "start": sample.start,
@@ -130,6 +139,6 @@ def simulation_json(sample: RoundSample, checks: list[Check], confidence: float)
         "policy": dict(sample.actions),
         "estimates": [check_json(check) for check in checks],
         "outside": [check.name for check in checks if check.outside],
-        "notes": simulation_notes(sample),
+        "notes": simulation_notes(sample) + list(solver_notes),
         "cautions": list(CAUTIONS),
     }

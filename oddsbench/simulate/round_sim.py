@@ -95,50 +95,73 @@ def simulate_round(
         sample.net_staked.add(zeros, zeros + sample.stake)
         sample.seconds = time.perf_counter() - began
         return sample
-    source = np.fromiter((e.source for e in chain.edges), dtype=np.int64)
-    target = np.fromiter((e.target for e in chain.edges), dtype=np.int64)
-    prob = np.fromiter((to_float(e.prob) for e in chain.edges), dtype=float)
-    pay = np.fromiter((to_float(e.pay) for e in chain.edges), dtype=float)
-    extra = np.fromiter((to_float(e.stake) for e in chain.edges), dtype=float)
-    tables = build_alias_tables(source, prob, n)
-    has_extra = bool(np.any(extra))
+    player = RoundPlayer.of(chain)
     done_trials = 0
     while done_trials < trials:
         size = min(batch_size, trials - done_trials)
-        _run_batch(sample, size, tables, target, pay, extra if has_extra else None, n, rng, max_steps, should_stop)
+        _run_batch(sample, size, player, rng, max_steps, should_stop)
         done_trials += size
     sample.seconds = time.perf_counter() - began
     return sample
 
 
-def _run_batch(sample, size, tables, target, pay, extra, n, rng, max_steps, should_stop) -> None:
-    live = np.arange(size)
-    state = np.zeros(size, dtype=np.int64)
-    net = np.zeros(size)
-    staked = np.full(size, sample.stake)
-    steps = np.zeros(size)
-    end = np.full(size, -1, dtype=np.int64)
-    step = 0
-    while live.size and step < max_steps:
-        if should_stop is not None and step % 64 == 0 and should_stop():
-            raise SimulationCancelled
-        edge = tables.draw(state, rng)
-        net[live] += pay[edge]
-        if extra is not None:
-            staked[live] += extra[edge]
-        state = target[edge]
-        step += 1
-        sample.steps_taken += live.size
-        ended = state >= n
-        if ended.any():
-            finished = live[ended]
-            end[finished] = state[ended] - n
-            steps[finished] = step
-            still = ~ended
-            live, state = live[still], state[still]
+@dataclass(frozen=True)
+class RoundPlayer:
+    """A round chain ready for sampling: alias tables and per-edge targets, pays and extra stakes."""
+
+    tables: object
+    target: np.ndarray
+    pay: np.ndarray
+    extra: np.ndarray | None
+    transient: int
+    stake: float
+
+    @classmethod
+    def of(cls, chain: RoundChain) -> RoundPlayer:
+        source = np.fromiter((e.source for e in chain.edges), dtype=np.int64)
+        target = np.fromiter((e.target for e in chain.edges), dtype=np.int64)
+        prob = np.fromiter((to_float(e.prob) for e in chain.edges), dtype=float)
+        pay = np.fromiter((to_float(e.pay) for e in chain.edges), dtype=float)
+        extra = np.fromiter((to_float(e.stake) for e in chain.edges), dtype=float)
+        tables = build_alias_tables(source, prob, chain.transient_count)
+        return cls(tables, target, pay, extra if np.any(extra) else None, chain.transient_count, to_float(chain.stake))
+
+    def play(self, size: int, rng: np.random.Generator, max_steps: int = DEFAULT_MAX_STEPS, should_stop=None):
+        """``size`` rounds at once: (end index or -1 if unfinished, net, total staked, steps, steps taken)."""
+        n = self.transient
+        live = np.arange(size)
+        state = np.zeros(size, dtype=np.int64)
+        net = np.zeros(size)
+        staked = np.full(size, self.stake)
+        steps = np.zeros(size)
+        end = np.full(size, -1, dtype=np.int64)
+        step = taken = 0
+        while live.size and step < max_steps:
+            if should_stop is not None and step % 64 == 0 and should_stop():
+                raise SimulationCancelled
+            edge = self.tables.draw(state, rng)
+            net[live] += self.pay[edge]
+            if self.extra is not None:
+                staked[live] += self.extra[edge]
+            state = self.target[edge]
+            step += 1
+            taken += live.size
+            ended = state >= n
+            if ended.any():
+                finished = live[ended]
+                end[finished] = state[ended] - n
+                steps[finished] = step
+                still = ~ended
+                live, state = live[still], state[still]
+        return end, net, staked, steps, taken
+
+
+def _run_batch(sample, size, player: RoundPlayer, rng, max_steps, should_stop) -> None:
+    end, net, staked, steps, taken = player.play(size, rng, max_steps, should_stop)
+    sample.steps_taken += taken
     finished_mask = end >= 0
     sample.unfinished += int(size - finished_mask.sum())
-    if live.size:
+    if not finished_mask.all():
         net, staked, steps, end = net[finished_mask], staked[finished_mask], steps[finished_mask], end[finished_mask]
     sample.end_counts += np.bincount(end, minlength=sample.end_counts.size)
     sample.net.add(net)

@@ -7,6 +7,7 @@ order, so the figures are identical whichever runs them; only the time differs.
 from __future__ import annotations
 
 import os
+import re
 import time
 from collections.abc import Callable
 from concurrent.futures import ProcessPoolExecutor, as_completed
@@ -17,6 +18,7 @@ from oddsbench.sweep.points import Point, PointResult, PointTask, chunked, grid_
 from oddsbench.sweep.spec import SweepSpec
 
 Progress = Callable[[int, int], None]
+CLUSTER_ADDRESS = re.compile(r"^((tcp|tls|ws|wss|ucx)://)?(\[[0-9A-Fa-f:.]+\]|[A-Za-z0-9_.-]+)(:[0-9]{1,5})?/?$")
 TASKS_PER_WORKER = 8
 CONNECT_TIMEOUT = "10s"
 
@@ -91,6 +93,11 @@ def _on_cluster(spec: SweepSpec, points: list[Point], address: str, report: Prog
         raise OddsbenchError(
             "--cluster needs dask.distributed: install it with pip install 'oddsbench[cluster]'"
         ) from None
+    if not CLUSTER_ADDRESS.match(address):
+        raise OddsbenchError(
+            f"--cluster {address!r}: expected a scheduler address such as tcp://10.0.0.5:8786 "
+            "(schemes tcp, tls, ws, wss, ucx)"
+        )
     try:
         client = Client(address, timeout=CONNECT_TIMEOUT, set_as_default=False)
     except (OSError, TimeoutError, ValueError) as error:
