@@ -400,3 +400,30 @@ def test_the_exact_closed_form_evaluates_to_the_shown_digits():
     ruin = solve_unbounded_ruin(SKIP_FREE, 3, digits=30)
     independent = ruin.ruin_closed_form.evalf(40)
     assert abs(mpmath.mpf(str(independent)) - value(ruin.ruin)) < mpmath.mpf(10) ** -30
+
+
+# Markov-modulated walks: Lundberg's inequality with the verified pair (R, h) (Asmussen and
+# Albrecher, Ruin Probabilities, ch. VII, Markov-modulated models, from memory).
+def test_losing_martingale_is_certain_ruin_with_exact_long_run_drift():
+    from oddsbench.strategy.endless_play import solve_endless_progression
+
+    figures = solve_endless_progression([(QQ(1), QQ(18, 37)), (QQ(-1), QQ(19, 37))], "martingale", 1, 4, 20)
+    assert figures.ruin.verdict == "certain" and figures.ruin.ruin_exact == 1
+    assert figures.ruin.mean < 0
+
+
+def test_favourable_martingale_lies_between_truncations_and_their_bound():
+    from oddsbench.solve.modulated_ruin import _ruin_before_goal_exact
+    from oddsbench.strategy.endless_play import solve_endless_progression
+
+    figures = solve_endless_progression([(QQ(1), QQ(3, 5)), (QQ(-1), QQ(2, 5))], "martingale", 1, 3, 6)
+    assert figures.ruin.verdict == "possible"
+    p, q = QQ(3, 5), QQ(2, 5)
+
+    def moves_at(level, state):
+        bet = min(2**state, level)
+        return ((bet, p, 0), (-bet, q, state + 1 if state + 1 < 3 else 0))
+
+    lower = float(_ruin_before_goal_exact(3, moves_at, 6, 0, 200))
+    assert lower - 1e-12 <= figures.ruin.ruin.value <= lower + 1e-9
+    assert figures.ruin.ruin.value <= figures.ruin.lundberg.value

@@ -16,7 +16,10 @@ from oddsbench.model.errors import OddsbenchError
 
 NO_GOAL_WORDS = frozenset({"none", "no", "never"})
 DEFAULT_NO_GOAL_DIGITS = 20
-ENDLESS_PLANS = "flat:B (a fixed bet of B) or timid[:U] (always the smallest bet, U, default 1)"
+ENDLESS_PLANS = (
+    "flat:B (a fixed bet of B), timid[:U] (always the smallest bet), or a capped progression "
+    "martingale:B:K / paroli:B:K"
+)
 
 
 def is_no_goal(goal: object) -> bool:
@@ -52,11 +55,13 @@ def endless_bet(plan: str | None, source: str = "--plan"):
         return None
     kind, _, amount = plan.strip().partition(":")
     kind = kind.strip().lower()
-    if kind not in ("flat", "timid"):
+    if kind not in ("flat", "timid", "martingale", "paroli"):
         raise OddsbenchError(
             f"{source} {plan!r}: with no goal the bet must stay bounded; use {ENDLESS_PLANS}"
             + (" (bold play needs a goal to aim at)" if kind == "bold" else "")
         )
+    if kind in ("martingale", "paroli"):
+        raise OddsbenchError(f"{source} {plan!r}: a progression is read by endless_plan, not endless_bet")
     if not amount.strip():
         if kind == "flat":
             raise OddsbenchError(f"{source} {plan!r}: give the bet, e.g. flat:1")
@@ -102,8 +107,8 @@ def run_no_goal_session(args: argparse.Namespace, distribution, title: str, sour
     plans = getattr(args, "plan", None) or ["timid"]
     bodies = []
     for plan in plans:
-        bet = endless_bet(plan)
-        if bet is None:
+        kind, bet, series = endless_plan(plan)
+        if kind == "timid":
             bet = settings.get("min_bet") or settings.get("unit") or 1
         kwargs = dict(
             cover=distribution.cover,
@@ -114,6 +119,9 @@ def run_no_goal_session(args: argparse.Namespace, distribution, title: str, sour
             max_bet=settings.get("max_bet"),
             floor=settings.get("floor") or 0,
         )
+        if kind in ("martingale", "paroli"):
+            kwargs.pop("check")
+            kwargs["progression"] = (kind, series)
         if getattr(args, "json", False):
             bodies.append(_figures_json(outcomes, settings["bankroll"], bet, title, plan, kwargs))
         else:
@@ -136,20 +144,51 @@ def _money(value: str, option: str):
         raise OddsbenchError(f"--{option} {value!r}: {error}") from None
 
 
+def _solve(outcomes, bankroll, bet, kwargs):
+    from oddsbench.strategy.endless_play import solve_endless_play, solve_endless_progression
+
+    kwargs = dict(kwargs)
+    progression = kwargs.pop("progression", None)
+    if progression is not None:
+        kind, series = progression
+        return solve_endless_progression(outcomes, kind, bet, series, bankroll, **kwargs)
+    return solve_endless_play(outcomes, bet, bankroll, **kwargs)
+
+
 def _figures_json(outcomes, bankroll, bet, title, plan, kwargs) -> dict:
     from oddsbench.report.no_goal_report import no_goal_json
-    from oddsbench.strategy.endless_play import solve_endless_play
 
-    body = no_goal_json(solve_endless_play(outcomes, bet, bankroll, **kwargs), title)
+    body = no_goal_json(_solve(outcomes, bankroll, bet, kwargs), title)
     body["plan"] = plan
     return body
 
 
 def _figures_text(outcomes, bankroll, bet, title, plan, kwargs) -> str:
     from oddsbench.report.no_goal_report import no_goal_text
-    from oddsbench.strategy.endless_play import solve_endless_play
 
-    return no_goal_text(solve_endless_play(outcomes, bet, bankroll, **kwargs), f"{title}, plan {plan}", cautions=False)
+    return no_goal_text(_solve(outcomes, bankroll, bet, kwargs), f"{title}, plan {plan}", cautions=False)
+
+
+def endless_plan(plan: str, source: str = "--plan") -> tuple[str, object, int]:
+    """(kind, amount, series) of a plan that can be played for ever; others refused in one line."""
+    from oddsbench.model.expr import ExpressionError, evaluate_text
+    from oddsbench.model.numbers import is_integer, text, to_int
+
+    kind = plan.strip().split(":")[0].strip().lower()
+    if kind not in ("martingale", "paroli"):
+        return ("timid", None, 1) if endless_bet(plan, source) is None else ("flat", endless_bet(plan, source), 1)
+    fields = [field.strip() for field in plan.strip().split(":")[1:]]
+    if len(fields) != 2 or not all(fields):
+        raise OddsbenchError(f"{source} {plan!r}: {kind} takes a base bet and a series cap, e.g. {kind}:1:5")
+    try:
+        base, series = evaluate_text(fields[0]), evaluate_text(fields[1])
+    except ExpressionError as error:
+        raise OddsbenchError(f"{source} {plan!r}: {error}") from None
+    if base <= 0:
+        raise OddsbenchError(f"{source} {plan!r}: the base bet must be positive, got {text(base)}")
+    if not is_integer(series) or not 1 <= series <= 30:
+        raise OddsbenchError(f"{source} {plan!r}: the series cap must be a whole number from 1 to 30")
+    return kind, base, to_int(series)
 
 
 def run_no_goal(

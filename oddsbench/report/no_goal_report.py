@@ -132,7 +132,8 @@ def no_goal_text(figures: EndlessPlayFigures, title: str = "round", cautions: bo
     """The human output of ``oddsbench session ... --goal none``."""
     walk, ruin = figures.walk, figures.ruin
     heading = (
-        f"{title}: endless play, no goal. Round {figures.round_text}; flat bet {text(walk.bet)}; "
+        f"{title}: endless play, no goal. Round {figures.round_text}; "
+        f"{'plan ' + figures.plan if figures.plan else 'flat bet ' + text(walk.bet)}; "
         f"bankroll {text(walk.bankroll)}. Ruin: the bankroll can no longer cover the minimum bet "
         f"(it needs {text(walk.low * walk.grid)})."
     )

@@ -61,6 +61,7 @@ class EndlessPlayFigures:
     walk: EndlessWalk
     ruin: UnboundedRuin
     round_text: str  # the round as "net:chance" pairs
+    plan: str = ""  # the plan's spelling when it is not a flat bet (progressions)
 
     def ruin_from(self, bankroll: Rational, digits: int | None = None):
         """Ruin chance from another starting bankroll (money), same round and bet.
@@ -207,3 +208,139 @@ def solve_endless_play(
     )
     shown = ", ".join(f"{text(net)}:{text(chance)}" for net, chance in sorted(pairs, reverse=True))
     return EndlessPlayFigures(walk, ruin, shown)
+
+
+PROGRESSIONS = ("martingale", "paroli")
+
+
+def solve_endless_progression(
+    outcomes: Iterable[tuple[Rational, Rational]],
+    kind: str,
+    base: Rational,
+    series: int,
+    bankroll: Rational,
+    cover: Rational | None = None,
+    digits: int = DEFAULT_DIGITS,
+    unit: Rational | None = None,
+    min_bet: Rational | None = None,
+    floor: Rational = 0,
+    max_bet: Rational | None = None,
+    should_stop=None,
+) -> EndlessPlayFigures:
+    """Endless martingale:B:K or paroli:B:K (the session rules: double after a loss / a win, at
+    most K bets in a series; pushes keep the bet), solved as a modulated walk."""
+    from oddsbench.solve.modulated_ruin import solve_modulated_ruin
+    from oddsbench.solve.unbounded_ruin import RoundsToRuin, _certified_exact
+
+    if kind not in PROGRESSIONS:
+        raise OddsbenchError(f"unknown progression {kind!r}")
+    pairs = [(QQ(net), QQ(chance)) for net, chance in outcomes]
+    top_bet = QQ(base) * 2 ** (series - 1)
+    walk = endless_flat_walk(pairs, top_bet, bankroll, cover, unit=unit, min_bet=min_bet, floor=floor, max_bet=max_bet)
+    scale = numerator(walk.unit / walk.grid)
+    base_units = _whole_units("the base bet", QQ(base), walk.unit)
+    min_units = to_int(walk.min_bet / walk.unit)
+    max_units = to_int(QQ(max_bet) / walk.unit) if max_bet is not None else None
+    cover_q = walk.cover
+
+    def units_at(level: int, state: int) -> int:
+        value = level + walk.low - 1
+        cap = (value * denominator(cover_q)) // (numerator(cover_q) * scale)
+        planned = base_units * 2**state
+        if max_units is not None:
+            planned = min(planned, max_units)
+        return max(min(max(planned, min_units), cap), min_units)
+
+    def moves_at(level: int, state: int):
+        units = units_at(level, state)
+        moves = []
+        for net, chance in pairs:
+            raising = net < 0 if kind == "martingale" else net > 0
+            if net == 0:
+                nxt = state
+            elif raising:
+                nxt = state + 1 if state + 1 < series else 0
+            else:
+                nxt = 0
+            moves.append((to_int(net * scale * units), chance, nxt))
+        return tuple(moves)
+
+    top = len(walk.bottom) + 1
+    answer = solve_modulated_ruin(series, moves_at, top, walk.level, 0, digits=min(digits, 15), should_stop=should_stop)
+    grid_mean = answer.drift
+    if answer.verdict == "certain":
+        rounds = RoundsToRuin(
+            "finite" if grid_mean < 0 else "infinite",
+            None,
+            None,
+            None,
+            None,
+            "finite for a losing progression (not computed for progressions)"
+            if grid_mean < 0
+            else "fair progression: ruin is certain but its expected time is infinite",
+        )
+    else:
+        rounds = RoundsToRuin(
+            "not defined", None, None, None, None, "ruin is not certain: the plain expected time to ruin is infinite"
+        )
+    lundberg_text = (
+        "h(start) / min h x exp(-R x (bankroll - levels with cut bets)), R and h verified for the modulated "
+        "walk: an upper bound"
+        if answer.lundberg is not None
+        else "not applicable"
+    )
+    ruin = UnboundedRuin(
+        bankroll=walk.level,
+        jumps=walk.jumps,
+        step=1,
+        steps_bankroll=walk.level,
+        mean=grid_mean,
+        variance=QQ(0),
+        largest_loss=max(1, -walk.jumps[0][0]),
+        verdict=answer.verdict,
+        reason=answer.reason.replace("grid steps", "grid step(s) of " + text(walk.grid)),
+        ruin=answer.ruin,
+        ruin_exact=QQ(1) if answer.verdict == "certain" else None,
+        ruin_closed_form=QQ(1) if answer.verdict == "certain" else None,
+        ruin_exact_text="1" if answer.verdict == "certain" else "interval (truncation)",
+        method=answer.method,
+        error_bound="none: exact"
+        if answer.verdict == "certain"
+        else f"at most {answer.ruin.radius} (truncation gap {answer.gap_bound.text}, proved)",
+        theta=None,
+        adjustment_coefficient=None
+        if answer.adjustment_coefficient is None
+        else _certified_exact(QQ(int(answer.adjustment_coefficient * 2**40), 2**40), 10),
+        lundberg=answer.lundberg,
+        lundberg_text=lundberg_text,
+        lundberg_exact_text="h(j)/min h x exp(-R d)" if answer.lundberg is not None else "-",
+        diffusion=None,
+        diffusion_text="not given for progressions",
+        diffusion_exponent=None,
+        diffusion_ratio=None,
+        adjustment_text="verified R (dyadic)" if answer.lundberg is not None else "-",
+        rounds_to_ruin=rounds,
+        rounds_if_ruined=None,
+        truncation=None,
+        notes=(
+            f"{kind}: base {text(QQ(base))}, at most {series} bets in a series; the plan's place in the series "
+            "is part of the state (a modulated walk)",
+        ),
+        digits=min(digits, 15),
+    )
+    shown = ", ".join(f"{text(net)}:{text(chance)}" for net, chance in sorted(pairs, reverse=True))
+    flat_like = EndlessWalk(
+        bet=QQ(base),
+        bankroll=walk.bankroll,
+        unit=walk.unit,
+        min_bet=walk.min_bet,
+        cover=walk.cover,
+        floor=walk.floor,
+        grid=walk.grid,
+        jumps=walk.jumps,
+        bottom=walk.bottom,
+        bankroll_grid=walk.bankroll_grid,
+        low=walk.low,
+        level=walk.level,
+    )
+    return EndlessPlayFigures(flat_like, ruin, shown, f"{kind}:{text(QQ(base))}:{series}")
