@@ -45,6 +45,8 @@ def _rounds_cells(rounds: RoundsToRuin) -> tuple[str, str]:
         if rounds.exact is not None:
             return _cell(rounds.exact), _certified_text(rounds.decimal)
         if rounds.lower is None:
+            if rounds.decimal is None:
+                return "finite", "not computed"
             return "algebraic", _certified_text(rounds.decimal)
         bounds = f"between {_cell(rounds.lower)} and {_cell(rounds.upper)}"
         return bounds, _certified_text(rounds.decimal)
@@ -73,7 +75,8 @@ def no_goal_rows(figures: EndlessPlayFigures) -> list[tuple[str, str, str]]:
         )
     if ruin.diffusion_ratio is not None:
         rows.append(("  rule of thumb / exact", "", ruin.diffusion_ratio.text))
-    rows.append(("expected result per round (edge)", _cell(ruin.mean * figures.walk.grid), ""))
+    edge_label = "long-run expected result per round" if figures.plan else "expected result per round (edge)"
+    rows.append((edge_label, _cell(ruin.mean * figures.walk.grid), ""))
     rows.append(("expected rounds to ruin", *_rounds_cells(ruin.rounds_to_ruin)))
     if ruin.rounds_if_ruined is not None:
         rows.append(("expected rounds to ruin, when ruin comes", *_rounds_cells(ruin.rounds_if_ruined)))
@@ -139,8 +142,10 @@ def no_goal_text(figures: EndlessPlayFigures, title: str = "round", cautions: bo
     )
     if walk.floor:
         heading += f" Play also stops at the floor {text(walk.floor)}, counted as ruin here."
-    if walk.bottom:
-        cut = ", ".join(sorted({text(bet) for bet, _ in walk.bottom}))
+    if walk.bottom and figures.plan:
+        heading += f" Below {text(walk.full_bet_from)} bets are cut to what the bankroll covers."
+    elif walk.bottom:
+        cut = ", ".join(text(bet) for bet in sorted({bet for bet, _ in walk.bottom}))
         heading += f" Below {text(walk.full_bet_from)} the bet is cut to what the bankroll covers ({cut})."
     verdict = {
         "certain": "Ruin is certain: probability exactly 1. Reason:",
