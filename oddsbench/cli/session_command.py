@@ -46,7 +46,12 @@ def register(commands) -> None:
         "separated, e.g. '1:18/37,-1:19/37' (an optional third field is an extra stake)",
     )
     parser.add_argument("--bankroll", metavar="MONEY", help="starting bankroll")
-    parser.add_argument("--goal", metavar="MONEY", help="stop once the bankroll reaches or passes this")
+    parser.add_argument(
+        "--goal",
+        metavar="MONEY",
+        help="stop once the bankroll reaches or passes this; 'none': never stop at a target, play until ruin "
+        "(risk of ruin on the unbounded walk, exact)",
+    )
     parser.add_argument("--floor", metavar="MONEY", help="stop-loss: stop once the bankroll is at or below (default 0)")
     parser.add_argument("--min-bet", metavar="MONEY", help="table minimum (default: the betting unit)")
     parser.add_argument("--max-bet", metavar="MONEY", help="table maximum (default: none)")
@@ -67,6 +72,9 @@ def register(commands) -> None:
     )
     parser.add_argument("--series-csv", metavar="FILE", help="write the goal chance for every starting bankroll as CSV")
     add_exact_limit(parser, DEFAULT_EXACT_LIMIT)
+    from oddsbench.cli.no_goal import add_no_goal_arguments
+
+    add_no_goal_arguments(parser)
     parser.set_defaults(run=run)
 
 
@@ -90,7 +98,10 @@ def run(args: argparse.Namespace) -> int:
 
     if (args.file is None) == (args.round is None):
         raise OddsbenchError("session: give a ruleset FILE or --round NET:PROB,..., not both and not neither")
+    from oddsbench.cli.no_goal import is_no_goal, run_no_goal_session, wants_no_goal
+
     defaults: dict = {}
+    table: dict | None = None
     if args.round is not None:
         distribution = parse_round_text(args.round)
         title, source = "Inline round", "--round"
@@ -101,7 +112,13 @@ def run(args: argparse.Namespace) -> int:
         ruleset = load_ruleset(args.file)
         distribution = round_distribution_of(ruleset, _policy(ruleset, args.strategy))
         title, source = ruleset.title, ruleset.source
-        defaults = settings_from_table(ruleset.session, source)
+        table = dict(ruleset.session)
+    if wants_no_goal(args, table):
+        _refuse_with_no_goal(args, source)
+        return run_no_goal_session(args, distribution, title, source, table)
+    if table is not None:
+        # goal = "none" in the table is overridden by a numeric --goal here
+        defaults = settings_from_table({k: v for k, v in table.items() if not (k == "goal" and is_no_goal(v))}, source)
     overrides = {
         name: _money(getattr(args, name), name.replace("_", "-"))
         for name in ("bankroll", "goal", "floor", "min_bet", "max_bet", "unit")
@@ -117,6 +134,15 @@ def run(args: argparse.Namespace) -> int:
     else:
         print(session_text(title, distribution, settings, results))
     return 0
+
+
+def _refuse_with_no_goal(args: argparse.Namespace, source: str) -> None:
+    """Options that need a goal, named in one line when combined with --goal none."""
+    from oddsbench.model.errors import OddsbenchError
+
+    for option, given in (("--rounds", args.rounds), ("--series", args.series), ("--series-csv", args.series_csv)):
+        if given:
+            raise OddsbenchError(f"{source}: {option} needs a goal; with --goal none the session only ends at ruin")
 
 
 def _policy(ruleset, strategy_name: str | None) -> dict:
