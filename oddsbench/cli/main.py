@@ -91,4 +91,9 @@ def main(argv: Sequence[str] | None = None) -> int:
 
 
 def entry() -> None:
-    sys.exit(main())
+    try:
+        code = main()
+    except KeyboardInterrupt:  # Ctrl-C before a command started (while parsing or importing)
+        print("oddsbench: interrupted", file=sys.stderr)
+        code = EXIT_INTERRUPTED
+    sys.exit(code)

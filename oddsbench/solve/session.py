@@ -133,6 +133,43 @@ def exact_work(chain: BankrollChain) -> int:
     return int(lu.L.nnz + lu.U.nnz) * n
 
 
+BANDED_FILL_LIMIT = 250_000_000
+
+
+def chain_bandwidth(chain: BankrollChain) -> int:
+    """Largest index distance of a transient-to-transient step."""
+    if chain.size == 0:
+        return 0
+    rows = np.arange(chain.size)[:, None]
+    inside = chain.target >= 0
+    return int(np.abs(np.where(inside, chain.target - rows, 0)).max())
+
+
+class BandAwareLU:
+    """SuperLU on I - Q, ordered for a bankroll chain.
+
+    A flat-style plan gives a banded system whose losses step down by a few states and wins up by
+    many: eliminating from the top of the bankroll range (reversed natural order, no pivoting, safe
+    for the M-matrix I - Q) keeps fill inside the band and is several times faster than a fill-
+    reducing ordering. Plans with far jumps (bold play) use SuperLU's COLAMD ordering instead.
+    """
+
+    def __init__(self, system, bandwidth: int) -> None:
+        from scipy.sparse.linalg import splu
+
+        n = system.shape[0]
+        self.reversed = bandwidth * n <= BANDED_FILL_LIMIT
+        if self.reversed:
+            self._lu = splu(system[::-1, ::-1].tocsc(), permc_spec="NATURAL", diag_pivot_thresh=0)
+        else:
+            self._lu = splu(system)
+
+    def solve(self, rhs: np.ndarray, trans: str = "N") -> np.ndarray:
+        if not self.reversed:
+            return self._lu.solve(rhs, trans=trans)
+        return self._lu.solve(np.ascontiguousarray(rhs[::-1]), trans=trans)[::-1]
+
+
 def _rhs_columns(chain: BankrollChain):
     """Per transient state: one-round chance of reaching the goal, and money staked per round."""
     grid = chain.grid
@@ -143,7 +180,6 @@ def _rhs_columns(chain: BankrollChain):
 
 def _absorbing_decimal(chain: BankrollChain) -> dict:
     from scipy.sparse import identity
-    from scipy.sparse.linalg import splu
 
     n = chain.size
     goal_columns, staked_unit = _rhs_columns(chain)
@@ -151,7 +187,7 @@ def _absorbing_decimal(chain: BankrollChain) -> dict:
     values = chain.absorbing_values.astype(float) * to_float(chain.grid.step)
     if n == 0:
         return {"absorbed": np.zeros(len(values)), "start_absorbed": True, "series": np.zeros(0)}
-    lu = splu((identity(n, format="csc") - chain.q_matrix()).tocsc())
+    lu = BandAwareLU((identity(n, format="csc") - chain.q_matrix()).tocsc(), chain_bandwidth(chain))
     r_goal = np.asarray(r[:, goal_columns].sum(axis=1)).ravel()
     staked = chain.bets.astype(float) * to_float(staked_unit)
     solved = lu.solve(np.column_stack([r_goal, np.ones(n), staked]))
