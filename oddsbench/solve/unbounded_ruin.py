@@ -877,7 +877,7 @@ def _possible_ruin(common: dict, reduced, level: int, notes: list[str], check: b
         diffusion=diffusion,
         diffusion_text=diffusion_text,
         **_diffusion_extras(common, root_ball, digits),
-        adjustment_text=_adjustment_text(rho, common["step"]),
+        adjustment_text=_adjustment_text(rho, common["step"], rho_name),
         rounds_to_ruin=RoundsToRuin(
             "not defined",
             None,
@@ -1012,12 +1012,12 @@ def _diffusion_extras(common: dict, ruin_ball, digits: int) -> dict[str, Any]:
     return {"diffusion_exponent": exponent, "diffusion_ratio": ratio}
 
 
-def _adjustment_text(rho: CharacteristicRoot, step: int) -> str:
+def _adjustment_text(rho: CharacteristicRoot, step: int, name: str = "rho") -> str:
     per_step = "" if step == 1 else f" / {step} per unit"
     if rho.is_rational:
         inverse = QQ(1) / rho.exact
         return f"ln({text(inverse)}){per_step}"
-    return f"-ln rho{per_step}"
+    return f"-ln {name}{per_step}"
 
 
 def _rational_power(base: Rational, power: int) -> Rational:
