@@ -252,3 +252,37 @@ async def test_session_settings_are_edited_in_the_file(tmp_path):
         await pilot.press("f5")
         await settle(pilot)
         assert "to goal 150" in app.workbench.sessions_result.heading
+
+
+def long_walk(states: int) -> str:
+    """An invented subfair walk, long enough that its exact solve takes seconds."""
+    lines = ["[ruleset]", 'title = "Long walk"', f'start = "s{states // 2}"', "[states.s0]", 'result = "loss"']
+    lines += [f"[states.s{states}]", 'result = "win"']
+    for i in range(1, states):
+        lines.append(f"[states.s{i}]")
+        lines.append(f'outcomes = [{{ to = "s{i + 1}", prob = "18/37", pay = 1 }}, {{ to = "s{i - 1}", pay = -1 }}]')
+    return "\n".join(lines) + "\n"
+
+
+async def test_escape_cancels_a_long_solve_and_keeps_the_workbench_responsive(tmp_path):
+    import asyncio
+    import time
+
+    path = tmp_path / "walk.toml"
+    path.write_text(long_walk(1200))
+    app = app_on(path, tmp_path)
+    async with app.run_test(size=(100, 30)) as pilot:
+        for _ in range(200):
+            await pilot.pause()
+            if app.workbench.solving:
+                break
+            await asyncio.sleep(0.02)
+        assert app.workbench.solving
+        await pilot.press("escape")
+        started = time.monotonic()
+        await app.workers.wait_for_complete()
+        await pilot.pause()
+        assert time.monotonic() - started < 5
+        assert not app.workbench.solving
+        assert "cancelled" in app.workbench.status_note
+        assert app.workbench.result is None  # nothing half-solved is shown
