@@ -176,7 +176,7 @@ def sessions_text(
     should_stop: Callable[[], bool] | None = None,
 ) -> SessionsResult | RoundFailure:
     """Every plan's session figures, its goal-chance series and its chance of still playing after n rounds."""
-    from oddsbench.report.strategy_report import cell
+    from oddsbench.report.session_report import session_rows
     from oddsbench.solve.round_distribution import round_distribution_of
     from oddsbench.strategy.session import analyse_session
 
@@ -208,13 +208,7 @@ def sessions_text(
             )
     except OddsbenchError as error:
         return RoundFailure(str(error))
-    names: list[str] = []
-    for result in results:
-        names += [name for name in result.figures if name not in names and not name.startswith("within_")]
-    rows = tuple(
-        (name.replace("_", " "), *(cell(r.figures.get(name), name.endswith("probability")) for r in results))
-        for name in names
-    )
+    rows = tuple(tuple(row) for row in session_rows(results))
     heading = (
         f"{ruleset.title}: sessions from bankroll {shown_money(settings.bankroll)} to goal "
         f"{shown_money(settings.goal)}, {len(plans)} plan(s) (cells: exact | decimal)"

@@ -210,7 +210,7 @@ async def test_sessions_compare_two_plans_side_by_side(tmp_path):
         await settle(pilot)
         result = app.workbench.sessions_result
         assert result.headers == ("quantity", "timid", "bold")
-        goal = next(row for row in result.rows if row[0] == "goal probability")
+        goal = next(row for row in result.rows if row[0] == "reach the goal")
         # Bold play from 100 to 200 at even money is one bet of 100: the chance of the goal is the
         # chance of one win, 18/37 (Dubins and Savage, How to Gamble If You Must, bold play (from memory)).
         assert goal[2].startswith("18/37 | ")
