@@ -599,8 +599,8 @@ class WorkbenchScreen(Screen):
             focused = self.focused
             if focused is not None and focused.has_class("-textual-compact") and focused.id != "navigator":
                 editor = self.query_one("#editors", ContentSwitcher).current
-                target = "#outcomes" if editor == "state-editor" else "#params-table"
-                if editor != "setup-editor":
+                target = {"state-editor": "#outcomes", "params-editor": "#params-table"}.get(editor)
+                if target is not None and self.query_one(target).is_displayed:
                     self.query_one(target).focus()
                     return
             self.query_one(Navigator).focus()

@@ -147,7 +147,7 @@ class SessionEditor(Vertical):
             "Session: the bankroll and limits every plan in Sessions (F5) plays with", classes="editor-heading"
         )
         for name in SETTING_NAMES:
-            yield FieldRow(name, name.replace("_", " ")[:6], "")
+            yield FieldRow(name, name.replace("_", " "), "")
         yield Static("", id="session-message", classes="field-message")
 
     def show(self, document: RulesetDocument, problem: str | None) -> None:
