@@ -36,6 +36,7 @@ SCENES = (
     Scene("round-figures-100x30", "pass-line.toml", (100, 30), ("f3",)),
     Scene("bad-value-100x30", "pass-line.toml", (100, 30), ("enter", "enter", "end", "ctrl+u", *"8/3(")),
     Scene("strategies-120x40", "lamplighter-ladder.toml", (120, 40), ("f4",)),
+    Scene("sessions-120x40", "single-zero-wheel.toml", (120, 40), ("f5",)),
     Scene("help-100x30", "pass-line.toml", (100, 30), ("f1",)),
     Scene("workbench-160x40", "pass-line.toml", (160, 40), ("down", "enter")),
 )

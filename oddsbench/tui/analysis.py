@@ -124,3 +124,106 @@ def strategies_text(
     if best.endswith(block):  # the cautions are on screen already, below every view
         best = best[: -len(block)].rstrip()
     return StrategiesResult(heading, headers, rows, best, goal)
+
+
+DEFAULT_PLANS = ("timid", "bold")
+LENGTH_POINTS = 12
+
+
+@dataclass(frozen=True)
+class PlanSeries:
+    """What the charts draw for one plan: the engines' own decimals, nothing derived here."""
+
+    plan: str
+    bankrolls: tuple[float, ...]
+    goal_chance: tuple[float, ...]
+    rounds: tuple[int, ...]
+    still_playing: tuple[float, ...]
+
+
+@dataclass(frozen=True)
+class SessionsResult:
+    """Bankroll plans side by side (``exact | decimal`` cells) and the series for the two charts."""
+
+    heading: str
+    headers: tuple[str, ...]
+    rows: tuple[tuple[str, ...], ...]
+    series: tuple[PlanSeries, ...]
+    notes: tuple[str, ...]
+
+
+def parse_plans(text: str) -> tuple[str, ...]:
+    """Plans typed as ``timid, bold, flat:2``; each is checked by ``strategy.plans.parse_plan``."""
+    from oddsbench.strategy.plans import parse_plan
+
+    spellings = tuple(part.strip() for part in text.replace(";", ",").split(",") if part.strip())
+    for spelling in spellings:
+        parse_plan(spelling)  # raises OddsbenchError with the CLI's own message
+    return spellings
+
+
+def session_settings_of(ruleset: Ruleset):
+    """The file's ``[session]`` table as settings (raises OddsbenchError naming the field)."""
+    from oddsbench.strategy.session import merge_settings, settings_from_table
+
+    return merge_settings(settings_from_table(ruleset.session, ruleset.source), {}, ruleset.source)
+
+
+def sessions_text(
+    ruleset: Ruleset,
+    strategy: str | None,
+    plans: tuple[str, ...],
+    should_stop: Callable[[], bool] | None = None,
+) -> SessionsResult | RoundFailure:
+    """Every plan's session figures, its goal-chance series and its chance of still playing after n rounds."""
+    from oddsbench.report.session_report import session_rows
+    from oddsbench.solve.round_distribution import round_distribution_of
+    from oddsbench.strategy.session import analyse_session
+
+    if not plans:
+        return RoundFailure("type one or more plans to compare, e.g. timid, bold, flat:2, martingale:1:6")
+    try:
+        settings = session_settings_of(ruleset)
+        distribution = round_distribution_of(ruleset, policy_of(ruleset, strategy))
+        results = [analyse_session(distribution, settings, plan, should_stop=should_stop) for plan in plans]
+        series = []
+        for result in results:
+            # sample points for the chart only (decimals for a picture: the exact figures are in the table)
+            horizon = max(1, int(result.figures["expected_rounds"].decimal * 3))
+            points = sorted({max(1, horizon * k // (LENGTH_POINTS - 1)) for k in range(LENGTH_POINTS)})
+            playing = [
+                analyse_session(distribution, settings, result.plan, exact_limit=0, rounds=n, should_stop=should_stop)
+                .figures["within_playing_probability"]
+                .decimal
+                for n in points
+            ]
+            series.append(
+                PlanSeries(
+                    result.plan,
+                    tuple(float(b) for b in _floats(result.series_bankrolls())),
+                    result.goal_series,
+                    (0, *points),
+                    (1.0, *playing),
+                )
+            )
+    except OddsbenchError as error:
+        return RoundFailure(str(error))
+    rows = tuple(tuple(row) for row in session_rows(results))
+    heading = (
+        f"{ruleset.title}: sessions from bankroll {shown_money(settings.bankroll)} to goal "
+        f"{shown_money(settings.goal)}, {len(plans)} plan(s) (cells: exact | decimal)"
+    )
+    notes = tuple(f"{r.plan}: {note}" for r in results for note in r.notes)
+    return SessionsResult(heading, ("quantity", *plans), rows, tuple(series), notes)
+
+
+def shown_money(value) -> str:
+    from oddsbench.report.numbers_text import exact_text
+
+    return exact_text(value)
+
+
+def _floats(values) -> list[float]:
+    from oddsbench.model.numbers import to_float
+
+    return [to_float(value) for value in values]

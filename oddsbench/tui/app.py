@@ -166,6 +166,7 @@ class WorkbenchApp(App):
             ("Edit view", "states, outcomes, setup and parameters (F2)", lambda: bench.action_view("edit")),
             ("Round figures", "every figure of one round, exact | decimal (F3)", lambda: bench.action_view("round")),
             ("Strategies", "named strategies side by side, best play (F4)", lambda: bench.action_view("strategies")),
+            ("Sessions", "bankroll plans side by side, two charts (F5)", lambda: bench.action_view("sessions")),
             ("Source", "the file as text (F6)", lambda: bench.action_view("source")),
             ("Solve again", "re-run the round solve (Ctrl+R)", bench.action_resolve),
             ("Help", "every key (F1)", self.action_help),

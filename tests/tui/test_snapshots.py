@@ -63,3 +63,12 @@ def test_help_screen(snap_compare, scratch):
         await settle(pilot)
 
     assert snap_compare(workbench(scratch, "pass-line.toml"), terminal_size=(100, 30), run_before=help_screen)
+
+
+def test_sessions_view_at_120x40(snap_compare, scratch):
+    async def sessions(pilot):
+        await settle(pilot)
+        await pilot.press("f5")
+        await settle(pilot)
+
+    assert snap_compare(workbench(scratch, "single-zero-wheel.toml"), terminal_size=(120, 40), run_before=sessions)

@@ -200,3 +200,89 @@ async def test_a_refresh_while_typing_never_overwrites_newer_keystrokes(tmp_path
         assert field.value == "typed ahead"
         await settle(pilot)
         assert 'note = "typed ahead"' in app.workbench.session.text
+
+
+async def test_sessions_compare_two_plans_side_by_side(tmp_path):
+    app = app_on(copy_ruleset("single-zero-wheel.toml", tmp_path), tmp_path)
+    async with app.run_test(size=(120, 40)) as pilot:
+        await settle(pilot)
+        await pilot.press("f5")
+        await settle(pilot)
+        result = app.workbench.sessions_result
+        assert result.headers == ("quantity", "timid", "bold")
+        goal = next(row for row in result.rows if row[0] == "reach the goal")
+        # Bold play from 100 to 200 at even money is one bet of 100: the chance of the goal is the
+        # chance of one win, 18/37 (Dubins and Savage, How to Gamble If You Must, bold play (from memory)).
+        assert goal[2].startswith("18/37 | ")
+        table = app.workbench.query_one("#sessions-table")
+        assert table.row_count == len(result.rows) and len(table.columns) == 3
+        assert [series.plan for series in result.series] == ["timid", "bold"]
+
+
+async def test_a_bad_plan_shows_the_sessions_message_and_keeps_the_figures(tmp_path):
+    app = app_on(copy_ruleset("single-zero-wheel.toml", tmp_path), tmp_path)
+    async with app.run_test(size=(120, 40)) as pilot:
+        await settle(pilot)
+        await pilot.press("f5")
+        await settle(pilot)
+        before = app.workbench.sessions_result
+        await pilot.press("end", *", flat:")
+        await settle(pilot)
+        message = str(app.workbench.query_one("#plans-message").render())
+        assert "flat:" in message
+        assert app.workbench.sessions_result is before
+        await pilot.press(*"2")
+        await settle(pilot)
+        assert app.workbench.sessions_result.headers == ("quantity", "timid", "bold", "flat:2")
+
+
+async def test_session_settings_are_edited_in_the_file(tmp_path):
+    app = app_on(copy_ruleset("single-zero-wheel.toml", tmp_path), tmp_path)
+    async with app.run_test(size=(120, 40)) as pilot:
+        await settle(pilot)
+        navigator = app.workbench.query_one("#navigator")
+        navigator.highlighted = [navigator.get_option_at_index(i).id for i in range(navigator.option_count)].index(
+            "session:"
+        )
+        await settle(pilot)
+        app.workbench.query_one("#field-goal").focus()
+        await pilot.press("end", "ctrl+u", *"150")
+        await settle(pilot)
+        assert "goal = 150" in app.workbench.session.text
+        await pilot.press("f5")
+        await settle(pilot)
+        assert "to goal 150" in app.workbench.sessions_result.heading
+
+
+def long_walk(states: int) -> str:
+    """An invented subfair walk, long enough that its exact solve takes seconds."""
+    lines = ["[ruleset]", 'title = "Long walk"', f'start = "s{states // 2}"', "[states.s0]", 'result = "loss"']
+    lines += [f"[states.s{states}]", 'result = "win"']
+    for i in range(1, states):
+        lines.append(f"[states.s{i}]")
+        lines.append(f'outcomes = [{{ to = "s{i + 1}", prob = "18/37", pay = 1 }}, {{ to = "s{i - 1}", pay = -1 }}]')
+    return "\n".join(lines) + "\n"
+
+
+async def test_escape_cancels_a_long_solve_and_keeps_the_workbench_responsive(tmp_path):
+    import asyncio
+    import time
+
+    path = tmp_path / "walk.toml"
+    path.write_text(long_walk(1200))
+    app = app_on(path, tmp_path)
+    async with app.run_test(size=(100, 30)) as pilot:
+        for _ in range(200):
+            await pilot.pause()
+            if app.workbench.solving:
+                break
+            await asyncio.sleep(0.02)
+        assert app.workbench.solving
+        await pilot.press("escape")
+        started = time.monotonic()
+        await app.workers.wait_for_complete()
+        await pilot.pause()
+        assert time.monotonic() - started < 5
+        assert not app.workbench.solving
+        assert "cancelled" in app.workbench.status_note
+        assert app.workbench.result is None  # nothing half-solved is shown

@@ -28,9 +28,10 @@ from oddsbench.tui.screens.dialogs import AskName, Choose
 from oddsbench.tui.widgets.cautions import CautionsBar
 from oddsbench.tui.widgets.edits import EditRequested
 from oddsbench.tui.widgets.figures import FiguresTable, SummaryLine
-from oddsbench.tui.widgets.navigator import PARAMS, SETUP, STATE, Navigator
+from oddsbench.tui.widgets.navigator import PARAMS, SESSION, SETUP, STATE, Navigator
 from oddsbench.tui.widgets.problems import ProblemsPanel
-from oddsbench.tui.widgets.setup_editor import ParamsEditor, SetupEditor
+from oddsbench.tui.widgets.sessions import SessionsPanel
+from oddsbench.tui.widgets.setup_editor import ParamsEditor, SessionEditor, SetupEditor
 from oddsbench.tui.widgets.state_editor import StateEditor
 from oddsbench.tui.widgets.strategies import StrategiesPanel
 
@@ -38,8 +39,10 @@ VIEWS = (
     ("edit", "Edit", "f2"),
     ("round", "Round", "f3"),
     ("strategies", "Strategies", "f4"),
+    ("sessions", "Sessions", "f5"),
     ("source", "Source", "f6"),
 )
+SHORT_LABELS = {"strategies": "Strat", "sessions": "Sess", "source": "Src"}
 GOALS = ("max-return", "max-win", "min-loss", "min-steps")
 WIDE = 150
 
@@ -51,6 +54,7 @@ class WorkbenchScreen(Screen):
         Binding("f2", "view('edit')", "Edit"),
         Binding("f3", "view('round')", "Round"),
         Binding("f4", "view('strategies')", "Strategies", show=False),
+        Binding("f5", "view('sessions')", "Sessions", show=False),
         Binding("f6", "view('source')", "Source", show=False),
         Binding("g", "next_goal", "Next goal (strategies)", show=False),
         Binding("ctrl+s", "save", "Save", priority=True),
@@ -81,6 +85,10 @@ class WorkbenchScreen(Screen):
         self.strategies_result = None
         self.strategies_key: tuple | None = None
         self.strategies_busy = False
+        self.plans = analysis.DEFAULT_PLANS
+        self.sessions_result = None
+        self.sessions_key: tuple | None = None
+        self.sessions_busy = False
 
     # ----- layout -----
 
@@ -93,6 +101,7 @@ class WorkbenchScreen(Screen):
                     with ContentSwitcher(initial="state-editor", id="editors"):
                         yield SetupEditor(id="setup-editor")
                         yield ParamsEditor(id="params-editor")
+                        yield SessionEditor(id="session-editor")
                         yield StateEditor(id="state-editor")
                     yield ProblemsPanel(id="problems")
                 with Vertical(id="side-figures"):
@@ -105,6 +114,8 @@ class WorkbenchScreen(Screen):
                 yield Static("", id="round-notes")
             with Vertical(id="strategies"):
                 yield StrategiesPanel(id="strategies-panel")
+            with Vertical(id="sessions"):
+                yield SessionsPanel(", ".join(analysis.DEFAULT_PLANS), id="sessions-panel")
             with Vertical(id="source"):
                 yield Static(
                     "The file as text: anything the forms do not cover. Edits here are undoable too.",
@@ -166,6 +177,9 @@ class WorkbenchScreen(Screen):
         elif entry == PARAMS:
             editors.current = "params-editor"
             self.query_one(ParamsEditor).show(document, problems)
+        elif entry == SESSION:
+            editors.current = "session-editor"
+            self.query_one(SessionEditor).show(document, self._session_problem())
         elif entry.startswith(STATE) and entry[len(STATE) :] in document.state_names():
             editors.current = "state-editor"
             self.query_one(StateEditor).show(document, entry[len(STATE) :], problems)
@@ -178,7 +192,8 @@ class WorkbenchScreen(Screen):
         current = self.query_one("#views", ContentSwitcher).current
         for view, label, key in VIEWS:
             style = "bold reverse" if view == current else "dim"
-            text.append(f" {key.upper()} {label} ", style=style)
+            shown = label if wide else SHORT_LABELS.get(view, label)
+            text.append(f" {key.upper()} {shown} ", style=style)
         path = self.session.path
         text.append(f"  {path.name if path else 'new ruleset'}")
         if self.session.read_only and path is not None and wide:
@@ -246,6 +261,10 @@ class WorkbenchScreen(Screen):
             self._show_strategies()
         elif self.query_one("#views", ContentSwitcher).current == "strategies":
             self.compare_strategies()
+        elif self.query_one("#views", ContentSwitcher).current == "sessions":
+            self.compare_sessions()
+        if ruleset is None:
+            self._show_sessions()
 
     def _set_solving(self, generation: int, solving: bool) -> None:
         if generation != self.generation:
@@ -344,6 +363,74 @@ class WorkbenchScreen(Screen):
     def _show_strategies(self) -> None:
         stale = self.reading is not None and self.reading.ruleset is None
         self.query_one(StrategiesPanel).show(self.strategies_result, stale=stale, busy=self.strategies_busy)
+
+    def _session_problem(self) -> str | None:
+        """The first problem of the [session] table, as the sessions command words it."""
+        ruleset = self.reading.ruleset if self.reading else None
+        if ruleset is None or not ruleset.session:
+            return None
+        try:
+            analysis.session_settings_of(ruleset)
+        except OddsbenchError as error:
+            return str(error)
+        return None
+
+    def compare_sessions(self) -> None:
+        ruleset = self.reading.ruleset if self.reading else None
+        if ruleset is None:
+            return
+        key = (self.session.text, self.plans, self.strategy)
+        if key == self.sessions_key:
+            return
+        self.sessions_key = key
+        self.sessions_busy = True
+        self._show_sessions()
+        self._sessions(ruleset, self.strategy, self.plans, key)
+
+    @work(thread=True, exclusive=True, group="sessions")
+    def _sessions(self, ruleset, strategy, plans, key: tuple) -> None:
+        from oddsbench.solve.exact_linear import SolveCancelled
+
+        worker = get_current_worker()
+        try:
+            result = analysis.sessions_text(ruleset, strategy, plans, should_stop=lambda: worker.is_cancelled)
+        except SolveCancelled:
+            self.app.call_from_thread(self._sessions_cancelled, key)
+            return
+        except (ArithmeticError, ValueError, MemoryError) as error:
+            result = RoundFailure(f"the sessions could not be solved: {error}")
+        if not worker.is_cancelled:
+            self.app.call_from_thread(self._sessions_done, key, result)
+
+    def _sessions_done(self, key: tuple, result) -> None:
+        if key != self.sessions_key:
+            return
+        self.sessions_busy = False
+        self.sessions_result = result
+        self._show_sessions()
+
+    def _sessions_cancelled(self, key: tuple) -> None:
+        if key == self.sessions_key:
+            self.sessions_busy = False
+            self.sessions_key = None
+            self._show_sessions()
+
+    def _show_sessions(self) -> None:
+        stale = self.reading is not None and self.reading.ruleset is None
+        self.query_one(SessionsPanel).show(self.sessions_result, stale=stale, busy=self.sessions_busy)
+
+    @on(SessionsPanel.PlansChanged)
+    def _plans_changed(self, event: SessionsPanel.PlansChanged) -> None:
+        event.stop()
+        panel = self.query_one(SessionsPanel)
+        try:
+            plans = analysis.parse_plans(event.text)
+        except OddsbenchError as error:
+            panel.show_plan_problem(str(error))
+            return
+        panel.show_plan_problem("")
+        self.plans = plans
+        self.compare_sessions()
 
     def action_next_goal(self) -> None:
         self.goal = GOALS[(GOALS.index(self.goal) + 1) % len(GOALS)]
@@ -466,6 +553,9 @@ class WorkbenchScreen(Screen):
         elif view == "strategies":
             self.query_one("#strategies-table").focus()
             self.compare_strategies()
+        elif view == "sessions":
+            self.query_one("#plans-field").focus()
+            self.compare_sessions()
         else:
             self.query_one(Navigator).focus()
         self._update_topbar()
@@ -494,20 +584,23 @@ class WorkbenchScreen(Screen):
             self.force_fields = False
 
     def action_escape(self) -> None:
-        if self.solving or self.strategies_busy:
+        if self.solving or self.strategies_busy or self.sessions_busy:
             if self.solving:
                 self.workers.cancel_group(self, "analysis")
                 self._cancelled(self.generation)
             if self.strategies_busy:
                 self.workers.cancel_group(self, "strategies")
                 self._strategies_cancelled(self.strategies_key)
+            if self.sessions_busy:
+                self.workers.cancel_group(self, "sessions")
+                self._sessions_cancelled(self.sessions_key)
             return
         if self.query_one("#views", ContentSwitcher).current == "edit":
             focused = self.focused
             if focused is not None and focused.has_class("-textual-compact") and focused.id != "navigator":
                 editor = self.query_one("#editors", ContentSwitcher).current
-                target = "#outcomes" if editor == "state-editor" else "#params-table"
-                if editor != "setup-editor":
+                target = {"state-editor": "#outcomes", "params-editor": "#params-table"}.get(editor)
+                if target is not None and self.query_one(target).is_displayed:
                     self.query_one(target).focus()
                     return
             self.query_one(Navigator).focus()

@@ -12,6 +12,7 @@ from oddsbench.model.document import RulesetDocument
 
 SETUP = "setup:"
 PARAMS = "params:"
+SESSION = "session:"
 STATE = "state:"
 
 
@@ -46,6 +47,7 @@ class Navigator(OptionList):
         options: list[Option | None] = [
             Option(Text("Round setup", style="bold"), id=SETUP),
             Option(Text(f"Parameters ({len(document.params())})", style="bold"), id=PARAMS),
+            Option(Text("Session", style="bold"), id=SESSION),
             None,
         ]
         for name in document.state_names():

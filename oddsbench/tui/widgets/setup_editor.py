@@ -135,3 +135,44 @@ class ParamsEditor(Vertical):
     def action_delete_param(self) -> None:
         if self.current is not None:
             self.post_message(self.ParamCommand("delete", self.current))
+
+
+class SessionEditor(Vertical):
+    """The file's ``[session]`` table: bankroll, goal and limits, shared by every plan."""
+
+    def compose(self) -> ComposeResult:
+        from oddsbench.strategy.session import SETTING_NAMES
+
+        yield Static(
+            "Session: the bankroll and limits every plan in Sessions (F5) plays with", classes="editor-heading"
+        )
+        for name in SETTING_NAMES:
+            yield FieldRow(name, name.replace("_", " "), "")
+        yield Static("", id="session-message", classes="field-message")
+
+    def show(self, document: RulesetDocument, problem: str | None) -> None:
+        values = self._values = dict(document.session())
+        for row in self.query(FieldRow):
+            row.input.show(values.get(row.field, ""))
+            mine = problem is not None and f"[session], {row.field}:" in problem
+            message = row.query_one(".field-message", Static)
+            message.update(problem if mine else "")
+            message.set_class(mine, "-error")
+            row.input.set_class(mine, "-invalid")
+        general = (
+            problem if problem and not any(f"[session], {r.field}:" in problem for r in self.query(FieldRow)) else ""
+        )
+        self.query_one("#session-message", Static).update(general or "")
+
+    @on(Input.Changed)
+    def _changed(self, event: Input.Changed) -> None:
+        event.stop()
+        field = event.input.field if isinstance(event.input, Field) else None
+        if field is None:
+            return
+        value = event.input.value
+        if getattr(self, "_values", {}).get(field, "") == value:
+            return
+        self.post_message(
+            EditRequested(lambda doc: doc.set_session(field, value), f"[session] {field}", field=f"session:{field}")
+        )
