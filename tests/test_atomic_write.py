@@ -4,9 +4,9 @@ import os
 
 import pytest
 
+from oddsbench.model import atomic_write
+from oddsbench.model.atomic_write import write_atomically
 from oddsbench.model.errors import OddsbenchError
-from oddsbench.report import atomic_write
-from oddsbench.report.atomic_write import write_atomically
 
 
 def test_writes_the_whole_text(tmp_path):

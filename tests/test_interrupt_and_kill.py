@@ -1,7 +1,7 @@
 """Stopping the program never costs a user's work: Ctrl-C ends a long solve with exit 130 and
 one line, and a process killed in the middle of saving leaves the old file whole.
 
-The command line's writers all go through ``oddsbench/report/atomic_write.py``; the kill tests
+The command line's writers all go through ``oddsbench/model/atomic_write.py``; the kill tests
 drive ``oddsbench report --output`` in a subprocess that stops itself at the moment of writing
 (its ``os.fsync`` or ``os.replace`` waits to be killed), then SIGKILL it there.
 """

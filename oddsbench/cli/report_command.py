@@ -49,8 +49,8 @@ def chosen_format(requested: str | None, output: str | None) -> str:
 
 
 def run(args: argparse.Namespace) -> int:
+    from oddsbench.model.atomic_write import write_atomically
     from oddsbench.model.load import load_ruleset
-    from oddsbench.report.atomic_write import write_atomically
     from oddsbench.report.document import build_report
     from oddsbench.report.render_csv import render_csv
     from oddsbench.report.render_json import render_json

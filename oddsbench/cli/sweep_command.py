@@ -49,8 +49,8 @@ def run(args: argparse.Namespace) -> int:
 
     from rich.console import Console
 
+    from oddsbench.model.atomic_write import write_atomically
     from oddsbench.model.errors import OddsbenchError
-    from oddsbench.report.atomic_write import write_atomically
     from oddsbench.report.cautions import caution_block
     from oddsbench.report.sweep_report import render_sweep_csv, render_sweep_json, sweep_table
     from oddsbench.sweep.points import grid_points, solve_point

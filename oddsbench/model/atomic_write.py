@@ -1,8 +1,17 @@
-"""Write a file so that it is either the old content or the new, never a partial file."""
+"""The one way oddsbench writes files (reports, exports, workbench saves): whole or not at all.
+
+Without ``force`` an existing file is never clobbered.
+
+The text goes to a temporary file in the target's own folder (same file system), is flushed
+and fsynced, then moved into place in one step: ``os.replace`` when overwriting is allowed,
+``os.link`` otherwise, which fails if the target appeared meanwhile instead of replacing it.
+A reader never sees a half-written file, and a failure leaves no partial file behind.
+"""
 
 from __future__ import annotations
 
 import contextlib
+import errno
 import os
 import stat
 import tempfile
@@ -11,52 +20,81 @@ from pathlib import Path
 from oddsbench.model.errors import OddsbenchError
 
 
-def write_text_atomically(path: str | Path, content: str) -> None:
-    """A temporary file in the same folder, flushed to disk, then renamed over the target.
+def _mode_for(target: Path) -> int:
+    """The target's own permission bits when it exists (a save keeps them), else the umask default."""
+    try:
+        return stat.S_IMODE(target.stat().st_mode)
+    except OSError:
+        mask = os.umask(0)
+        os.umask(mask)
+        return 0o666 & ~mask
 
-    The rename is atomic on one file system, so a crash or a full disk leaves the old file
-    whole. The target keeps its permission bits; a failure is one OddsbenchError line.
-    """
-    path = Path(path)
-    folder = path.parent if str(path.parent) else Path(".")
+
+def write_atomically(path: str | Path, content: str | bytes, force: bool = False) -> Path:
+    """Write ``content`` to ``path``; refuse an existing file unless ``force``. Returns the path."""
+    target = Path(path)
+    folder = target.parent if str(target.parent) else Path(".")
+    if not folder.is_dir():
+        raise OddsbenchError(f"{target}: the folder {str(folder)!r} does not exist")
+    if target.is_dir():
+        raise OddsbenchError(f"{target}: is a folder, not a file")
+    if target.exists() and not force:
+        raise OddsbenchError(f"{target}: already exists and was not overwritten (add --force to replace it)")
+    data = content.encode("utf-8") if isinstance(content, str) else content
+    mode = _mode_for(target)
     try:
-        mode = stat.S_IMODE(path.stat().st_mode)
-    except FileNotFoundError:
-        mode = None
+        handle = tempfile.NamedTemporaryFile(dir=folder, prefix=f".{target.name}.", suffix=".tmp", delete=False)
     except OSError as error:
-        raise OddsbenchError(f"{path}: cannot be saved: {error.strerror or error}") from None
+        raise OddsbenchError(f"{target}: cannot write in {str(folder)!r}: {error.strerror or error}") from None
+    temporary = Path(handle.name)
     try:
-        handle, temporary = tempfile.mkstemp(prefix=f".{path.name}.", suffix=".tmp", dir=folder)
+        with handle:
+            handle.write(data)
+            handle.flush()
+            os.fsync(handle.fileno())
+        os.chmod(temporary, mode)
+        _move_into_place(temporary, target, force)
     except OSError as error:
-        raise OddsbenchError(f"{path}: cannot be saved: {error.strerror or error}") from None
-    try:
-        with os.fdopen(handle, "w", encoding="utf-8", newline="") as stream:
-            stream.write(content)
-            stream.flush()
-            os.fsync(stream.fileno())
-        if mode is not None:
-            os.chmod(temporary, mode)
-        else:
-            os.chmod(temporary, 0o666 & ~_umask())
-        os.replace(temporary, path)
-    except OSError as error:
-        with contextlib.suppress(OSError):
-            os.unlink(temporary)
-        raise OddsbenchError(f"{path}: cannot be saved: {error.strerror or error}") from None
+        raise OddsbenchError(f"{target}: cannot be written: {error.strerror or error}") from None
+    finally:
+        with contextlib.suppress(FileNotFoundError):
+            temporary.unlink()
     _sync_folder(folder)
+    return target
 
 
-def _umask() -> int:
-    current = os.umask(0)
-    os.umask(current)
-    return current
+def write_text_atomically(path: str | Path, content: str) -> None:
+    """Save over an existing file (the workbench's save): same guarantees, overwriting allowed."""
+    write_atomically(path, content, force=True)
+
+
+def _move_into_place(temporary: Path, target: Path, force: bool) -> None:
+    if force:
+        os.replace(temporary, target)
+        return
+    try:
+        os.link(temporary, target)
+    except FileExistsError:
+        raise OddsbenchError(f"{target}: already exists and was not overwritten (add --force to replace it)") from None
+    except OSError as error:
+        if error.errno not in (errno.EPERM, errno.ENOTSUP, errno.EXDEV, errno.EMLINK, errno.ENOSYS):
+            raise
+        if target.exists():  # file systems without hard links: check, then replace
+            raise OddsbenchError(
+                f"{target}: already exists and was not overwritten (add --force to replace it)"
+            ) from None
+        os.replace(temporary, target)
 
 
 def _sync_folder(folder: Path) -> None:
-    """Make the rename itself durable where the platform allows it."""
-    with contextlib.suppress(OSError, AttributeError):
+    """Make the rename itself durable where the platform allows opening folders."""
+    try:
         descriptor = os.open(folder, os.O_RDONLY)
-        try:
-            os.fsync(descriptor)
-        finally:
-            os.close(descriptor)
+    except OSError:
+        return
+    try:
+        os.fsync(descriptor)
+    except OSError:
+        pass
+    finally:
+        os.close(descriptor)
