@@ -22,6 +22,13 @@ class DecimalSparseLU:
             return rhs.copy()
         return self._lu.solve(rhs)
 
+    def solve_transposed(self, rhs: np.ndarray) -> np.ndarray:
+        """Solve (I - Q)^T x = rhs with the same factors (visits from a start, for distributions)."""
+        rhs = np.asarray(rhs, dtype=float)
+        if self.size == 0:
+            return rhs.copy()
+        return self._lu.solve(rhs, trans="T")
+
 
 def q_matrix_from_rows(rows: list[dict[int, float]], size: int) -> csc_matrix:
     """A sparse Q from row dicts of floats."""

@@ -75,6 +75,27 @@ class ExactSparseLU:
             x[i] = total / self.pivots[i]
         return x
 
+    def solve_transposed(self, rhs: Sequence[Rational]) -> list[Rational]:
+        """Solve A^T x = rhs with the same factors (A = L U, so A^T = U^T L^T).
+
+        One transposed solve from a unit vector gives expected visits to every transient state,
+        hence the whole distribution of where the chain is absorbed.
+        """
+        size = self.size
+        z: list[Rational] = list(rhs)
+        for i in range(size):
+            value = z[i] / self.pivots[i]
+            z[i] = value
+            if value != 0:
+                for j, u in self.upper[i]:
+                    z[j] -= u * value
+        for i in range(size - 1, -1, -1):
+            value = z[i]
+            if value != 0:
+                for k, factor in self.lower[i]:
+                    z[k] -= factor * value
+        return z
+
 
 def identity_minus(q_rows: Sequence[Row]) -> list[Row]:
     """I - Q, row by row."""

@@ -1,0 +1,168 @@
+"""One call for a whole session: a round's distribution, the session settings and a plan.
+
+This is the entry point for the CLI, the TUI and the simulation helpers:
+``analyse_session(distribution, settings, plan) -> SessionFigures``.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Callable, Mapping
+from dataclasses import dataclass, field, replace
+from typing import Any
+
+from oddsbench.chain.bankroll import BankrollGrid, build_bankroll_chain, make_grid
+from oddsbench.chain.round_distribution import RoundDistribution
+from oddsbench.model.errors import OddsbenchError
+from oddsbench.model.numbers import QQ, Rational, is_integer, text, to_float, to_int
+from oddsbench.solve.round import Figure
+from oddsbench.solve.session import DEFAULT_EXACT_LIMIT, FinalValue, solve_session
+from oddsbench.strategy.plans import Plan, parse_plan, planned_bets
+
+SETTING_NAMES = ("bankroll", "goal", "floor", "min_bet", "max_bet", "unit", "max_rounds")
+
+
+@dataclass(frozen=True)
+class SessionSettings:
+    """Money amounts are exact; ``unit`` is the betting unit (default: the minimum bet, else 1)."""
+
+    bankroll: Rational
+    goal: Rational
+    floor: Rational = QQ(0)
+    min_bet: Rational | None = None
+    max_bet: Rational | None = None
+    unit: Rational | None = None
+    max_rounds: int | None = None
+
+    def grid(self, distribution: RoundDistribution) -> BankrollGrid:
+        return make_grid(
+            distribution, self.bankroll, self.goal, self.floor, self.min_bet, self.max_bet, self.unit
+        )
+
+
+@dataclass(frozen=True)
+class SessionFigures:
+    """Every figure of one plan's session; ``goal_series[k]`` is the goal chance from bankroll k * step."""
+
+    plan: str
+    figures: dict[str, Figure]
+    final: tuple[FinalValue, ...]
+    goal_series: tuple[float, ...]
+    goal_series_exact: tuple[Rational, ...] | None
+    step: Rational
+    states: int
+    after_rounds: tuple[FinalValue, ...] = ()
+    rounds: int | None = None
+    notes: tuple[str, ...] = field(default=())
+
+    @property
+    def exact(self) -> bool:
+        return all(f.exact is not None for f in self.figures.values())
+
+    def series_bankrolls(self) -> list[Rational]:
+        return [self.step * k for k in range(len(self.goal_series))]
+
+
+def settings_from_table(table: Mapping[str, Any], source: str, base: SessionSettings | None = None) -> dict:
+    """Exact values from a ruleset's raw ``[session]`` table (one clear line per bad field)."""
+    from oddsbench.model.expr import ExpressionError, evaluate_text
+
+    values: dict[str, Any] = {}
+    for name, raw in table.items():
+        if name not in SETTING_NAMES:
+            raise OddsbenchError(f"{source}: [session], {name}: unknown setting (known: {', '.join(SETTING_NAMES)})")
+        if isinstance(raw, bool) or not isinstance(raw, (int, float, str)):
+            raise OddsbenchError(f"{source}: [session], {name}: expected a number, got {raw!r}")
+        try:
+            value = evaluate_text(raw if isinstance(raw, str) else repr(raw))
+        except ExpressionError as error:
+            raise OddsbenchError(f"{source}: [session], {name}: {error}") from None
+        if name == "max_rounds":
+            if not is_integer(value) or value < 1:
+                raise OddsbenchError(f"{source}: [session], max_rounds: expected a whole number of at least 1")
+            value = to_int(value)
+        values[name] = value
+    return values
+
+
+def merge_settings(defaults: Mapping[str, Any], overrides: Mapping[str, Any], source: str) -> SessionSettings:
+    """Command-line values over the ruleset's defaults; bankroll and goal are required."""
+    merged = {**defaults, **{k: v for k, v in overrides.items() if v is not None}}
+    for required in ("bankroll", "goal"):
+        if required not in merged:
+            raise OddsbenchError(f"{source}: session needs --{required} (or {required} in the [session] table)")
+    return SessionSettings(**merged)
+
+
+def analyse_session(
+    distribution: RoundDistribution,
+    settings: SessionSettings,
+    plan: Plan | str,
+    exact_limit: int = DEFAULT_EXACT_LIMIT,
+    rounds: int | None = None,
+    should_stop: Callable[[], bool] | None = None,
+) -> SessionFigures:
+    """Build the session chain for a plan, solve it, and add the plan's own figures."""
+    plan = parse_plan(plan) if isinstance(plan, str) else plan
+    grid = settings.grid(distribution)
+    notes: list[str] = []
+    extra: dict[str, Figure] = {}
+    if plan.kind == "best":
+        from oddsbench.strategy.bet_optimiser import optimise_bets
+
+        bold, _, _ = planned_bets(replace(plan, kind="bold"), distribution, grid)
+        bets, certificate = optimise_bets(distribution, grid, bold[0], exact_limit)
+        planned = bets[None, :]
+        import numpy as np
+
+        next_level = np.zeros((1, len(distribution.outcomes)), dtype=np.int64)
+        notes.append(certificate.note())
+        if settings.max_rounds is not None:
+            notes.append("best: bets are chosen for the session without a time cap, then evaluated with it")
+    else:
+        planned, next_level, plan_notes = planned_bets(plan, distribution, grid)
+        notes.extend(plan_notes)
+    if plan.kind == "kelly":
+        from oddsbench.strategy.kelly import kelly_bet
+
+        bet = kelly_bet(distribution, plan.amount)
+        extra["bet_fraction"] = bet.fraction
+        extra["growth_rate_bits"] = Figure(None, bet.growth_bits)
+    chain = build_bankroll_chain(distribution, grid, planned, next_level)
+    solution = solve_session(chain, settings.max_rounds, rounds, exact_limit, should_stop)
+    figures = dict(solution.figures)
+    if chain.start >= 0:
+        first = grid.unit * int(chain.bets[chain.start])
+        figures["first_bet"] = Figure(first, to_float(first))
+    figures.update(extra)
+    edge = distribution.house_edge
+    figures["house_edge"] = Figure(edge, to_float(edge))
+    _identity_note(figures, notes)
+    return SessionFigures(
+        plan=plan.spelling,
+        figures=figures,
+        final=solution.final,
+        goal_series=solution.goal_series,
+        goal_series_exact=solution.goal_series_exact,
+        step=grid.step,
+        states=chain.size,
+        after_rounds=solution.after_rounds,
+        rounds=rounds,
+        notes=tuple(notes) + solution.notes,
+    )
+
+
+def _identity_note(figures: dict[str, Figure], notes: list[str]) -> None:
+    """Optional stopping: E[final] - start = -(house edge) x E[staked]; say so if it fails."""
+    left, right = figures["expected_net"], figures["edge_times_staked"]
+    if left.exact is not None and right.exact is not None:
+        if left.exact != right.exact:
+            notes.append(
+                f"check failed: expected net {text(left.exact)} differs from -(house edge) x staked {text(right.exact)}"
+            )
+        return
+    scale = max(1.0, abs(left.decimal), abs(right.decimal))
+    if abs(left.decimal - right.decimal) > 1e-6 * scale:
+        notes.append(
+            f"check: expected net {left.decimal:.10g} and -(house edge) x staked {right.decimal:.10g} differ "
+            "by more than float rounding"
+        )
