@@ -43,3 +43,18 @@ def test_a_bad_confidence_level_exits_2(capsys):
 def test_an_unknown_strategy_exits_2_naming_the_file(capsys):
     assert main(["simulate", PASS_LINE, "--trials", "10", "--strategy", "bold"]) == 2
     assert "pass-line.toml: unknown strategy 'bold'" in capsys.readouterr().err
+
+
+def test_a_game_with_decisions_needs_a_strategy_or_a_goal(capsys, rulesets_dir):
+    assert main(["simulate", str(rulesets_dir / "pig-turn.toml"), "--trials", "10"]) == 2
+    assert "choose --strategy NAME (known: hold-at-10" in capsys.readouterr().err
+
+
+def test_the_best_play_for_a_goal_is_simulated_against_its_exact_figures(capsys, rulesets_dir):
+    pig = str(rulesets_dir / "pig-turn.toml")
+    assert main(["simulate", pig, "--trials", "50000", "--seed", "2", "--best", "max-return", "--json"]) == 0
+    body = json.loads(capsys.readouterr().out)
+    assert body["outside"] == [] and body["policy"]
+    names = {item["name"] for item in body["estimates"]}
+    # a turn of Pig stakes nothing, so there is no house edge to estimate (as in `solve`)
+    assert "house_edge" not in names and "expected_net" in names

@@ -7,10 +7,17 @@ import sys
 from collections.abc import Sequence
 
 from oddsbench import __version__
-from oddsbench.cli import check_command, report_command, simulate_command, solve_command, sweep_command
+from oddsbench.cli import (
+    best_command,
+    check_command,
+    report_command,
+    simulate_command,
+    solve_command,
+    sweep_command,
+)
 from oddsbench.model.errors import OddsbenchError, RulesetError
 
-COMMANDS = (check_command, solve_command, simulate_command, report_command, sweep_command)
+COMMANDS = (check_command, solve_command, best_command, simulate_command, report_command, sweep_command)
 EXIT_BAD_INPUT = 2
 
 
@@ -45,6 +52,13 @@ def main(argv: Sequence[str] | None = None) -> int:
     except KeyboardInterrupt:
         print("oddsbench: interrupted", file=sys.stderr)
         return 130
+    except BrokenPipeError:
+        # The reader (e.g. `head`) closed the pipe: stop quietly, as Unix tools do.
+        import os
+
+        devnull = os.open(os.devnull, os.O_WRONLY)
+        os.dup2(devnull, sys.stdout.fileno())
+        return 141
 
 
 def _no_command(parser: argparse.ArgumentParser) -> int:

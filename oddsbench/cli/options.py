@@ -25,6 +25,18 @@ def non_negative_int(text: str) -> int:
     return value
 
 
+def add_max_states(parser: argparse.ArgumentParser) -> None:
+    from oddsbench.model.limits import DEFAULT_MAX_STATES
+
+    parser.add_argument(
+        "--max-states",
+        type=positive_int,
+        default=DEFAULT_MAX_STATES,
+        metavar="STATES",
+        help=f"refuse rulesets and chains with more states than this (default {DEFAULT_MAX_STATES:,})",
+    )
+
+
 def add_exact_limit(parser: argparse.ArgumentParser, default: int) -> None:
     parser.add_argument(
         "--exact-limit",

@@ -5,7 +5,8 @@ from __future__ import annotations
 import argparse
 import json
 
-from oddsbench.cli.options import add_exact_limit, positive_int
+from oddsbench.cli.best_command import GOAL_NAMES
+from oddsbench.cli.options import add_exact_limit, add_max_states, positive_int
 
 DEFAULT_EXACT_LIMIT = 5_000
 DEFAULT_TRIALS = 1_000_000
@@ -58,7 +59,15 @@ def register(commands) -> None:
         metavar="LEVEL",
         help="confidence level of the intervals (default 0.99)",
     )
-    parser.add_argument("--strategy", metavar="NAME", help="play the file's named strategy")
+    play = parser.add_mutually_exclusive_group()
+    play.add_argument("--strategy", metavar="NAME", help="play the file's named strategy")
+    play.add_argument(
+        "--best",
+        metavar="GOAL",
+        choices=GOAL_NAMES,
+        help="play the best play for a goal, as `oddsbench best` finds it (" + ", ".join(GOAL_NAMES) + ")",
+    )
+    parser.add_argument("--from", dest="start", metavar="STATE", help="start the round in STATE instead")
     parser.add_argument(
         "--max-steps",
         type=positive_int,
@@ -68,7 +77,28 @@ def register(commands) -> None:
     )
     parser.add_argument("--json", action="store_true", help="print one JSON object")
     add_exact_limit(parser, DEFAULT_EXACT_LIMIT)
+    add_max_states(parser)
     parser.set_defaults(run=run)
+
+
+def round_play(ruleset, args: argparse.Namespace) -> tuple[dict[str, str], str | None]:
+    """The policy to play and its label: a named strategy, the best play for a goal, or none."""
+    from oddsbench.model.errors import OddsbenchError
+    from oddsbench.strategy.compare import named_strategy, strategy_policy
+
+    if args.strategy is not None:
+        return strategy_policy(ruleset, named_strategy(ruleset, args.strategy)), args.strategy
+    if args.best is not None:
+        from oddsbench.strategy.best_policy import best_policy
+
+        best = best_policy(ruleset, args.best, args.exact_limit)
+        return dict(best.policy), f"best for {args.best}"
+    if ruleset.has_decisions:
+        known = ", ".join(s.name for s in ruleset.strategies) or "none defined"
+        raise OddsbenchError(
+            f"{ruleset.source}: has decision states: choose --strategy NAME (known: {known}) or --best GOAL"
+        )
+    return {}, None
 
 
 def run(args: argparse.Namespace) -> int:
@@ -80,10 +110,11 @@ def run(args: argparse.Namespace) -> int:
     from oddsbench.simulate.checks import round_checks
     from oddsbench.simulate.round_sim import simulate_round
     from oddsbench.solve.round import solve_round
-    from oddsbench.strategy.policy import policy_for
+    from oddsbench.strategy.compare import starting_at
 
-    ruleset = load_ruleset(args.file)
-    chain = build_round_chain(ruleset, policy_for(ruleset, args.strategy))
+    ruleset = starting_at(load_ruleset(args.file), args.start)
+    policy, play = round_play(ruleset, args)
+    chain = build_round_chain(ruleset, policy, args.max_states)
     seed = args.seed if args.seed is not None else int(np.random.SeedSequence().entropy % (1 << 63))
     sample = simulate_round(chain, args.trials, seed, max_steps=args.max_steps)
     figures = solve_round(chain, exact_limit=args.exact_limit)
@@ -91,5 +122,5 @@ def run(args: argparse.Namespace) -> int:
     if args.json:
         print(json.dumps(simulation_json(sample, checks, args.confidence, figures.notes), indent=2))
     else:
-        print(simulation_text(sample, checks, args.confidence, args.strategy, figures.notes))
+        print(simulation_text(sample, checks, args.confidence, play, figures.notes))
     return 0

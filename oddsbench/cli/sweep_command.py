@@ -8,6 +8,7 @@ import sys
 from oddsbench.cli.options import positive_int
 
 DEFAULT_SHOWN = 200
+QUICK_SECONDS = 2.0
 
 
 def register(commands) -> None:
@@ -22,7 +23,11 @@ def register(commands) -> None:
     parser.add_argument("spec", help="sweep spec file (TOML)")
     parser.add_argument("--cluster", metavar="ADDRESS", help="Dask scheduler to run on, such as tcp://10.0.0.5:8786")
     parser.add_argument(
-        "--workers", type=positive_int, metavar="N", help="local processes (default: one per core; 1 = this process)"
+        "--workers",
+        type=positive_int,
+        metavar="N",
+        help="local processes (default: one per core, or this process alone when the first point shows "
+        "the whole sweep takes under 2 s; 1 = this process)",
     )
     parser.add_argument("--csv", metavar="PATH", help="write one row per point to this CSV file")
     parser.add_argument("--json", metavar="PATH", help="write every point to this JSON file")
@@ -39,6 +44,7 @@ def register(commands) -> None:
 
 
 def run(args: argparse.Namespace) -> int:
+    import time
     from pathlib import Path
 
     from rich.console import Console
@@ -54,8 +60,13 @@ def run(args: argparse.Namespace) -> int:
     for target in (args.csv, args.json):
         if target and Path(target).exists() and not args.force:
             raise OddsbenchError(f"{target}: already exists and was not overwritten (add --force to replace it)")
-    first = grid_points(spec)[0]
+    points = grid_points(spec)
+    first = points[0]
     trial = solve_point(spec.ruleset_text, spec.ruleset_path.name, spec.exact_limit, first)
+    began = time.perf_counter()  # timed on the last point, after the first has warmed everything up
+    solve_point(spec.ruleset_text, spec.ruleset_path.name, spec.exact_limit, points[-1])
+    if args.workers is None and args.cluster is None and (time.perf_counter() - began) * spec.size < QUICK_SECONDS:
+        args.workers = 1  # starting processes would cost more than the whole sweep
     if trial.error is not None:
         raise OddsbenchError(f"{spec.source}: point 0 ({_settings(first)}): {trial.error}")
     known = [name for name, _, _ in trial.figures]

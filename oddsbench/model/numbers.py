@@ -12,7 +12,7 @@ from sympy.polys.domains import QQ, ZZ
 
 Rational = Any  # an element of QQ (flint.fmpq or sympy's PythonMPQ, depending on ground types)
 
-__all__ = ["QQ", "ZZ", "Rational", "bit_size", "is_integer", "to_int", "to_float", "text", "parse_fraction"]
+__all__ = ["QQ", "ZZ", "Rational", "bit_size", "int_text", "is_integer", "to_int", "to_float", "text", "parse_fraction"]
 
 
 def numerator(value: Rational) -> int:
@@ -44,16 +44,34 @@ def to_float(value: Rational) -> float:
         return float("inf") if value > 0 else float("-inf")
 
 
+def int_text(value: int) -> str:
+    """Decimal digits of any integer. Python refuses ``str`` of ints over 4,300 digits (a guard
+    against slow conversion); FLINT's conversion is fast and has no such limit."""
+    if -(10**4000) < value < 10**4000:
+        return str(value)
+    from flint import fmpz
+
+    return str(fmpz(value))
+
+
 def text(value: Rational) -> str:
     """Exact text: ``7/495``, ``-1``, ``0``."""
     p, q = numerator(value), denominator(value)
-    return str(p) if q == 1 else f"{p}/{q}"
+    return int_text(p) if q == 1 else f"{int_text(p)}/{int_text(q)}"
 
 
 def parse_fraction(value: str) -> Rational:
     """Inverse of ``text`` for trusted machine output (integers and a/b only)."""
     top, _, bottom = value.partition("/")
-    return QQ(int(top), int(bottom or "1"))
+    return QQ(_int_from_text(top), _int_from_text(bottom or "1"))
+
+
+def _int_from_text(digits: str) -> int:
+    if len(digits) < 4000:
+        return int(digits)
+    from flint import fmpz
+
+    return int(fmpz(digits.strip()))
 
 
 def from_int(value: int) -> Rational:

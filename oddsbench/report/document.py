@@ -13,7 +13,7 @@ from oddsbench.model.ruleset import Ruleset
 from oddsbench.report.cautions import CAUTIONS
 from oddsbench.report.method_sources import ROUND_SOURCES, MethodSource
 from oddsbench.solve.round import RoundFigures, solve_round
-from oddsbench.strategy.policy import policy_for
+from oddsbench.strategy.compare import named_strategy, strategy_policy
 
 
 @dataclass(frozen=True)
@@ -54,7 +54,7 @@ def round_sections(
             names = [None]
     sections = []
     for name in names:
-        policy = policy_for(ruleset, name) if name is not None else {}
+        policy = strategy_policy(ruleset, named_strategy(ruleset, name)) if name is not None else {}
         figures = solve_round(build_round_chain(ruleset, policy), rounds=rounds, exact_limit=exact_limit)
         sections.append(RoundSection(name, policy, figures))
     return tuple(sections)

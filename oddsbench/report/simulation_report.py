@@ -84,7 +84,7 @@ def simulation_text(
 ) -> str:
     """The human output of ``oddsbench simulate`` for rounds; ``solver_notes`` from the exact side."""
     heading = f"{sample.title}: {sample.trials:,} simulated rounds from {sample.start!r}, seed {sample.seed}" + (
-        f", strategy {strategy!r}" if strategy else ""
+        f", playing {strategy!r}" if strategy else ""
     )
     speed = (
         f"{sample.seconds:.2f} s, {sample.rounds_per_second:,.0f} rounds/s, "

@@ -39,12 +39,13 @@ def round_estimates(
         return rows
     rows.append(("expected_net", net.mean, normal_interval(net.mean, net.mean_error, confidence), NORMAL))
     rows.append(("expected_staked", staked.mean, normal_interval(staked.mean, staked.mean_error, confidence), NORMAL))
-    edge, edge_error = _ratio(
-        -net.mean, staked.mean, net.variance, staked.variance, -sample.net_staked.covariance, net.count
-    )
-    edge_interval = normal_interval(edge, edge_error, confidence)
-    rows.append(("house_edge", edge, edge_interval, NORMAL))
-    rows.append(("return_to_player", 1 - edge, Interval(1 - edge_interval.high, 1 - edge_interval.low), NORMAL))
+    if staked.mean != 0:  # a round that stakes nothing has no house edge (as in solve.round)
+        edge, edge_error = _ratio(
+            -net.mean, staked.mean, net.variance, staked.variance, -sample.net_staked.covariance, net.count
+        )
+        edge_interval = normal_interval(edge, edge_error, confidence)
+        rows.append(("house_edge", edge, edge_interval, NORMAL))
+        rows.append(("return_to_player", 1 - edge, Interval(1 - edge_interval.high, 1 - edge_interval.low), NORMAL))
     rows.append(("net_variance", net.variance, normal_interval(net.variance, net.variance_error, confidence), NORMAL))
     rows.append(("expected_steps", steps.mean, normal_interval(steps.mean, steps.mean_error, confidence), NORMAL))
     rows.append(

@@ -34,6 +34,9 @@ FIGURE_ORDER = (
 )
 
 
+STAKE_RATIOS = frozenset({"house_edge", "return_to_player"})
+
+
 @dataclass(frozen=True)
 class Figure:
     """One quantity: the exact rational (None where exact arithmetic was skipped) and its decimal."""
@@ -175,21 +178,32 @@ def _figures(chain: RoundChain, exact: _Moments | None, decimal: _Moments, notes
         "expected_steps": decimal.steps,
         "steps_variance": decimal.steps_second - decimal.steps**2,
     }
-    values_decimal["house_edge"] = -values_decimal["expected_net"] / values_decimal["expected_staked"]
-    values_decimal["return_to_player"] = 1 - values_decimal["house_edge"]
+    if exact is not None:
+        nothing_staked = stake_exact + exact.staked_extra == 0
+    else:
+        nothing_staked = stake + float(decimal.staked_extra) == 0.0
+    order = FIGURE_ORDER
+    if nothing_staked:
+        # A game of points with no wager (a turn at Pig): a house edge would divide by zero.
+        order = tuple(name for name in FIGURE_ORDER if name not in STAKE_RATIOS)
+        notes.append("nothing is staked in this round: house edge and return to player do not apply")
+    else:
+        values_decimal["house_edge"] = -values_decimal["expected_net"] / values_decimal["expected_staked"]
+        values_decimal["return_to_player"] = 1 - values_decimal["house_edge"]
     values_exact: dict[str, Rational | None] = dict.fromkeys(FIGURE_ORDER)
     if exact is not None:
         staked = stake_exact + exact.staked_extra
         values_exact = {
             "expected_net": exact.net,
             "expected_staked": staked,
-            "house_edge": -exact.net / staked,
-            "return_to_player": 1 + exact.net / staked,
             "net_variance": exact.net_second - exact.net**2,
             "expected_steps": exact.steps,
             "steps_variance": exact.steps_second - exact.steps**2,
         }
-    figures = {name: _checked(name, values_exact[name], values_decimal[name], notes) for name in FIGURE_ORDER}
+        if not nothing_staked:
+            values_exact["house_edge"] = -exact.net / staked
+            values_exact["return_to_player"] = 1 + exact.net / staked
+    figures = {name: _checked(name, values_exact[name], values_decimal[name], notes) for name in order}
     ends = {
         name: _checked(f"end_probability[{name}]", exact.end[j] if exact else None, decimal.end[j], notes)
         for j, name in enumerate(chain.ends)

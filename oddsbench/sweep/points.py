@@ -75,12 +75,13 @@ def solve_point(ruleset_text: str, source: str, exact_limit: int, point: Point) 
     from oddsbench.chain.round_chain import build_round_chain
     from oddsbench.model.load import load_ruleset_text
     from oddsbench.solve.round import solve_round
-    from oddsbench.strategy.policy import policy_for
+    from oddsbench.strategy.compare import named_strategy, strategy_policy
 
     try:
         overrides = {name: parse_fraction(value) for name, value in point.params}
         ruleset = load_ruleset_text(ruleset_text, source, overrides)
-        chain = build_round_chain(ruleset, policy_for(ruleset, point.strategy))
+        policy = strategy_policy(ruleset, named_strategy(ruleset, point.strategy)) if point.strategy else {}
+        chain = build_round_chain(ruleset, policy)
         figures = solve_round(chain, exact_limit=exact_limit)
     except RulesetError as error:
         return PointResult(point.index, error="; ".join(str(p) for p in error.errors or error.problems))

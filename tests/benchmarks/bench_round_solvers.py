@@ -20,7 +20,7 @@ import numpy as np
 
 import oddsbench  # noqa: F401  (sets FLINT ground types before sympy loads)
 from oddsbench.model.numbers import QQ, to_float
-from oddsbench.solve.decimal_linear import DecimalSparseLU, q_matrix_from_rows
+from oddsbench.solve.decimal_linear import DecimalSparseLU
 from oddsbench.solve.exact_linear import ExactSparseLU, identity_minus, solve_with_domain_matrix
 
 P = QQ(18, 37)
