@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import argparse
+import os
 import sys
 from collections.abc import Sequence
 
@@ -10,6 +11,7 @@ from oddsbench import __version__
 from oddsbench.cli import (
     best_command,
     check_command,
+    open_command,
     report_command,
     simulate_command,
     solve_command,
@@ -17,8 +19,11 @@ from oddsbench.cli import (
 )
 from oddsbench.model.errors import OddsbenchError, RulesetError
 
-COMMANDS = (check_command, solve_command, best_command, simulate_command, report_command, sweep_command)
+COMMANDS = (check_command, solve_command, best_command, simulate_command, report_command, sweep_command, open_command)
 EXIT_BAD_INPUT = 2
+EXIT_INTERNAL = 70
+EXIT_INTERRUPTED = 130
+EXIT_BROKEN_PIPE = 141
 
 
 def build_parser() -> argparse.ArgumentParser:
@@ -36,11 +41,14 @@ def build_parser() -> argparse.ArgumentParser:
 
 
 def main(argv: Sequence[str] | None = None) -> int:
+    for stream in (sys.stdout, sys.stderr):
+        if hasattr(stream, "reconfigure"):
+            stream.reconfigure(errors="backslashreplace")  # odd names never crash the output
     parser = build_parser()
     args = parser.parse_args(argv)
-    if args.command is None:
-        return _no_command(parser)
     try:
+        if args.command is None:
+            return open_command.run_workbench(None)
         return int(args.run(args) or 0)
     except RulesetError as error:
         for problem in error.problems:
@@ -51,19 +59,25 @@ def main(argv: Sequence[str] | None = None) -> int:
         return EXIT_BAD_INPUT
     except KeyboardInterrupt:
         print("oddsbench: interrupted", file=sys.stderr)
-        return 130
+        return EXIT_INTERRUPTED
     except BrokenPipeError:
-        # The reader (e.g. `head`) closed the pipe: stop quietly, as Unix tools do.
-        import os
-
+        # The reader went away (``| head``): stop quietly, and keep Python's exit flush quiet too.
         devnull = os.open(os.devnull, os.O_WRONLY)
         os.dup2(devnull, sys.stdout.fileno())
-        return 141
-
-
-def _no_command(parser: argparse.ArgumentParser) -> int:
-    parser.print_help()
-    return 0
+        return EXIT_BROKEN_PIPE
+    except MemoryError:
+        print("oddsbench: out of memory: lower --exact-limit or --max-states", file=sys.stderr)
+        return EXIT_BAD_INPUT
+    except Exception as error:  # the last line of defence: one line, never a traceback
+        if os.environ.get("ODDSBENCH_DEBUG"):
+            raise
+        message = " ".join(str(error).split())[:300]
+        print(
+            f"oddsbench: internal error: {type(error).__name__}: {message} "
+            "(a bug: please report it; set ODDSBENCH_DEBUG=1 for the details)",
+            file=sys.stderr,
+        )
+        return EXIT_INTERNAL
 
 
 def entry() -> None:

@@ -5,7 +5,7 @@ from __future__ import annotations
 import argparse
 import json
 
-from oddsbench.cli.options import add_exact_limit, add_max_states, positive_int
+from oddsbench.cli.options import add_exact_bits, add_exact_limit, add_max_states, positive_int
 
 DEFAULT_EXACT_LIMIT = 5_000
 
@@ -47,17 +47,18 @@ def register(commands) -> None:
     )
     add_exact_limit(parser, DEFAULT_EXACT_LIMIT)
     add_max_states(parser)
+    add_exact_bits(parser)
     parser.set_defaults(run=run)
 
 
 def run(args: argparse.Namespace) -> int:
     from oddsbench.chain.round_chain import build_round_chain
-    from oddsbench.model.load import load_ruleset
+    from oddsbench.cli.options import load_with_warnings
     from oddsbench.report.round_report import round_json, round_text
     from oddsbench.solve.round import solve_round
     from oddsbench.strategy.compare import named_strategy, starting_at, strategy_policy
 
-    ruleset = load_ruleset(args.file)
+    ruleset = load_with_warnings(args.file)
     if args.start is not None and ("," in args.start or any(char in args.start for char in "*?[")):
         return _from_each(ruleset, args)
     ruleset = starting_at(ruleset, args.start)
@@ -67,7 +68,7 @@ def run(args: argparse.Namespace) -> int:
     if args.strategy is not None:
         policy = strategy_policy(ruleset, named_strategy(ruleset, args.strategy))
     chain = build_round_chain(ruleset, policy, args.max_states)
-    figures = solve_round(chain, rounds=args.rounds, exact_limit=args.exact_limit)
+    figures = solve_round(chain, rounds=args.rounds, exact_limit=args.exact_limit, exact_bits=args.exact_bits)
     if args.json:
         print(json.dumps(round_json(figures, ruleset.title), indent=2))
     else:

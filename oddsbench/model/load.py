@@ -219,6 +219,7 @@ class _Reader:
         self.source = source
         self.problems = problems
         self.params: dict[str, Rational] = {}
+        self.failed_params: set[str] = set()
         self.members: dict[str, FamilyMember] = {}
         self.overrides = dict(overrides or {})
 
@@ -250,7 +251,12 @@ class _Reader:
             self.error(where, f"must be a number or an expression in quotes, not {type_name(raw)}")
             return None
         try:
-            return evaluate(parse(raw), self.params if env is None else env)
+            tree = parse(raw)
+            broken = sorted(names_in(tree) & self.failed_params)
+            if broken:
+                self.error(where, f"uses parameter {shown_name(broken[0])}, which has an error")
+                return None
+            return evaluate(tree, self.params if env is None else env)
         except ExpressionError as error:
             self.error(where, str(error))
             return None
@@ -331,7 +337,9 @@ class _Reader:
                 self.params[name] = self.overrides[name]
                 continue
             result = self.value(value, where)
-            if result is not None:
+            if result is None:
+                self.failed_params.add(name)
+            else:
                 self.params[name] = result
         for name in self.overrides:
             if name not in raw:

@@ -54,6 +54,18 @@ def int_text(value: int) -> str:
     return str(fmpz(value))
 
 
+def log10_abs(value: Rational) -> float:
+    """log10 |value| (value not 0) from the integers, so it works far outside the float range."""
+    return _log10_int(abs(numerator(value))) - _log10_int(denominator(value))
+
+
+def _log10_int(value: int) -> float:
+    import math
+
+    shift = max(value.bit_length() - 64, 0)
+    return math.log10(value >> shift) + shift * math.log10(2)
+
+
 def text(value: Rational) -> str:
     """Exact text: ``7/495``, ``-1``, ``0``."""
     p, q = numerator(value), denominator(value)
