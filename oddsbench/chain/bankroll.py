@@ -5,7 +5,8 @@ steps, where ``scale`` is the common denominator of the round's net results, so 
 units moves the bankroll by ``net * scale * c`` whole steps for every outcome: payouts such as
 3 to 2 or 6 to 5 need no rounding. Transient states are the bankroll values strictly between
 the floor and the goal that can still cover the minimum bet, once per plan level; they form one
-contiguous run ``low .. goal - 1``, so a state's index is ``level * width + (value - low)``.
+contiguous run ``low .. goal - 1``, so a state's index is ``(value - low) * levels + level``
+(value-major, which keeps the system banded for the sparse LU).
 Everything else a round can reach is absorbing: at or past the goal, at or below a stop-loss
 floor, or short of the minimum bet (ruin). Construction is vectorised with numpy so a chain of
 10^6 states builds in well under a second; exact rows are produced only on request.
@@ -82,7 +83,8 @@ def make_grid(
 ) -> BankrollGrid:
     """Check the money amounts and express them in grid steps (one clear line per problem)."""
     floor = QQ(0) if floor is None else floor
-    unit = unit if unit is not None else (min_bet if min_bet is not None else QQ(1))
+    if unit is None:
+        unit = QQ(1) if min_bet is None or is_integer(min_bet) else min_bet
     if unit <= 0:
         raise OddsbenchError(f"betting unit must be more than 0, got {text(unit)}")
     min_bet = min_bet if min_bet is not None else unit
@@ -159,7 +161,7 @@ class BankrollChain:
         """Start state: transient index, or ``-1 - absorbing index`` when the session cannot start."""
         grid = self.grid
         if grid.low <= grid.start < grid.goal:
-            return grid.start - grid.low
+            return (grid.start - grid.low) * self.levels
         where = np.searchsorted(self.absorbing_values, grid.start)
         return -1 - int(where)
 
@@ -227,14 +229,14 @@ def build_bankroll_chain(
     if grid.max_bet is not None:
         cap = np.minimum(cap, grid.max_bet)
     bets = np.clip(np.asarray(planned, dtype=np.int64).reshape(levels, width), grid.min_bet, None)
-    bets = np.minimum(bets, cap[None, :]).reshape(-1)
-    values = np.tile(values_one, levels)
-    level_of = np.repeat(np.arange(levels, dtype=np.int64), width)
+    bets = np.minimum(bets, cap[None, :]).T.reshape(-1)
+    values = np.repeat(values_one, levels)
+    level_of = np.tile(np.arange(levels, dtype=np.int64), width)
     steps = np.array([to_int(o.net * grid.scale) for o in distribution.outcomes], dtype=np.int64)
     landing = values[:, None] + bets[:, None] * steps[None, :]
     inside = (landing >= low) & (landing < grid.goal)
     nxt = np.asarray(next_level, dtype=np.int64)[level_of]
-    target = np.where(inside, nxt * width + (landing - low), 0)
+    target = np.where(inside, (landing - low) * levels + nxt, 0)
     outside_values = np.unique(landing[~inside])
     if low <= grid.start < grid.goal:
         starts = outside_values

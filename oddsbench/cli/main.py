@@ -13,13 +13,23 @@ from oddsbench.cli import (
     check_command,
     open_command,
     report_command,
+    session_command,
     simulate_command,
     solve_command,
     sweep_command,
 )
 from oddsbench.model.errors import OddsbenchError, RulesetError
 
-COMMANDS = (check_command, solve_command, best_command, simulate_command, report_command, sweep_command, open_command)
+COMMANDS = (
+    check_command,
+    solve_command,
+    session_command,
+    best_command,
+    simulate_command,
+    report_command,
+    sweep_command,
+    open_command,
+)
 EXIT_BAD_INPUT = 2
 EXIT_INTERNAL = 70
 EXIT_INTERRUPTED = 130
@@ -81,4 +91,9 @@ def main(argv: Sequence[str] | None = None) -> int:
 
 
 def entry() -> None:
-    sys.exit(main())
+    try:
+        code = main()
+    except KeyboardInterrupt:  # Ctrl-C before a command started (while parsing or importing)
+        print("oddsbench: interrupted", file=sys.stderr)
+        code = EXIT_INTERRUPTED
+    sys.exit(code)

@@ -32,6 +32,7 @@ from oddsbench.model.numbers import Rational, is_integer, text, to_int
 MAX_FAMILY_STATES = 100_000
 MAX_FAMILY_OUTCOMES = 1_000_000
 MAX_INDEX_VARIABLES = 8
+MAX_FAMILY_COMBINATIONS = 2_000_000  # index values tried, kept or not: a filter cannot hide a hang
 
 FAMILY_KEYS = frozenset({"state", "index", "let", "when", "outcomes", "choices", "result", "about"})
 FAMILY_OUTCOME_KEYS = frozenset({"to", "prob", "pay", "stake", "note", "when", "each", "let"})
@@ -42,6 +43,10 @@ _RESERVED_NAMES = frozenset({"if", "then", "else", "and", "or", "not", "min", "m
 
 class FamilyError(Exception):
     """One failure inside a family; the message already names the family and index values."""
+
+
+class _TooManyCombinations(FamilyError):
+    """The combination budget ran out; re-raised with the family's name by the caller."""
 
 
 @dataclass(frozen=True)
@@ -200,11 +205,21 @@ def _with_lets(env: dict[str, Rational], lets: list[tuple[str, Node]]) -> dict[s
     return env
 
 
-def _combinations(ranges: list[_Range], env: dict[str, Rational]) -> Iterator[dict[str, Rational]]:
-    """Every assignment of the index variables, the later ranges free to use the earlier values."""
+def _combinations(
+    ranges: list[_Range], env: dict[str, Rational], tried: list[int] | None = None
+) -> Iterator[dict[str, Rational]]:
+    """Every assignment of the index variables, the later ranges free to use the earlier values.
+    ``tried`` counts down the combinations left in the whole expansion (``when`` filters can
+    discard every one, so the count of members alone does not bound the time)."""
     from oddsbench.model.numbers import QQ
 
     if not ranges:
+        if tried is not None:
+            tried[0] -= 1
+            if tried[0] < 0:
+                raise _TooManyCombinations(
+                    f"index ranges give more than {MAX_FAMILY_COMBINATIONS:,} combinations to try (the limit)"
+                )
         yield dict(env)
         return
     first, rest = ranges[0], ranges[1:]
@@ -213,7 +228,21 @@ def _combinations(ranges: list[_Range], env: dict[str, Rational]) -> Iterator[di
     for value in range(low, high + 1):
         inner = dict(env)
         inner[first.name] = QQ(value)
-        yield from _combinations(rest, inner)
+        yield from _combinations(rest, inner, tried)
+
+
+def _fixed_count(ranges: list[_Range], params: Mapping[str, Rational]) -> int | None:
+    """How many combinations the ranges give, when no range depends on another (else None):
+    a hopeless expansion is refused at once, with its size, instead of after the budget runs out."""
+    count = 1
+    for item in ranges:
+        try:
+            low = _whole(item.low, params, "low end")
+            high = _whole(item.high, params, "high end")
+        except ExpressionError:
+            return None
+        count *= max(high - low + 1, 0)
+    return count
 
 
 def _where(env: Mapping[str, Rational], names: list[str]) -> str:
@@ -251,8 +280,8 @@ class _Outcome:
         self.values = {key: _value_node(raw[key], f"{where}, {key}") for key in ("prob", "pay", "stake") if key in raw}
         self.where = where
 
-    def render(self, env: dict[str, Rational]) -> Iterator[dict[str, Any]]:
-        for inner in _combinations(self.each, env):
+    def render(self, env: dict[str, Rational], tried: list[int] | None = None) -> Iterator[dict[str, Any]]:
+        for inner in _combinations(self.each, env, tried):
             try:
                 inner = _with_lets(inner, self.lets)
                 if self.when is not None and evaluate(self.when, inner) == 0:
@@ -300,6 +329,7 @@ class _Family:
     def __init__(self, name: str, raw: Any, params: Mapping[str, Rational], warn, plain: bool = False) -> None:
         self.name = name
         self._current = "state"
+        self.tried = [MAX_FAMILY_COMBINATIONS]
         where = f"family {name!r}"
         if not isinstance(raw, dict):
             raise FamilyError(f"{where}: must be a table, not {_type_name(raw)}")
@@ -343,7 +373,13 @@ class _Family:
 
     def members(self, params: dict[str, Rational]) -> Iterator[tuple[dict[str, Rational], str]]:
         env: dict[str, Rational] = params
-        combinations = _combinations(self.ranges, params)
+        count = _fixed_count(self.ranges, params)
+        if count is not None and count > self.tried[0]:
+            raise FamilyError(
+                f"family {self.name!r}: index ranges give {count:,} combinations, over the limit of "
+                f"{MAX_FAMILY_COMBINATIONS:,}"
+            )
+        combinations = _combinations(self.ranges, params, self.tried)
         while True:
             try:
                 env = next(combinations)
@@ -355,6 +391,8 @@ class _Family:
                 return
             except ExpressionError as error:
                 raise FamilyError(f"family {self.name!r}{_where(env, self.variables)}: {error}") from None
+            except _TooManyCombinations as error:
+                raise FamilyError(f"family {self.name!r}: {error}") from None
             yield env, name
 
     def table(self, env: dict[str, Rational], budget: list[int]) -> dict[str, Any]:
@@ -378,7 +416,7 @@ class _Family:
                         choices[action] = listed
                 if choices:
                     table["choices"] = choices
-        except ExpressionError as error:
+        except (ExpressionError, _TooManyCombinations) as error:
             raise FamilyError(f"{where}, {self._current}: {error}") from None
         return table
 
@@ -386,7 +424,7 @@ class _Family:
         listed = []
         for outcome in outcomes:
             self._current = outcome.where.removeprefix(f"family {self.name!r}, ")
-            for table in outcome.render(env):
+            for table in outcome.render(env, self.tried):
                 budget[0] -= 1
                 if budget[0] < 0:
                     raise FamilyError(
@@ -413,9 +451,11 @@ def expand_families(
 
     states_left = MAX_FAMILY_STATES
     budget = [MAX_FAMILY_OUTCOMES]
+    tried = [MAX_FAMILY_COMBINATIONS]
     for name, body in raw.items():
         try:
             family = _Family(name, body, params, warn)
+            family.tried = tried
             found: dict[str, dict[str, Rational]] = {}
             for env, state in family.members(params):
                 if state in found:

@@ -38,6 +38,12 @@ def validate(ruleset: Ruleset) -> list[Problem]:
             if total != 1:
                 error(where, f"probabilities sum to {text(total)}, not 1")
     problems.extend(_check_strategies(ruleset))
+    for first, second in look_alike_names(ruleset.state_names):
+        warn(
+            f"state {second!r}",
+            f"looks like state {first!r} ({ascii(second)} and {ascii(first)} differ only in case, width or "
+            "the encoding of accents)",
+        )
     if any(problem.is_error for problem in problems) or not ruleset.start:
         return problems
 
@@ -55,6 +61,22 @@ def validate(ruleset: Ruleset) -> list[Problem]:
     if unreachable:
         warn("", f"unreachable from start {ruleset.start!r}: {_listing(unreachable)}")
     return problems
+
+
+def look_alike_names(names: Iterable[str]) -> list[tuple[str, str]]:
+    """Pairs of distinct names that read the same (Unicode compatibility form, case folded):
+    in a shared file, 'Won' beside 'won' or a composed beside a decomposed 'é' is a trap."""
+    import unicodedata
+
+    seen: dict[str, str] = {}
+    pairs = []
+    for name in names:
+        key = unicodedata.normalize("NFKC", name).casefold()
+        if key in seen and seen[key] != name:
+            pairs.append((seen[key], name))
+        else:
+            seen.setdefault(key, name)
+    return pairs
 
 
 def _outcome_lists(state: State) -> Iterable[tuple[str, tuple[Outcome, ...]]]:

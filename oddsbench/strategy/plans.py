@@ -139,7 +139,8 @@ def planned_bets(
     if plan.kind == "bold":
         best = distribution.best_net * grid.scale
         if best <= 0:
-            raise OddsbenchError(f"--plan {plan.spelling!r}: no outcome wins, so no bet can reach the goal")
+            notes.append(f"{plan.spelling}: no outcome wins, so no bet reaches the goal; bold play stakes everything")
+            return np.full((1, width), np.iinfo(np.int64).max // 4), stay, tuple(notes)
         need = grid.goal - values
         top, bottom = numerator(best), denominator(best)
         return np.array([-((-need * bottom) // top)]), stay, ()

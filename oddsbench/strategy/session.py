@@ -23,7 +23,7 @@ SETTING_NAMES = ("bankroll", "goal", "floor", "min_bet", "max_bet", "unit", "max
 
 @dataclass(frozen=True)
 class SessionSettings:
-    """Money amounts are exact; ``unit`` is the betting unit (default: the minimum bet, else 1)."""
+    """Money amounts are exact; ``unit`` is the betting unit (default 1, or the minimum bet when that is not whole)."""
 
     bankroll: Rational
     goal: Rational

@@ -2,10 +2,12 @@
 
 from __future__ import annotations
 
+from collections.abc import Iterable
 from pathlib import Path
 
-from textual.app import App
+from textual.app import App, SystemCommand
 from textual.binding import Binding
+from textual.screen import Screen
 
 from oddsbench.model.atomic_write import write_text_atomically
 from oddsbench.model.errors import OddsbenchError
@@ -148,6 +150,29 @@ class WorkbenchApp(App):
         self.push_screen(
             AskName("New ruleset from the template: file name", str(self.folder / "new-game.toml"), check=check), named
         )
+
+    # ----- command palette -----
+
+    def get_system_commands(self, screen: Screen) -> Iterable[SystemCommand]:
+        """The workbench's own commands first, then Textual's (theme, keys, screenshot...)."""
+        bench = self.workbench
+        commands = (
+            ("Open a ruleset", "bundled games, this folder, or a new one (Ctrl+O)", self.action_open),
+            ("New ruleset from the template", "a small commented game to start from (Ctrl+N)", self.action_new),
+            ("Save", "write the file atomically, comments kept (Ctrl+S)", bench.action_save),
+            ("Save as", "write to another path (F12)", bench.action_save_as),
+            ("Undo", "take back the last edit (Ctrl+Z)", bench.action_undo),
+            ("Redo", "make the undone edit again (Ctrl+Y)", bench.action_redo),
+            ("Edit view", "states, outcomes, setup and parameters (F2)", lambda: bench.action_view("edit")),
+            ("Round figures", "every figure of one round, exact | decimal (F3)", lambda: bench.action_view("round")),
+            ("Strategies", "named strategies side by side, best play (F4)", lambda: bench.action_view("strategies")),
+            ("Source", "the file as text (F6)", lambda: bench.action_view("source")),
+            ("Solve again", "re-run the round solve (Ctrl+R)", bench.action_resolve),
+            ("Help", "every key (F1)", self.action_help),
+        )
+        for title, help_text, callback in commands:
+            yield SystemCommand(title, help_text, callback)
+        yield from super().get_system_commands(screen)
 
     # ----- help and quitting -----
 

@@ -185,3 +185,18 @@ async def test_help_lists_the_keys(tmp_path):
         shown = "".join(str(w.render()) for w in app.screen.query("Static"))
         for words in ("Ctrl+S", "Save", "Ctrl+Z", "Undo", "Add outcome", "Rename", "F3"):
             assert words in shown
+
+
+async def test_a_refresh_while_typing_never_overwrites_newer_keystrokes(tmp_path):
+    app = app_on(copy_ruleset("pass-line.toml", tmp_path), tmp_path)
+    async with app.run_test(size=(100, 30)) as pilot:
+        await settle(pilot)
+        await go_to_state(pilot, "come-out")
+        field = app.workbench.query_one("#field-note")
+        field.focus()
+        await pilot.pause()
+        field.value = "typed ahead"  # newer than the document while its Changed message waits
+        app.workbench.refresh_document()
+        assert field.value == "typed ahead"
+        await settle(pilot)
+        assert 'note = "typed ahead"' in app.workbench.session.text

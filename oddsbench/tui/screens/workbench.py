@@ -76,6 +76,7 @@ class WorkbenchScreen(Screen):
         self.strategy: str | None = None
         self.status_note = ""
         self.entry: str | None = None
+        self.force_fields = False  # set while undo/redo/source edits put document values into fields
         self.goal = GOALS[0]
         self.strategies_result = None
         self.strategies_key: tuple | None = None
@@ -128,6 +129,8 @@ class WorkbenchScreen(Screen):
 
     def _fit_width(self, width: int) -> None:
         self.set_class(width >= WIDE, "-wide")
+        if self.is_mounted:
+            self._update_topbar()
 
     # ----- showing the document -----
 
@@ -168,18 +171,20 @@ class WorkbenchScreen(Screen):
             self.query_one(StateEditor).show(document, entry[len(STATE) :], problems)
 
     def _update_topbar(self) -> None:
+        wide = self.app.size.width >= 100
         text = Text()
-        text.append(" oddsbench ", style="bold reverse")
+        if wide:
+            text.append(" oddsbench ", style="bold reverse")
         current = self.query_one("#views", ContentSwitcher).current
         for view, label, key in VIEWS:
             style = "bold reverse" if view == current else "dim"
             text.append(f" {key.upper()} {label} ", style=style)
         path = self.session.path
         text.append(f"  {path.name if path else 'new ruleset'}")
-        if self.session.read_only and path is not None:
+        if self.session.read_only and path is not None and wide:
             text.append(" (bundled)", style="dim")
         if self.session.dirty:
-            text.append(" ● modified", style="bold yellow")
+            text.append(" ● modified" if wide else " ●", style="bold yellow")
         if self.solving:
             text.append("  solving… Esc cancels", style="bold magenta")
         elif self.status_note:
@@ -442,7 +447,7 @@ class WorkbenchScreen(Screen):
         text = event.text_area.text
         if text != self.session.text:
             self.session.replace_text(text)
-            self.refresh_document()
+            self._refresh_forced()
 
     # ----- actions -----
 
@@ -471,7 +476,7 @@ class WorkbenchScreen(Screen):
             self.notify("nothing to undo")
             return
         self.notify(f"undone: {step.label}")
-        self.refresh_document()
+        self._refresh_forced()
 
     def action_redo(self) -> None:
         step = self.session.redo()
@@ -479,7 +484,14 @@ class WorkbenchScreen(Screen):
             self.notify("nothing to redo")
             return
         self.notify(f"redone: {step.label}")
-        self.refresh_document()
+        self._refresh_forced()
+
+    def _refresh_forced(self) -> None:
+        self.force_fields = True
+        try:
+            self.refresh_document()
+        finally:
+            self.force_fields = False
 
     def action_escape(self) -> None:
         if self.solving or self.strategies_busy:

@@ -20,7 +20,10 @@ class Field(Input):
         self.cursor_blink = getattr(self.app, "cursor_blinks", True)
 
     def show(self, value: str) -> None:
-        """Put the document's value in, without disturbing the user's cursor when it is already there."""
+        """Put the document's value in. While the user types here the input leads and the document
+        follows, so a refresh never overwrites newer keystrokes; undo and redo force the value."""
+        if self.has_focus and not getattr(self.screen, "force_fields", False):
+            return
         if self.value != value:
             self.value = value
             self.cursor_position = len(value)

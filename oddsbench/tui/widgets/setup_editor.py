@@ -43,7 +43,7 @@ class SetupEditor(Vertical):
         field = event.input.field if isinstance(event.input, Field) else None
         if field is None:
             return
-        value = event.value
+        value = event.input.value
         if getattr(self, "_head", {}).get(field) == value:
             return
         self.post_message(
@@ -124,7 +124,7 @@ class ParamsEditor(Vertical):
         name = self.current
         if name is None:
             return
-        value = event.value
+        value = event.input.value
         if dict(self._params).get(name) == value:
             return
         self.post_message(EditRequested(lambda doc: doc.set_param(name, value), f"param {name}", field=f"param:{name}"))

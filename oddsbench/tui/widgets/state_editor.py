@@ -197,7 +197,7 @@ class StateEditor(Vertical):
         event.stop()
         if not isinstance(event.input, Field) or self.state is None:
             return
-        field, value, state = event.input.field, event.value, self.state
+        field, value, state = event.input.field, event.input.value, self.state
         if field == "result":
             if value == self.result:
                 return

@@ -1,0 +1,215 @@
+"""Session figures as a table with one column per plan, and as the documented JSON object."""
+
+from __future__ import annotations
+
+from typing import Any
+
+from oddsbench.chain.round_distribution import RoundDistribution
+from oddsbench.model.numbers import Rational, text, to_float
+from oddsbench.report.cautions import CAUTIONS, caution_block
+from oddsbench.report.numbers_text import decimal_text, render_table
+from oddsbench.report.round_report import figure_json
+from oddsbench.solve.round import Figure
+from oddsbench.strategy.session import SessionFigures, SessionSettings
+
+EXACT_WIDTH = 24
+SHOWN_FINAL_VALUES = 8
+SERIES_POINTS = 11
+
+LABELS = {
+    "goal_probability": "reach the goal",
+    "ruin_probability": "ruin",
+    "floor_probability": "stop at the floor",
+    "time_cap_probability": "stopped by the time cap",
+    "expected_rounds": "expected rounds",
+    "rounds_variance": "rounds variance",
+    "expected_staked": "expected total staked",
+    "expected_final_bankroll": "expected final bankroll",
+    "expected_net": "expected final - start",
+    "edge_times_staked": "-(house edge) x staked",
+    "first_bet": "first bet",
+    "bet_fraction": "bet fraction of bankroll",
+    "growth_rate_bits": "growth rate (bits/round)",
+    "house_edge": "house edge",
+}
+WITHIN_LABELS = {
+    "within_goal_probability": "goal within N rounds",
+    "within_ruin_probability": "ruin within N rounds",
+    "within_floor_probability": "floor within N rounds",
+    "within_playing_probability": "still playing after N",
+    "within_expected_bankroll": "expected bankroll after N",
+}
+PERCENT = frozenset(
+    {"goal_probability", "ruin_probability", "floor_probability", "time_cap_probability", "house_edge"}
+    | {name for name in WITHIN_LABELS if name.endswith("probability")}
+)
+
+
+def cell(figure: Figure | None, percent: bool = False) -> str:
+    """``exact | decimal`` where an exact value exists, the decimal alone otherwise."""
+    if figure is None:
+        return "-"
+    shown = decimal_text(figure.decimal, figure.exact, percent)
+    if figure.exact is None:
+        return shown
+    return f"{compact_exact(figure.exact)} | {shown}"
+
+
+def compact_exact(value: Rational) -> str:
+    """Short exact text for table cells; long values keep their leading digits and digit counts."""
+    full = text(value)
+    if len(full) <= EXACT_WIDTH:
+        return full
+    top, _, bottom = full.lstrip("-").partition("/")
+    sign = "-" if full.startswith("-") else ""
+    if not bottom:
+        return f"{sign}{top[:6]}... ({len(top)} digits)"
+    return f"{sign}{top[:4]}.../{bottom[:4]}... ({len(top)}/{len(bottom)} digits)"
+
+
+def _label(name: str, rounds: int | None) -> str:
+    if name in WITHIN_LABELS:
+        return WITHIN_LABELS[name].replace("N", str(rounds))
+    return LABELS.get(name, name.replace("_", " "))
+
+
+def session_rows(results: list[SessionFigures]) -> list[list[str]]:
+    """Figure name | one cell per plan, for the CLI table and the TUI."""
+    names: list[str] = []
+    for result in results:
+        for name in result.figures:
+            shown = name in WITHIN_LABELS or not name.startswith("within_")
+            if shown and name not in names:
+                names.append(name)
+    rounds = next((r.rounds for r in results if r.rounds is not None), None)
+    return [[_label(name, rounds)] + [cell(r.figures.get(name), name in PERCENT) for r in results] for name in names]
+
+
+def _round_line(distribution: RoundDistribution) -> str:
+    parts = [f"{text(o.net)}:{text(o.prob)}" + (f" (+{text(o.extra)} staked)" if o.extra else "") for o in
+             distribution.outcomes]
+    return "net per unit staked : chance  " + ", ".join(parts)
+
+
+def _settings_line(settings: SessionSettings) -> str:
+    parts = [f"bankroll {text(settings.bankroll)}", f"goal {text(settings.goal)}"]
+    if settings.floor:
+        parts.append(f"floor {text(settings.floor)}")
+    if settings.min_bet is not None:
+        parts.append(f"min bet {text(settings.min_bet)}")
+    if settings.max_bet is not None:
+        parts.append(f"max bet {text(settings.max_bet)}")
+    if settings.unit is not None:
+        parts.append(f"unit {text(settings.unit)}")
+    if settings.max_rounds is not None:
+        parts.append(f"at most {settings.max_rounds:,} rounds")
+    return ", ".join(parts)
+
+
+def _final_lines(result: SessionFigures, values, title: str) -> list[str]:
+    ordered = sorted(values, key=lambda v: -v.chance.decimal)
+    shown = sorted(ordered[:SHOWN_FINAL_VALUES], key=lambda v: v.steps)
+    lines = [f"  {result.plan}: {title}"]
+    for value in shown:
+        lines.append(f"    {text(value.money):>10} ({value.kind}): {cell(value.chance, percent=True)}")
+    if len(ordered) > SHOWN_FINAL_VALUES:
+        rest = sum(v.chance.decimal for v in ordered[SHOWN_FINAL_VALUES:])
+        lines.append(f"    ... {len(ordered) - SHOWN_FINAL_VALUES:,} more values, together {decimal_text(rest)}")
+    return lines
+
+
+def series_sample(result: SessionFigures, points: int = SERIES_POINTS) -> list[tuple[Rational, float]]:
+    """A few evenly spaced points of the goal-chance series (the whole series is in the API)."""
+    size = len(result.goal_series)
+    if size == 0:
+        return []
+    picks = sorted({round(k * (size - 1) / (points - 1)) for k in range(points)})
+    return [(result.step * k, result.goal_series[k]) for k in picks]
+
+
+def session_text(
+    title: str, distribution: RoundDistribution, settings: SessionSettings, results: list[SessionFigures],
+    notes: list[str] | None = None,
+) -> str:
+    """The human output of ``oddsbench session``."""
+    heading = f"{title}: bankroll session, {_settings_line(settings)}"
+    headers = ["quantity"] + [r.plan for r in results]
+    parts = [heading, _round_line(distribution), "", render_table(headers, session_rows(results))]
+    parts += ["", "Final bankroll (most likely values):"]
+    for result in results:
+        parts += _final_lines(result, result.final, f"{result.states:,} states")
+    after = [r for r in results if r.after_rounds]
+    if after:
+        parts += ["", f"Bankroll after {after[0].rounds} rounds (most likely values):"]
+        for result in after:
+            parts += _final_lines(result, result.after_rounds, "")
+    parts += ["", "Chance of reaching the goal by starting bankroll (decimal):"]
+    sample_rows = []
+    samples = [series_sample(r) for r in results]
+    for i, (money, _) in enumerate(samples[0]):
+        sample_rows.append([text(money)] + [decimal_text(s[i][1]) if i < len(s) else "-" for s in samples])
+    parts.append(render_table(["bankroll"] + [r.plan for r in results], sample_rows))
+    all_notes = list(notes or [])
+    for result in results:
+        all_notes.extend(n for n in result.notes if n not in all_notes)
+    all_notes.append("check: optional stopping gives expected final - start = -(house edge) x expected staked")
+    parts += ["", "Notes:"] + [f"  - {note}" for note in all_notes]
+    parts += ["", caution_block()]
+    return "\n".join(parts)
+
+
+def _final_json(values) -> list[dict[str, Any]]:
+    return [
+        {"bankroll": {"exact": text(v.money), "decimal": to_float(v.money)}, "kind": v.kind,
+         "probability": figure_json(v.chance)}
+        for v in values
+    ]
+
+
+def session_json(
+    title: str, distribution: RoundDistribution, settings: SessionSettings, results: list[SessionFigures],
+    notes: list[str] | None = None, series: bool = False,
+) -> dict[str, Any]:
+    """The documented ``--json`` object of ``oddsbench session``."""
+    plans: dict[str, Any] = {}
+    for result in results:
+        body: dict[str, Any] = {name: figure_json(f) for name, f in result.figures.items()}
+        body["states"] = result.states
+        body["final_bankroll"] = _final_json(result.final)
+        if result.rounds is not None:
+            body["rounds"] = result.rounds
+            body["bankroll_after_rounds"] = _final_json(result.after_rounds)
+        if series:
+            exact = result.goal_series_exact
+            body["goal_probability_by_bankroll"] = [
+                {"bankroll": text(result.step * k), "exact": None if exact is None else text(exact[k]),
+                 "decimal": value}
+                for k, value in enumerate(result.goal_series)
+            ]
+        body["notes"] = list(result.notes)
+        plans[result.plan] = body
+    return {
+        "ruleset": title,
+        "round": [{"net": text(o.net), "probability": text(o.prob), "extra_stake": text(o.extra)}
+                  for o in distribution.outcomes],
+        "settings": {
+            "bankroll": text(settings.bankroll), "goal": text(settings.goal), "floor": text(settings.floor),
+            "min_bet": None if settings.min_bet is None else text(settings.min_bet),
+            "max_bet": None if settings.max_bet is None else text(settings.max_bet),
+            "unit": None if settings.unit is None else text(settings.unit),
+            "max_rounds": settings.max_rounds,
+        },
+        "plans": plans,
+        "notes": list(notes or []),
+        "cautions": list(CAUTIONS),
+    }
+
+
+def series_csv(results: list[SessionFigures]) -> str:
+    """bankroll, then the goal chance under each plan: one line per bankroll value (decimals)."""
+    lines = ["bankroll," + ",".join(r.plan for r in results)]
+    size = max(len(r.goal_series) for r in results)
+    step = results[0].step
+    for k in range(size):
+        lines.append(",".join([text(step * k)] + [repr(r.goal_series[k]) for r in results]))
+    return "\n".join(lines) + "\n"

@@ -1,0 +1,101 @@
+"""``oddsbench session ... --goal none`` end to end (the issue's acceptance command and its neighbours)."""
+
+from __future__ import annotations
+
+import json
+
+from conftest import RULESETS, run_cli
+
+from oddsbench.report.cautions import CAUTIONS
+
+EVEN_51 = "1:51/100,-1:49/100"
+
+
+def test_acceptance_command_prints_exact_power_decimal_bound_approximation_and_cautions(capsys):
+    code, out, err = run_cli(
+        capsys, "session", "--round", EVEN_51, "--bankroll", "20", "--goal", "none", "--plan", "flat:1"
+    )
+    assert code == 0, err
+    assert "(49/51)^20" in out and "0.44928102674559246400" in out  # (49/51)^20 to 20 digits
+    assert "Lundberg upper bound" in out and "diffusion approximation" in out
+    assert "approximation, not a bound" in out
+    assert all(caution in out for caution in CAUTIONS)
+
+
+def test_subfair_round_with_no_goal_is_certain_ruin_in_740_rounds(capsys):
+    # single-zero even-money bet: edge 1/37, ruin certain, E[rounds] = 20 / (1/37) (Wald)
+    code, out, _ = run_cli(
+        capsys, "session", "--round", "1:18/37,-1:19/37", "--bankroll", "20", "--goal", "none", "--plan", "timid"
+    )
+    assert code == 0
+    assert "Ruin is certain: probability exactly 1" in out and "740" in out
+
+
+def test_goal_none_in_the_session_table_of_a_file(capsys, tmp_path):
+    text = (RULESETS / "single-zero-wheel.toml").read_text().replace("goal = 200", 'goal = "none"')
+    path = tmp_path / "wheel-no-goal.toml"
+    path.write_text(text)
+    code, out, err = run_cli(capsys, "session", str(path), "--plan", "flat:1", "--bankroll", "20")
+    assert code == 0, err
+    assert "Ruin is certain: probability exactly 1" in out
+
+
+def test_json_of_no_goal(capsys):
+    code, out, _ = run_cli(
+        capsys, "session", "--round", EVEN_51, "--bankroll", "20", "--goal", "none", "--plan", "flat:1", "--json"
+    )
+    body = json.loads(out)
+    assert code == 0 and body["ruin"]["closed_form"] == "(49/51)^20" and body["plan"] == "flat:1"
+
+
+def test_bold_play_with_no_goal_is_refused_in_one_line(capsys):
+    code, _, err = run_cli(
+        capsys, "session", "--round", EVEN_51, "--bankroll", "20", "--goal", "none", "--plan", "bold"
+    )
+    assert code == 2 and "bet must stay bounded" in err and len(err.strip().splitlines()) == 1
+
+
+def test_digits_option_gives_more_proved_digits(capsys):
+    code, out, _ = run_cli(
+        capsys,
+        "session",
+        "--round",
+        EVEN_51,
+        "--bankroll",
+        "20",
+        "--goal",
+        "none",
+        "--plan",
+        "flat:1",
+        "--digits",
+        "40",
+    )
+    assert code == 0 and "0.4492810267455924639962977056298622755981" in out
+
+
+def test_no_goal_is_the_limit_of_bounded_sessions_as_the_goal_grows():
+    # same rules as bounded sessions (cut bets near the bottom): goal 600 is already within 1e-5
+    from oddsbench.chain.round_distribution import parse_round_text
+    from oddsbench.model.numbers import QQ
+    from oddsbench.strategy.endless_play import solve_endless_play
+    from oddsbench.strategy.session import SessionSettings, analyse_session
+
+    for spelled, bet, bankroll in (
+        ("1:51/100,-1:49/100", 2, 7),
+        ("3/2:1/2,-1:1/2", 2, 5),
+        ("2:1/5,1:2/5,-1:2/5", 3, 4),
+    ):
+        distribution = parse_round_text(spelled)
+        bounded = [
+            analyse_session(
+                distribution, SessionSettings(bankroll=QQ(bankroll), goal=QQ(goal)), f"flat:{bet}", exact_limit=0
+            )
+            .figures["ruin_probability"]
+            .decimal
+            for goal in (100, 600)
+        ]
+        endless = solve_endless_play(
+            [(o.net, o.prob) for o in distribution.outcomes], bet, bankroll, cover=distribution.cover, check=False
+        ).ruin.ruin.value
+        assert bounded[0] <= bounded[1] <= endless + 1e-12
+        assert endless - bounded[1] < 1e-5
