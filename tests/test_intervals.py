@@ -33,3 +33,9 @@ def test_normal_interval_is_symmetric_about_the_estimate():
 def test_a_zero_width_interval_contains_its_own_value():
     assert normal_interval(1.0, 0.0).contains(1.0)
     assert not normal_interval(1.0, 0.0).contains(1.001)
+
+
+def test_wilson_interval_of_no_successes_starts_at_exactly_zero():
+    # the score interval's lower end is 0 at 0 successes (Wilson 1927; arithmetic)
+    assert wilson_interval(0, 20_000, 0.99).low == 0.0
+    assert wilson_interval(20_000, 20_000, 0.99).high == 1.0

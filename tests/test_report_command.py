@@ -81,3 +81,26 @@ def test_one_named_strategy_restricts_the_report(capsys, choice_game):
     assert main(["report", str(game), "--format", "json", "--strategy", "careful"]) == 0
     body = json.loads(capsys.readouterr().out)
     assert [r["strategy"] for r in body["rounds"]] == ["careful"] and "strategies_compared" not in body
+
+
+def test_session_comparison_parses_back_from_csv_and_json(tmp_path):
+    csv_path, json_path = tmp_path / "s.csv", tmp_path / "s.json"
+    common = ["report", WHEEL, "--bankroll", "5", "--goal", "10", "--plan", "bold", "--plan", "timid"]
+    assert main(common + ["-o", str(csv_path)]) == 0
+    assert main(common + ["-o", str(json_path)]) == 0
+    rows = [row for row in csv.DictReader(io.StringIO(csv_path.read_text())) if row["section"] == "session"]
+    goal = {row["subject"]: row["exact"] for row in rows if row["quantity"] == "goal_probability"}
+    # bold play from 5 to 10 at even money is one spin: 18/37 (Dubins and Savage; arithmetic)
+    assert goal["bold"] == "18/37"
+    body = json.loads(json_path.read_text())
+    plans = {p["plan"]: p for p in body["sessions"]["plans"]}
+    assert plans["bold"]["figures"]["goal_probability"]["exact"] == "18/37"
+    assert body["sessions"]["settings"]["bankroll"] == "5" and body["cautions"] == list(CAUTIONS)
+    assert any(source["topic"] == "session" for source in body["sources"])
+
+
+def test_markdown_report_has_the_sessions_compared_table(tmp_path):
+    target = tmp_path / "s.md"
+    assert main(["report", WHEEL, "--session", "--plan", "bold", "-o", str(target)]) == 0
+    text = target.read_text()
+    assert "## Sessions compared" in text and "| goal probability | 18/37 |" in text

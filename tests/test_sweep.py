@@ -151,3 +151,31 @@ def test_a_malformed_cluster_address_is_one_line_before_connecting(capsys):
     err = capsys.readouterr().err
     assert "--cluster 'foo://x': expected a scheduler address such as tcp://" in err
     assert len(err.strip().splitlines()) == 1
+
+
+def test_session_settings_and_plans_are_axes_with_session_figures(tmp_path):
+    spec = write_spec(
+        tmp_path,
+        '[params]\npayout = [1, "11/10"]\n[session]\nbankroll = [5, 10]\ngoal = 20\nplan = ["flat:1", "bold"]\n',
+    )
+    spec.write_text(spec.read_text().replace("[params]", 'figures = ["session.goal_probability"]\n[params]'))
+    read = read_sweep_spec(spec)
+    assert [axis.label for axis in read.axes] == ["payout", "session.bankroll", "session.goal", "plan"]
+    here = run_sweep(read, workers=1)
+    pooled = run_sweep(read, workers=2)
+    assert sweep_json(here)["points"] == sweep_json(pooled)["points"] and not here.errors
+    goal = {
+        tuple(v for _, v in p.settings): dict((n, e) for n, e, _ in r.figures)["session.goal_probability"]
+        for p, r in zip(here.points, here.results)
+    }
+    # bold play from 10 to 20 at even money is one spin: 18/37 (Dubins and Savage; arithmetic)
+    assert goal[("1", "10", "20", "bold")] == "18/37"
+    # from 5 to 20 bold at even money: two wins in a row, (18/37)^2 = 324/1369 (arithmetic)
+    assert goal[("1", "5", "20", "bold")] == "324/1369"
+
+
+def test_an_unknown_session_setting_or_plan_is_refused(tmp_path, capsys):
+    spec = write_spec(tmp_path, '[session]\nbankroll = [5]\ngoal = 10\nstyle = 1\nplan = ["double"]\n')
+    assert main(["sweep", str(spec)]) == 2
+    err = capsys.readouterr().err
+    assert "[session], style: unknown setting" in err and "[session], plan: --plan 'double': unknown plan" in err

@@ -7,6 +7,7 @@ import sys
 from pathlib import Path
 
 from oddsbench.cli.options import add_exact_limit, positive_int
+from oddsbench.cli.session_options import add_session_options
 
 DEFAULT_EXACT_LIMIT = 5_000
 FORMATS = ("md", "csv", "json")
@@ -37,6 +38,7 @@ def register(commands) -> None:
     )
     parser.add_argument("--rounds", type=positive_int, metavar="N", help="also the chances of having ended by step N")
     add_exact_limit(parser, DEFAULT_EXACT_LIMIT)
+    add_session_options(parser)
     parser.set_defaults(run=run)
 
 
@@ -49,6 +51,7 @@ def chosen_format(requested: str | None, output: str | None) -> str:
 
 
 def run(args: argparse.Namespace) -> int:
+    from oddsbench.cli.session_options import wants_session
     from oddsbench.model.atomic_write import write_atomically
     from oddsbench.model.load import load_ruleset
     from oddsbench.report.document import build_report
@@ -59,6 +62,8 @@ def run(args: argparse.Namespace) -> int:
     ruleset = load_ruleset(args.file)
     content = Path(args.file).read_text(encoding="utf-8")
     document = build_report(ruleset, content, args.strategy, args.rounds, args.exact_limit)
+    if wants_session(args):
+        document = _with_sessions(document, ruleset, args)
     fmt = chosen_format(args.format, args.output)
     rendered = {"md": render_markdown, "csv": render_csv, "json": render_json}[fmt](document)
     if args.output is None:
@@ -67,3 +72,21 @@ def run(args: argparse.Namespace) -> int:
     path = write_atomically(args.output, rendered, force=args.force)
     print(f"wrote {path} ({fmt}, {len(rendered.encode('utf-8')):,} bytes)")
     return 0
+
+
+def _with_sessions(document, ruleset, args: argparse.Namespace):
+    """Add the session comparison: every plan, with each round played as the first reported play."""
+    import dataclasses
+
+    from oddsbench.cli.session_options import session_plans, session_settings
+    from oddsbench.report.method_sources import SESSION_SOURCES
+    from oddsbench.report.session_section import session_section
+
+    first = document.rounds[0]
+    settings = session_settings(args, ruleset)
+    section = session_section(ruleset, first.policy, first.strategy, settings, session_plans(args), args.exact_limit)
+    return dataclasses.replace(
+        document,
+        extra_sections=document.extra_sections + (section,),
+        sources=document.sources + SESSION_SOURCES,
+    )

@@ -7,9 +7,11 @@ import json
 
 from oddsbench.cli.best_command import GOAL_NAMES
 from oddsbench.cli.options import add_exact_limit, add_max_states, positive_int
+from oddsbench.cli.session_options import add_session_options
 
 DEFAULT_EXACT_LIMIT = 5_000
 DEFAULT_TRIALS = 1_000_000
+DEFAULT_SESSION_TRIALS = 100_000
 
 
 def confidence_level(text: str) -> float:
@@ -45,9 +47,8 @@ def register(commands) -> None:
     parser.add_argument(
         "--trials",
         type=positive_int,
-        default=DEFAULT_TRIALS,
         metavar="N",
-        help=f"rounds to play (default {DEFAULT_TRIALS:,})",
+        help=f"rounds to play (default {DEFAULT_TRIALS:,}), or sessions per plan (default {DEFAULT_SESSION_TRIALS:,})",
     )
     parser.add_argument(
         "--seed", type=seed_value, metavar="S", help="random seed; without it a fresh seed is drawn and printed"
@@ -78,6 +79,7 @@ def register(commands) -> None:
     parser.add_argument("--json", action="store_true", help="print one JSON object")
     add_exact_limit(parser, DEFAULT_EXACT_LIMIT)
     add_max_states(parser)
+    add_session_options(parser)
     parser.set_defaults(run=run)
 
 
@@ -105,6 +107,7 @@ def run(args: argparse.Namespace) -> int:
     import numpy as np
 
     from oddsbench.chain.round_chain import build_round_chain
+    from oddsbench.cli.session_options import wants_session
     from oddsbench.model.load import load_ruleset
     from oddsbench.report.simulation_report import simulation_json, simulation_text
     from oddsbench.simulate.checks import round_checks
@@ -116,11 +119,48 @@ def run(args: argparse.Namespace) -> int:
     policy, play = round_play(ruleset, args)
     chain = build_round_chain(ruleset, policy, args.max_states)
     seed = args.seed if args.seed is not None else int(np.random.SeedSequence().entropy % (1 << 63))
-    sample = simulate_round(chain, args.trials, seed, max_steps=args.max_steps)
+    if wants_session(args):
+        return _sessions(ruleset, chain, seed, play, args)
+    sample = simulate_round(chain, args.trials or DEFAULT_TRIALS, seed, max_steps=args.max_steps)
     figures = solve_round(chain, exact_limit=args.exact_limit)
     checks = round_checks(sample, figures, args.confidence)
     if args.json:
         print(json.dumps(simulation_json(sample, checks, args.confidence, figures.notes), indent=2))
     else:
         print(simulation_text(sample, checks, args.confidence, play, figures.notes))
+    return 0
+
+
+def _sessions(ruleset, chain, seed: int, play: str | None, args: argparse.Namespace) -> int:
+    from oddsbench.cli.session_options import session_plans, session_settings
+    from oddsbench.model.numbers import text
+    from oddsbench.report.simulation_report import session_simulation_json, session_simulation_text
+    from oddsbench.simulate.checks import session_checks
+    from oddsbench.simulate.round_sim import RoundPlayer
+    from oddsbench.simulate.session_sim import session_chain, simulate_session
+    from oddsbench.solve.round_distribution import round_distribution
+    from oddsbench.strategy.session import analyse_session
+
+    settings = session_settings(args, ruleset)
+    distribution = round_distribution(chain)
+    player = RoundPlayer.of(chain)
+    trials = args.trials or DEFAULT_SESSION_TRIALS
+    runs = []
+    for plan in session_plans(args):
+        figures = analyse_session(distribution, settings, plan, args.exact_limit)
+        bankroll_chain = session_chain(distribution, settings, plan, args.exact_limit)
+        sample = simulate_session(bankroll_chain, trials, seed, player, settings.max_rounds, plan=plan)
+        runs.append((sample, session_checks(sample, figures, args.confidence), figures))
+    shown = {
+        name: (text(value) if not isinstance(value, int) else value)
+        for name, value in vars(settings).items()
+        if value is not None
+    }
+    if args.json:
+        print(json.dumps(session_simulation_json(runs, args.confidence, shown), indent=2))
+        return 0
+    line = f"{ruleset.title}: sessions " + ", ".join(f"{k} {v}" for k, v in shown.items())
+    if play:
+        line += f"; each round playing {play!r}"
+    print(session_simulation_text(runs, args.confidence, line))
     return 0

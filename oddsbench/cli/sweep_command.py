@@ -47,8 +47,6 @@ def run(args: argparse.Namespace) -> int:
     import time
     from pathlib import Path
 
-    from rich.console import Console
-
     from oddsbench.model.atomic_write import write_atomically
     from oddsbench.model.errors import OddsbenchError
     from oddsbench.report.cautions import caution_block
@@ -84,19 +82,19 @@ def run(args: argparse.Namespace) -> int:
             f"oddsbench: {len(result.errors)} of {len(result.points)} points failed; no files written", file=sys.stderr
         )
         return 2
-    console = Console()
-    console.print(sweep_table(result, args.show))
+    print(sweep_table(result, args.show))
     if len(result.points) > args.show:
-        console.print(f"{len(result.points) - args.show:,} more points in the CSV and JSON files (or raise --show)")
+        print(f"{len(result.points) - args.show:,} more points in the CSV and JSON files (or raise --show)")
     decimal_only = sum(1 for r in result.results if not r.exact)
     if decimal_only:
-        console.print(f"{decimal_only:,} points were too large for exact arithmetic: decimals only (raise exact_limit)")
+        print(f"{decimal_only:,} points were too large for exact arithmetic: decimals only (raise exact_limit)")
     if args.csv:
         write_atomically(args.csv, render_sweep_csv(result), force=args.force)
         print(f"wrote {args.csv}")
     if args.json:
         write_atomically(args.json, render_sweep_json(result), force=args.force)
         print(f"wrote {args.json}")
+    print()
     print(caution_block())
     return 0
 

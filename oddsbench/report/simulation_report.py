@@ -142,3 +142,57 @@ def simulation_json(
         "notes": simulation_notes(sample) + list(solver_notes),
         "cautions": list(CAUTIONS),
     }
+
+
+def session_heading(sample) -> str:
+    where = "by playing the round's chain" if sample.played_on_chain else "drawn from the round's distribution"
+    return (
+        f"{sample.title}: {sample.trials:,} simulated sessions under plan {sample.plan!r}, seed {sample.seed} "
+        f"({where}; {sample.seconds:.2f} s, {sample.rounds_played:,} rounds, {sample.rounds_per_second:,.0f} rounds/s)"
+    )
+
+
+def session_notes(sample) -> list[str]:
+    if not sample.unfinished:
+        return []
+    return [
+        f"{sample.unfinished:,} of {sample.trials:,} sessions were still playing after {sample.safety_rounds:,} "
+        "rounds and are left out of the means: the estimates lean towards short sessions"
+    ]
+
+
+def session_simulation_text(runs, confidence: float, settings_line: str, solver_notes: tuple[str, ...] = ()) -> str:
+    """The human output of ``oddsbench simulate`` for sessions: one table per plan."""
+    headers = ["quantity", "estimate", f"{confidence * 100:g} % interval", "exact", "exact decimal", "check"]
+    parts = [settings_line]
+    notes = list(solver_notes)
+    all_checks: list[Check] = []
+    for sample, checks, figures in runs:
+        parts += ["", session_heading(sample), "", render_table(headers, check_rows(checks), right={1, 2, 3, 4})]
+        notes += session_notes(sample) + [f"{sample.plan}: {note}" for note in figures.notes]
+        all_checks += checks
+    parts += ["", verdict(all_checks, confidence)]
+    if notes:
+        parts += ["", "Notes:"] + [f"  - {note}" for note in notes]
+    parts += ["", caution_block()]
+    return "\n".join(parts)
+
+
+def session_simulation_json(runs, confidence: float, settings: dict[str, Any]) -> dict[str, Any]:
+    plans = []
+    for sample, checks, figures in runs:
+        plans.append(
+            {
+                "plan": sample.plan,
+                "trials": sample.trials,
+                "seed": sample.seed,
+                "seconds": sample.seconds,
+                "rounds_played": sample.rounds_played,
+                "played_on_chain": sample.played_on_chain,
+                "ends": dict(sample.ends),
+                "estimates": [check_json(check) for check in checks],
+                "outside": [check.name for check in checks if check.outside],
+                "notes": session_notes(sample) + list(figures.notes),
+            }
+        )
+    return {"session": settings, "confidence": confidence, "plans": plans, "cautions": list(CAUTIONS)}

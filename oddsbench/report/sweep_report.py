@@ -7,13 +7,14 @@ import io
 import json
 from typing import Any
 
+from oddsbench.model.numbers import parse_fraction
 from oddsbench.report.cautions import CAUTIONS
-from oddsbench.report.numbers_text import decimal_text
+from oddsbench.report.numbers_text import decimal_text, exact_text, render_table
 from oddsbench.report.round_report import figure_label
 from oddsbench.report.ruleset_echo import file_digest
 from oddsbench.sweep.runners import SweepResult
 
-EXACT_COLUMN_WIDTH = 24
+EXACT_COLUMN_WIDTH = 30
 
 
 def figure_names(result: SweepResult) -> list[str]:
@@ -79,34 +80,33 @@ def render_sweep_csv(result: SweepResult) -> str:
     return buffer.getvalue()
 
 
-def sweep_table(result: SweepResult, limit: int | None = None):
-    """A rich Table: settings, then each chosen figure exact and decimal."""
-    from rich.table import Table
+def sweep_label(name: str) -> str:
+    if name.startswith("session."):
+        return f"{figure_label(name.removeprefix('session.'))} (session)"
+    return figure_label(name)
 
+
+def sweep_table(result: SweepResult, limit: int | None = None) -> str:
+    """A plain aligned table: settings, then each chosen figure's exact value (shortened) and decimal."""
     spec = result.spec
-    table = Table(title=f"{spec.title} ({len(result.points):,} points, {result.runner}, {result.seconds:.2f} s)")
     labels = [label for label, _ in result.points[0].settings] if result.points else []
-    for label in labels:
-        table.add_column(label, justify="right")
+    headers = list(labels)
     for name in spec.figures:
-        table.add_column(f"{figure_label(name)} exact", justify="right", overflow="fold")
-        table.add_column(figure_label(name), justify="right")
+        headers += [f"{sweep_label(name)} exact", sweep_label(name)]
     shown = list(zip(result.points, result.results))
     if limit is not None:
         shown = shown[:limit]
+    rows = []
     for point, solved in shown:
         cells = [value for _, value in point.settings]
         found = {name: (exact, decimal) for name, exact, decimal in solved.figures}
         for name in spec.figures:
-            if solved.error is not None:
-                cells += ["error", ""]
-                continue
             exact, decimal = found.get(name, (None, None))
-            if decimal is None:
-                cells += ["-", "-"]
+            if solved.error is not None or decimal is None:
+                cells += ["error" if solved.error else "-", "-"]
                 continue
-            if exact is not None and len(exact) > EXACT_COLUMN_WIDTH:
-                exact = exact[: EXACT_COLUMN_WIDTH - 3] + "..."
-            cells += [exact if exact is not None else "(decimal only)", decimal_text(decimal)]
-        table.add_row(*cells)
-    return table
+            exact_cell = "(decimal only)" if exact is None else exact_text(parse_fraction(exact), EXACT_COLUMN_WIDTH)
+            cells += [exact_cell, decimal_text(decimal)]
+        rows.append(cells)
+    title = f"{spec.title}: {len(result.points):,} points, {result.runner}, {result.seconds:.2f} s"
+    return title + "\n\n" + render_table(headers, rows, right=set(range(len(headers))))

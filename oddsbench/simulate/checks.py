@@ -90,3 +90,57 @@ def round_checks(
         Check(name, estimate, interval, method, exact.get(name))
         for name, estimate, interval, method in round_estimates(sample, confidence)
     ]
+
+
+SESSION_CHANCES = (
+    ("goal_probability", "goal"),
+    ("ruin_probability", "ruin"),
+    ("floor_probability", "floor"),
+    ("time_cap_probability", "time_cap"),
+)
+
+
+def session_estimates(sample, confidence: float = DEFAULT_CONFIDENCE, floor: bool = False):
+    """(name, estimate, interval, method) for the session figures a simulation can estimate."""
+    rows = []
+    for name, kind in SESSION_CHANCES:
+        if kind == "floor" and not floor:
+            continue
+        if kind == "time_cap" and sample.max_rounds is None:
+            continue
+        rows.append(_chance(name, sample.ends[kind], sample.trials, confidence))
+    rounds, staked, final = sample.rounds, sample.staked, sample.final
+    if rounds.count == 0:
+        return rows
+    rows.append(("expected_rounds", rounds.mean, normal_interval(rounds.mean, rounds.mean_error, confidence), NORMAL))
+    rows.append(
+        (
+            "rounds_variance",
+            rounds.variance,
+            normal_interval(rounds.variance, rounds.variance_error, confidence),
+            NORMAL,
+        )
+    )
+    rows.append(("expected_staked", staked.mean, normal_interval(staked.mean, staked.mean_error, confidence), NORMAL))
+    final_interval = normal_interval(final.mean, final.mean_error, confidence)
+    rows.append(("expected_final_bankroll", final.mean, final_interval, NORMAL))
+    start = sample.start_bankroll
+    rows.append(
+        (
+            "expected_net",
+            final.mean - start,
+            Interval(final_interval.low - start, final_interval.high - start),
+            NORMAL,
+        )
+    )
+    return rows
+
+
+def session_checks(sample, figures, confidence: float = DEFAULT_CONFIDENCE) -> list[Check]:
+    """Every estimate of a session sample beside the solver's figure of the same name."""
+    exact = dict(figures.figures) if figures is not None else {}
+    floor = "floor_probability" in exact
+    return [
+        Check(name, estimate, interval, method, exact.get(name))
+        for name, estimate, interval, method in session_estimates(sample, confidence, floor)
+    ]

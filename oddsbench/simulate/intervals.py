@@ -42,7 +42,9 @@ def wilson_interval(successes: int, trials: int, confidence: float = DEFAULT_CON
     z2n = z * z / trials
     centre = (p + z2n / 2) / (1 + z2n)
     half = z * math.sqrt(p * (1 - p) / trials + z2n / (4 * trials)) / (1 + z2n)
-    return Interval(max(0.0, centre - half), min(1.0, centre + half))
+    low = 0.0 if successes == 0 else max(0.0, centre - half)
+    high = 1.0 if successes == trials else min(1.0, centre + half)
+    return Interval(low, high)
 
 
 def normal_interval(estimate: float, standard_error: float, confidence: float = DEFAULT_CONFIDENCE) -> Interval:

@@ -338,8 +338,13 @@ def _figures(chain, exact, decimal, notes, horizon, prefix: str = ""):
         where = -1 - chain.start
         absorbed_exact = [QQ(1) if a == where else QQ(0) for a in range(len(values))]
         exact = {"absorbed": absorbed_exact, "rounds": QQ(0), "rounds_second": QQ(0), "staked": QQ(0), "playing": []}
-        decimal = {"absorbed": np.array([float(x) for x in absorbed_exact]), "rounds": 0.0, "rounds_second": 0.0,
-                   "staked": 0.0, "playing": np.zeros(0)}
+        decimal = {
+            "absorbed": np.array([float(x) for x in absorbed_exact]),
+            "rounds": 0.0,
+            "rounds_second": 0.0,
+            "staked": 0.0,
+            "playing": np.zeros(0),
+        }
     named: dict[str, tuple] = {}
 
     def put(name, exact_value, decimal_value):

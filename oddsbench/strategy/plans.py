@@ -151,8 +151,10 @@ def planned_bets(
 
         bet = kelly_bet(distribution, plan.amount)
         if bet.fraction.decimal <= 0:
-            notes.append(f"{plan.spelling}: the game has no positive expectation, so Kelly bets nothing; "
-                         "the plan bets the table minimum instead")
+            notes.append(
+                f"{plan.spelling}: the game has no positive expectation, so Kelly bets nothing; "
+                "the plan bets the table minimum instead"
+            )
         if bet.fraction.exact is not None:
             bets = _floor_times(values, bet.fraction.exact, grid)
         else:

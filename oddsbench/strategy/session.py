@@ -34,9 +34,7 @@ class SessionSettings:
     max_rounds: int | None = None
 
     def grid(self, distribution: RoundDistribution) -> BankrollGrid:
-        return make_grid(
-            distribution, self.bankroll, self.goal, self.floor, self.min_bet, self.max_bet, self.unit
-        )
+        return make_grid(distribution, self.bankroll, self.goal, self.floor, self.min_bet, self.max_bet, self.unit)
 
 
 @dataclass(frozen=True)

@@ -23,6 +23,8 @@ class Point:
     settings: tuple[tuple[str, str], ...]
     params: tuple[tuple[str, str], ...] = ()
     strategy: str | None = None
+    session: tuple[tuple[str, str], ...] = ()
+    plan: str | None = None
 
 
 @dataclass(frozen=True)
@@ -51,14 +53,18 @@ def grid_points(spec: SweepSpec) -> list[Point]:
     """Every combination of axis values, first axis slowest."""
     points = []
     for index, combo in enumerate(itertools.product(*(axis.values for axis in spec.axes))):
-        settings, params, strategy = [], [], None
+        settings, params, session, strategy, plan = [], [], [], None, None
         for axis, value in zip(spec.axes, combo):
             settings.append((axis.label, axis.shown(value)))
             if axis.kind == "param":
                 params.append((axis.name, text(value)))
+            elif axis.kind == "session":
+                session.append((axis.name, axis.shown(value)))
             elif axis.kind == "strategy":
                 strategy = value
-        points.append(Point(index, tuple(settings), tuple(params), strategy))
+            elif axis.kind == "plan":
+                plan = value
+        points.append(Point(index, tuple(settings), tuple(params), strategy, tuple(session), plan))
     return points
 
 
@@ -83,6 +89,7 @@ def solve_point(ruleset_text: str, source: str, exact_limit: int, point: Point) 
         policy = strategy_policy(ruleset, named_strategy(ruleset, point.strategy)) if point.strategy else {}
         chain = build_round_chain(ruleset, policy)
         figures = solve_round(chain, exact_limit=exact_limit)
+        session = _session_rows(ruleset, chain, point, exact_limit) if point.plan is not None else []
     except RulesetError as error:
         return PointResult(point.index, error="; ".join(str(p) for p in error.errors or error.problems))
     except OddsbenchError as error:
@@ -92,7 +99,24 @@ def solve_point(ruleset_text: str, source: str, exact_limit: int, point: Point) 
     rows += [
         (f"result_probability[{name}]", _text(f.exact), f.decimal) for name, f in figures.result_probability.items()
     ]
-    return PointResult(point.index, tuple(rows), figures.notes)
+    notes = figures.notes
+    if session:
+        session_rows, session_notes = session
+        rows += session_rows
+        notes += tuple(f"session: {note}" for note in session_notes)
+    return PointResult(point.index, tuple(rows), notes)
+
+
+def _session_rows(ruleset, chain, point: Point, exact_limit: int):
+    """The session figures of one point, named ``session.NAME``, and the session notes."""
+    from oddsbench.solve.round_distribution import round_distribution
+    from oddsbench.strategy.session import analyse_session, merge_settings, settings_from_table
+
+    overrides = {name: (int(value) if name == "max_rounds" else parse_fraction(value)) for name, value in point.session}
+    settings = merge_settings(settings_from_table(ruleset.session, ruleset.source), overrides, ruleset.source)
+    solved = analyse_session(round_distribution(chain), settings, point.plan, exact_limit)
+    rows = [(f"session.{name}", _text(f.exact), f.decimal) for name, f in solved.figures.items()]
+    return rows, solved.notes
 
 
 def _text(value) -> str | None:

@@ -10,6 +10,11 @@
     payout = [30, 31, 32, 33, 34, 35, 36]             # a list of values (whole numbers or "a/b")
     pockets = { from = 37, to = 38, step = 1 }        # or an inclusive range, exact arithmetic
 
+    [session]                                         # optional: sessions at every point
+    bankroll = [10, 20]                               # bankroll, goal, floor, min_bet, max_bet, unit,
+    goal = 40                                         # max_rounds: values or ranges (defaults from the
+    plan = ["flat:1", "bold"]                         # ruleset's [session]); plans default to timid, bold
+
 The grid is the product of every axis, first axis slowest. Values are exact: integers, or text
 through the ruleset expression language (no names), never floats.
 """
@@ -34,7 +39,7 @@ DEFAULT_EXACT_LIMIT = 5_000
 
 @dataclass(frozen=True)
 class Axis:
-    """One dimension of the grid: ``kind`` is "param", "strategy" or "session"; values in order."""
+    """One dimension of the grid: ``kind`` is "param", "strategy", "session" or "plan"; values in order."""
 
     kind: str
     name: str
@@ -45,7 +50,9 @@ class Axis:
         return self.name if self.kind != "session" else f"session.{self.name}"
 
     def shown(self, value: Any) -> str:
-        return text(value) if self.kind == "param" else str(value)
+        if self.kind in ("param", "session") and not isinstance(value, int):
+            return text(value)
+        return str(value)
 
 
 @dataclass(frozen=True)
@@ -120,6 +127,48 @@ class _SpecReader:
         return ()
 
 
+SESSION_SETTINGS = ("bankroll", "goal", "floor", "min_bet", "max_bet", "unit", "max_rounds")
+DEFAULT_PLANS = ("timid", "bold")
+
+
+def _session_axes(reader: _SpecReader, session: dict[str, Any]) -> list[Axis]:
+    """Session settings (exact money, whole max_rounds) and the plan axis; plans default to timid, bold."""
+    if not session:
+        return []
+    from oddsbench.model.errors import OddsbenchError
+    from oddsbench.model.numbers import is_integer, to_int
+    from oddsbench.strategy.plans import parse_plan
+
+    axes: list[Axis] = []
+    for name, raw in session.items():
+        where = f"[session], {name}"
+        if name == "plan":
+            continue
+        if name not in SESSION_SETTINGS:
+            reader.error(where, f"unknown setting (known: {', '.join(SESSION_SETTINGS)}, plan)")
+            continue
+        values = reader.values(raw if isinstance(raw, list | dict) else [raw], where)
+        if name == "max_rounds":
+            if not all(is_integer(v) and v >= 1 for v in values):
+                reader.error(where, "must be whole numbers of rounds, at least 1")
+                continue
+            values = tuple(to_int(v) for v in values)
+        if values:
+            axes.append(Axis("session", name, values))
+    plans = session.get("plan", list(DEFAULT_PLANS))
+    listed = [plans] if isinstance(plans, str) else plans
+    if not isinstance(listed, list) or not listed or not all(isinstance(p, str) for p in listed):
+        reader.error("[session], plan", 'must be a plan or a list of plans such as ["flat:1", "bold"]')
+        return axes
+    for plan in listed:
+        try:
+            parse_plan(plan)
+        except OddsbenchError as error:
+            reader.error("[session], plan", str(error))
+    axes.append(Axis("plan", "plan", tuple(listed)))
+    return axes
+
+
 def read_sweep_spec(path: str | Path) -> SweepSpec:
     """Read a spec file and the ruleset it names, or raise RulesetError naming file and field."""
     path = Path(path)
@@ -177,8 +226,7 @@ def read_sweep_spec(path: str | Path) -> SweepSpec:
     if not isinstance(session, dict):
         reader.error("[session]", "must be a table of setting = [values]")
         session = {}
-    for name in session:
-        reader.error(f"[session], {name}", "session settings cannot be swept by this build (no session engine)")
+    axes += _session_axes(reader, session)
     figures = head.get("figures", list(DEFAULT_FIGURES))
     if not isinstance(figures, list) or not all(isinstance(f, str) for f in figures) or not figures:
         reader.error("[sweep], figures", 'must be a list of figure names such as ["house_edge"]')

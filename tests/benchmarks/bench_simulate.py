@@ -32,6 +32,36 @@ def main() -> None:
         rate = trials / seconds
         verdict = "meets" if rate >= GOAL_ROUNDS_PER_SECOND else "below"
         print(f"{name:<28} {rate:>12,.0f} {sample.steps_taken / seconds:>12,.0f} {seconds:>8.2f}  {verdict}")
+    sessions(trials // 10)
+
+
+def sessions(trials: int) -> None:
+    """Whole sessions: each round played on the round chain; figure is session rounds per second."""
+    from oddsbench.model.numbers import QQ
+    from oddsbench.simulate.round_sim import RoundPlayer
+    from oddsbench.simulate.session_sim import session_chain, simulate_session
+    from oddsbench.solve.round_distribution import round_distribution
+    from oddsbench.strategy.session import SessionSettings
+
+    print(f"\nsimulated sessions, {trials:,} per plan, one process")
+    print(f"{'game, plan, bankroll -> goal':<44} {'rounds/s':>12} {'sessions/s':>12} {'seconds':>8}")
+    cases = (
+        ("single-zero-wheel.toml", "flat:1", 10, 20),
+        ("single-zero-wheel.toml", "bold", 10, 100),
+        ("pass-line.toml", "flat:1", 10, 20),
+        ("lantern-dice.toml", "martingale:1:4", 20, 40),
+    )
+    for name, plan, bankroll, goal in cases:
+        chain = build_round_chain(load_ruleset(RULESETS / name))
+        distribution = round_distribution(chain)
+        settings = SessionSettings(QQ(bankroll), QQ(goal))
+        bankroll_chain = session_chain(distribution, settings, plan, 5_000)
+        player = RoundPlayer.of(chain)
+        began = time.perf_counter()
+        sample = simulate_session(bankroll_chain, trials, 1, player, plan=plan)
+        seconds = time.perf_counter() - began
+        label = f"{name}, {plan}, {bankroll} -> {goal}"
+        print(f"{label:<44} {sample.rounds_played / seconds:>12,.0f} {trials / seconds:>12,.0f} {seconds:>8.2f}")
 
 
 if __name__ == "__main__":
