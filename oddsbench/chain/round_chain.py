@@ -6,6 +6,7 @@ from collections.abc import Mapping
 from dataclasses import dataclass
 
 from oddsbench.model.errors import OddsbenchError
+from oddsbench.model.limits import DEFAULT_MAX_STATES
 from oddsbench.model.numbers import QQ, Rational
 from oddsbench.model.ruleset import Outcome, Ruleset, State
 from oddsbench.model.validate import reachable_from, reaching, trapped_sets
@@ -80,9 +81,20 @@ def outcomes_under(state: State, policy: Mapping[str, str]) -> tuple[Outcome, ..
         ) from None
 
 
-def build_round_chain(ruleset: Ruleset, policy: Mapping[str, str] | None = None) -> RoundChain:
+def check_state_count(count: int, max_states: int | None, source: str, what: str = "the round reaches") -> None:
+    """Refuse a chain above the state limit before any matrix is built, naming both figures."""
+    if max_states is not None and count > max_states:
+        raise OddsbenchError(
+            f"{source}: {what} {count:,} states, over the state limit of {max_states:,} (raise it with --max-states)"
+        )
+
+
+def build_round_chain(
+    ruleset: Ruleset, policy: Mapping[str, str] | None = None, max_states: int | None = DEFAULT_MAX_STATES
+) -> RoundChain:
     """The chain of one round under a policy (decision state -> action)."""
     policy = policy or {}
+    check_state_count(len(ruleset.states), max_states, ruleset.source, "the ruleset has")
     by_name = {state.name: state for state in ruleset.states}
     graph = {
         state.name: {o.to for o in outcomes_under(state, policy) if o.prob > 0}
@@ -90,6 +102,7 @@ def build_round_chain(ruleset: Ruleset, policy: Mapping[str, str] | None = None)
         if not state.is_decision or state.name in policy
     }
     reachable = reachable_from(ruleset.start, _Guarded(graph, by_name))
+    check_state_count(len(reachable), max_states, ruleset.source)
     ordered = [name for name in ruleset.state_names if name in reachable]
     transient = [ruleset.start] + [n for n in ordered if n != ruleset.start and not by_name[n].is_end]
     ends = [n for n in ordered if by_name[n].is_end]

@@ -5,6 +5,8 @@ from __future__ import annotations
 import argparse
 import sys
 
+from oddsbench.cli.options import add_max_states
+
 
 def register(commands) -> None:
     parser = commands.add_parser(
@@ -14,6 +16,7 @@ def register(commands) -> None:
         "start state, a round that can always end. Exit 0 when valid, 2 when not.",
     )
     parser.add_argument("file", help="ruleset file (TOML)")
+    add_max_states(parser)
     parser.set_defaults(run=run)
 
 
@@ -26,6 +29,9 @@ def run(args: argparse.Namespace) -> int:
     if result.ruleset is None:
         return 2
     ruleset = result.ruleset
+    from oddsbench.chain.round_chain import check_state_count
+
+    check_state_count(len(ruleset.states), args.max_states, ruleset.source, "the ruleset has")
     ends = sum(1 for state in ruleset.states if state.is_end)
     decisions = sum(1 for state in ruleset.states if state.is_decision)
     summary = f"{ruleset.source}: valid: {len(ruleset.states)} states, {ends} end states"

@@ -3,15 +3,37 @@
 from __future__ import annotations
 
 import argparse
+import os
 import sys
 from collections.abc import Sequence
 
 from oddsbench import __version__
-from oddsbench.cli import check_command, session_command, solve_command
+from oddsbench.cli import (
+    best_command,
+    check_command,
+    open_command,
+    report_command,
+    session_command,
+    simulate_command,
+    solve_command,
+    sweep_command,
+)
 from oddsbench.model.errors import OddsbenchError, RulesetError
 
-COMMANDS = (check_command, solve_command, session_command)
+COMMANDS = (
+    check_command,
+    solve_command,
+    session_command,
+    best_command,
+    simulate_command,
+    report_command,
+    sweep_command,
+    open_command,
+)
 EXIT_BAD_INPUT = 2
+EXIT_INTERNAL = 70
+EXIT_INTERRUPTED = 130
+EXIT_BROKEN_PIPE = 141
 
 
 def build_parser() -> argparse.ArgumentParser:
@@ -29,11 +51,14 @@ def build_parser() -> argparse.ArgumentParser:
 
 
 def main(argv: Sequence[str] | None = None) -> int:
+    for stream in (sys.stdout, sys.stderr):
+        if hasattr(stream, "reconfigure"):
+            stream.reconfigure(errors="backslashreplace")  # odd names never crash the output
     parser = build_parser()
     args = parser.parse_args(argv)
-    if args.command is None:
-        return _no_command(parser)
     try:
+        if args.command is None:
+            return open_command.run_workbench(None)
         return int(args.run(args) or 0)
     except RulesetError as error:
         for problem in error.problems:
@@ -44,13 +69,31 @@ def main(argv: Sequence[str] | None = None) -> int:
         return EXIT_BAD_INPUT
     except KeyboardInterrupt:
         print("oddsbench: interrupted", file=sys.stderr)
-        return 130
-
-
-def _no_command(parser: argparse.ArgumentParser) -> int:
-    parser.print_help()
-    return 0
+        return EXIT_INTERRUPTED
+    except BrokenPipeError:
+        # The reader went away (``| head``): stop quietly, and keep Python's exit flush quiet too.
+        devnull = os.open(os.devnull, os.O_WRONLY)
+        os.dup2(devnull, sys.stdout.fileno())
+        return EXIT_BROKEN_PIPE
+    except MemoryError:
+        print("oddsbench: out of memory: lower --exact-limit or --max-states", file=sys.stderr)
+        return EXIT_BAD_INPUT
+    except Exception as error:  # the last line of defence: one line, never a traceback
+        if os.environ.get("ODDSBENCH_DEBUG"):
+            raise
+        message = " ".join(str(error).split())[:300]
+        print(
+            f"oddsbench: internal error: {type(error).__name__}: {message} "
+            "(a bug: please report it; set ODDSBENCH_DEBUG=1 for the details)",
+            file=sys.stderr,
+        )
+        return EXIT_INTERNAL
 
 
 def entry() -> None:
-    sys.exit(main())
+    try:
+        code = main()
+    except KeyboardInterrupt:  # Ctrl-C before a command started (while parsing or importing)
+        print("oddsbench: interrupted", file=sys.stderr)
+        code = EXIT_INTERRUPTED
+    sys.exit(code)

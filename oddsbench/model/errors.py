@@ -24,8 +24,20 @@ class Problem:
         return _one_line(f"{self.source}: {label}{place}{self.message}")
 
 
+MAX_LINE_LENGTH = 400
+
+
 def _one_line(text: str) -> str:
-    return " ".join(text.split())
+    """Whitespace folded to single spaces and the whole cut to a readable length: a hostile
+    file cannot flood a terminal with one message."""
+    line = " ".join(text.split())
+    return line if len(line) <= MAX_LINE_LENGTH else line[: MAX_LINE_LENGTH - 3] + "..."
+
+
+def shown_name(name: object, limit: int = 60) -> str:
+    """A name from a file, quoted for a message and cut if very long."""
+    shown = repr(name)
+    return shown if len(shown) <= limit else shown[: limit - 4] + "...'"
 
 
 class RulesetError(Exception):

@@ -32,6 +32,7 @@ from oddsbench.model.numbers import QQ, Rational, bit_size, is_integer, to_int
 MAX_TEXT_LENGTH = 2_000
 MAX_LITERAL_DIGITS = 60
 MAX_DEPTH = 60
+MAX_TREE_DEPTH = 200
 MAX_EXPONENT = 4_096
 MAX_RESULT_BITS = 16_384
 
@@ -79,27 +80,35 @@ class Conditional:
 Node = Number | Name | Unary | Binary | Call | Conditional
 
 _TOKEN = re.compile(
-    r"\s*(?:(?P<number>\d+(?:\.\d+)?|\.\d+)|(?P<name>[A-Za-z_][A-Za-z0-9_]*)"
+    r"[ \t\r\n]*(?:(?P<number>[0-9]+(?:\.[0-9]+)?|\.[0-9]+)|(?P<name>[A-Za-z_][A-Za-z0-9_]*)"
     r"|(?P<op>//|<=|>=|==|!=|[-+*/%^(),<>]))"
 )
 _KEYWORDS = frozenset({"if", "then", "else", "and", "or", "not"})
 _FUNCTIONS = frozenset({"min", "max", "abs", "floor", "ceil"})
 _COMPARISONS = ("<=", ">=", "==", "!=", "<", ">")
 
+# Binding strength of each infix operator (higher binds tighter); "not" sits between "and"
+# and the comparisons, unary minus between the products and "^".
+_OR, _AND, _NOT, _COMPARE, _SUM, _PRODUCT, _SIGN, _POWER = range(1, 9)
+_INFIX = {"or": _OR, "and": _AND, "+": _SUM, "-": _SUM, "*": _PRODUCT, "/": _PRODUCT, "//": _PRODUCT}
+_INFIX |= {"%": _PRODUCT, "^": _POWER} | dict.fromkeys(_COMPARISONS, _COMPARE)
+
 
 def _tokenize(text: str) -> list[tuple[str, str]]:
     tokens: list[tuple[str, str]] = []
     position = 0
-    stripped_end = len(text.rstrip())
+    stripped_end = len(text.rstrip(" \t\r\n"))
     while position < stripped_end:
         match = _TOKEN.match(text, position)
         if match is None or match.end() == position:
-            bad = text[position:].lstrip()[:1]
+            bad = text[position:].lstrip(" \t\r\n")[:1]
             raise ExpressionError(f"unexpected character {bad!r}")
         kind = match.lastgroup or ""
         value = match.group(kind)
         if kind == "number" and len(value.replace(".", "")) > MAX_LITERAL_DIGITS:
             raise ExpressionError(f"number literal longer than {MAX_LITERAL_DIGITS} digits")
+        if kind == "name" and value.startswith("__"):
+            raise ExpressionError(f"names starting with '__' are not allowed ({_cut(value)!r})")
         if kind == "name" and value in _KEYWORDS:
             kind = "keyword"
         tokens.append((kind, value))
@@ -107,11 +116,19 @@ def _tokenize(text: str) -> list[tuple[str, str]]:
     return tokens
 
 
+def _cut(value: str, limit: int = 40) -> str:
+    return value if len(value) <= limit else value[: limit - 3] + "..."
+
+
 class _Parser:
+    """Precedence climbing: a few Python frames per level of nesting, so the nesting limit
+    stays far from the interpreter's recursion limit even when called from deep stacks."""
+
     def __init__(self, tokens: list[tuple[str, str]]) -> None:
         self.tokens = tokens
         self.index = 0
         self.depth = 0
+        self.heights: dict[int, int] = {}
 
     def peek(self) -> tuple[str, str]:
         return self.tokens[self.index] if self.index < len(self.tokens) else ("end", "")
@@ -120,7 +137,7 @@ class _Parser:
         token = self.peek()
         if value is not None and token[1] != value:
             found = token[1] or "end of text"
-            raise ExpressionError(f"expected {value!r} but found {found!r}")
+            raise ExpressionError(f"expected {value!r} but found {_cut(found)!r}")
         if token[0] == "end":
             raise ExpressionError("unexpected end of text")
         self.index += 1
@@ -129,6 +146,15 @@ class _Parser:
     def at(self, *values: str) -> bool:
         kind, value = self.peek()
         return kind in ("op", "keyword") and value in values
+
+    def built(self, node: Node, *children: Node) -> Node:
+        """Record the tree's height: long operator chains nest as deeply as parentheses do,
+        and every walk over the tree (evaluation, names, equality) recurses once per level."""
+        height = 1 + max((self.heights.get(id(child), 1) for child in children), default=0)
+        if height > MAX_TREE_DEPTH:
+            raise ExpressionError(f"expression has more than {MAX_TREE_DEPTH} operations inside one another")
+        self.heights[id(node)] = height
+        return node
 
     def nested(self, parse: Callable[[], Node]) -> Node:
         self.depth += 1
@@ -149,64 +175,39 @@ class _Parser:
             self.take("then")
             then = self.expr()
             self.take("else")
-            return Conditional(test, then, self.expr())
-        return self.either()
+            otherwise = self.expr()
+            return self.built(Conditional(test, then, otherwise), test, then, otherwise)
+        return self.infix(_OR)
 
-    def either(self) -> Node:
-        node = self.both()
-        while self.at("or"):
+    def infix(self, weakest: int) -> Node:
+        """Operators binding at least as tightly as ``weakest``, left to right."""
+        node = self.prefix(weakest)
+        while True:
+            kind, op = self.peek()
+            strength = _INFIX.get(op) if kind in ("op", "keyword") else None
+            if strength is None or strength < weakest:
+                return node
             self.take()
-            node = Binary("or", node, self.both())
-        return node
+            if op == "^":
+                right = self.nested(lambda: self.infix(_POWER))
+            elif strength == _COMPARE:
+                right = self.infix(_SUM)
+                if self.at(*_COMPARISONS):
+                    raise ExpressionError("chained comparisons need 'and' between them")
+            else:
+                right = self.infix(strength + 1)
+            node = self.built(Binary(op, node, right), node, right)
 
-    def both(self) -> Node:
-        node = self.negate()
-        while self.at("and"):
+    def prefix(self, weakest: int) -> Node:
+        if self.at("not") and weakest <= _COMPARE:
             self.take()
-            node = Binary("and", node, self.negate())
-        return node
-
-    def negate(self) -> Node:
-        if self.at("not"):
-            self.take()
-            return Unary("not", self.nested(self.negate))
-        return self.compare()
-
-    def compare(self) -> Node:
-        node = self.sum()
-        if self.at(*_COMPARISONS):
-            op = self.take()[1]
-            node = Binary(op, node, self.sum())
-            if self.at(*_COMPARISONS):
-                raise ExpressionError("chained comparisons need 'and' between them")
-        return node
-
-    def sum(self) -> Node:
-        node = self.product()
-        while self.at("+", "-"):
-            op = self.take()[1]
-            node = Binary(op, node, self.product())
-        return node
-
-    def product(self) -> Node:
-        node = self.unary()
-        while self.at("*", "/", "//", "%"):
-            op = self.take()[1]
-            node = Binary(op, node, self.unary())
-        return node
-
-    def unary(self) -> Node:
+            operand = self.nested(lambda: self.infix(_COMPARE))
+            return self.built(Unary("not", operand), operand)
         if self.at("-", "+"):
             op = self.take()[1]
-            return Unary(op, self.nested(self.unary))
-        return self.power()
-
-    def power(self) -> Node:
-        base = self.atom()
-        if self.at("^"):
-            self.take()
-            return Binary("^", base, self.nested(self.unary))
-        return base
+            operand = self.nested(lambda: self.infix(_POWER))
+            return self.built(Unary(op, operand), operand)
+        return self.atom()
 
     def atom(self) -> Node:
         kind, value = self.peek()
@@ -217,14 +218,14 @@ class _Parser:
             self.take()
             if self.at("("):
                 if value not in _FUNCTIONS:
-                    raise ExpressionError(f"unknown function {value!r}")
+                    raise ExpressionError(f"unknown function {_cut(value)!r}")
                 self.take("(")
                 args = [self.expr()]
                 while self.at(","):
                     self.take()
                     args.append(self.expr())
                 self.take(")")
-                return Call(value, tuple(args))
+                return self.built(Call(value, tuple(args)), *args)
             if value in _FUNCTIONS:
                 raise ExpressionError(f"function {value!r} needs arguments in parentheses")
             return Name(value)
@@ -235,7 +236,7 @@ class _Parser:
             return node
         if kind == "end":
             raise ExpressionError("unexpected end of text")
-        raise ExpressionError(f"unexpected {value!r}")
+        raise ExpressionError(f"unexpected {_cut(value)!r}")
 
 
 def _literal(text: str) -> Rational:
@@ -257,7 +258,7 @@ def parse(text: str) -> Node:
     parser = _Parser(tokens)
     node = parser.expr()
     if parser.index != len(tokens):
-        raise ExpressionError(f"unexpected {parser.peek()[1]!r}")
+        raise ExpressionError(f"unexpected {_cut(parser.peek()[1])!r}")
     return node
 
 
@@ -291,7 +292,8 @@ def _power(base: Rational, exponent: Rational) -> Rational:
         raise ExpressionError("exponent must be a whole number")
     n = to_int(exponent)
     if abs(n) > MAX_EXPONENT:
-        raise ExpressionError(f"exponent {n} is beyond the limit of {MAX_EXPONENT}")
+        shown = f"{n}" if abs(n) < 10**12 else f"of {abs(n).bit_length()} bits"
+        raise ExpressionError(f"exponent {shown} is beyond the limit of {MAX_EXPONENT}")
     if base == 0 and n < 0:
         raise ExpressionError("division by zero")
     if bit_size(base) * abs(n) > MAX_RESULT_BITS:
@@ -337,7 +339,7 @@ def evaluate(node: Node, env: Mapping[str, Rational]) -> Rational:
         return node.value
     if isinstance(node, Name):
         if node.name not in env:
-            raise ExpressionError(f"unknown parameter {node.name!r}")
+            raise ExpressionError(f"unknown parameter {_cut(node.name)!r}")
         return env[node.name]
     if isinstance(node, Unary):
         value = evaluate(node.operand, env)

@@ -7,18 +7,27 @@ the state and the field, and the caller decides (the CLI exits 2, the TUI shows 
 from __future__ import annotations
 
 import tomllib
-from collections.abc import Callable
+from collections.abc import Callable, Mapping
 from dataclasses import dataclass
 from pathlib import Path
 from typing import Any
 
-from oddsbench.model.errors import Problem, RulesetError
+from oddsbench.model.errors import Problem, RulesetError, shown_name
 from oddsbench.model.expr import ExpressionError, evaluate, names_in, parse
+from oddsbench.model.families import (
+    FamilyMember,
+    expand_families,
+    expand_plain_state,
+    rule_actions,
+    uses_family_outcomes,
+)
 from oddsbench.model.numbers import QQ, Rational, text
 from oddsbench.model.ruleset import Outcome, Ruleset, State, Strategy
 
 MAX_FILE_BYTES = 2_000_000
 MAX_NAME_LENGTH = 200
+MAX_NESTING = 32
+FORMAT_VERSION = 1
 
 RULESET_KEYS = frozenset({"title", "about", "start", "stake", "version"})
 STATE_KEYS = frozenset({"outcomes", "choices", "result", "about"})
@@ -48,8 +57,15 @@ class LoadResult:
         return tuple(p for p in self.problems if not p.is_error)
 
 
-def read_ruleset_file(path: str | Path) -> LoadResult:
-    """Read and validate a ruleset file; never raises for bad content."""
+ParamOverrides = Mapping[str, Rational]
+
+
+def read_ruleset_file(path: str | Path, params: ParamOverrides | None = None) -> LoadResult:
+    """Read and validate a ruleset file; never raises for bad content.
+
+    ``params`` replaces values of the file's ``[params]`` (by name) before anything else is
+    evaluated, so later parameters and every outcome that depend on them follow.
+    """
     path = Path(path)
     source = path.name
     try:
@@ -67,13 +83,15 @@ def read_ruleset_file(path: str | Path) -> LoadResult:
         content = raw.decode("utf-8")
     except UnicodeDecodeError as error:
         return _failed(source, f"is not UTF-8 text (bad byte at position {error.start})")
-    return read_ruleset_text(content, source)
+    return read_ruleset_text(content, source, params)
 
 
-def read_ruleset_text(content: str, source: str = "<text>") -> LoadResult:
-    """Read and validate ruleset text; the heart of ``oddsbench check``."""
+def read_ruleset_text(content: str, source: str = "<text>", params: ParamOverrides | None = None) -> LoadResult:
+    """Read and validate ruleset text (the heart of ``oddsbench check``), optionally with
+    parameter overrides as in ``read_ruleset_file``."""
     if len(content.encode("utf-8", "surrogatepass")) > MAX_FILE_BYTES:
         return _failed(source, f"text is over the limit of {MAX_FILE_BYTES:,} bytes")
+    content = content.removeprefix("\ufeff")  # a byte-order mark some editors write
     if not content.strip():
         return _failed(source, "file is empty")
     try:
@@ -82,24 +100,41 @@ def read_ruleset_text(content: str, source: str = "<text>") -> LoadResult:
         return _failed(source, f"not valid TOML: {error}")
     except RecursionError:
         return _failed(source, "not valid TOML: nested too deeply")
-    problems: list[Problem] = []
-    ruleset = _Reader(source, problems).read(document)
+    problems = document_problems(document, source)
+    if problems:
+        return LoadResult(None, tuple(problems))
+    reader = _Reader(source, problems, params)
+    ruleset = reader.read(document)
     if ruleset is not None:
         from oddsbench.model.validate import validate
 
-        problems.extend(validate(ruleset))
+        problems.extend(family_origin(problem, reader.members) for problem in validate(ruleset))
     has_error = any(problem.is_error for problem in problems)
     return LoadResult(None if has_error else ruleset, tuple(problems))
 
 
-def load_ruleset(path: str | Path) -> Ruleset:
-    """Read a ruleset file or raise RulesetError with every problem."""
-    return _unwrap(read_ruleset_file(path))
+def family_origin(problem: Problem, members: dict[str, FamilyMember]) -> Problem:
+    """A problem in a state made by a family, with the family and index values added to its place."""
+    if not members or not problem.where.startswith("state '"):
+        return problem
+    name = problem.where[len("state '") :].split("'", 1)[0]
+    member = members.get(name)
+    if member is None:
+        return problem
+    index = ", ".join(f"{variable}={text(value)}" for variable, value in member.index)
+    place = f"state {name!r}"
+    where = problem.where.replace(place, f"{place} (family {member.family!r} at {index})", 1)
+    return Problem(problem.source, where, problem.message, problem.severity)
 
 
-def load_ruleset_text(content: str, source: str = "<text>") -> Ruleset:
-    """Read ruleset text or raise RulesetError with every problem."""
-    return _unwrap(read_ruleset_text(content, source))
+def load_ruleset(path: str | Path, params: ParamOverrides | None = None) -> Ruleset:
+    """Read a ruleset file (with optional parameter overrides) or raise RulesetError."""
+    return _unwrap(read_ruleset_file(path, params))
+
+
+def load_ruleset_text(content: str, source: str = "<text>", params: ParamOverrides | None = None) -> Ruleset:
+    """Read ruleset text (with optional parameter overrides) or raise RulesetError."""
+    return _unwrap(read_ruleset_text(content, source, params))
 
 
 def _unwrap(result: LoadResult) -> Ruleset:
@@ -113,9 +148,57 @@ def _failed(source: str, message: str) -> LoadResult:
 
 
 def describe_value(value: Any) -> str:
-    """A short echo of a field's value for messages: strings quoted, long ones cut."""
-    shown = f'"{value}"' if isinstance(value, str) else repr(value)
+    """A short echo of a field's value for messages: strings quoted (unprintable characters
+    escaped, so a file cannot send terminal control codes through a message), long ones cut."""
+    if isinstance(value, str):
+        shown = '"' + "".join(c if c.isprintable() else repr(c)[1:-1] for c in value[:80]) + '"'
+    else:
+        shown = repr(value)
     return shown if len(shown) <= 60 else shown[:57] + '..."'
+
+
+def _bad_character(value: str, multiline: bool) -> str | None:
+    """The first character a shared file must not carry: control codes (which can drive a
+    terminal) and the direction overrides that make text display in a different order."""
+    for character in value:
+        code = ord(character)
+        if character in "\t\n\r" and multiline:
+            continue
+        if code < 32 or 127 <= code < 160 or 0x202A <= code <= 0x202E or 0x2066 <= code <= 0x2069:
+            return f"U+{code:04X}"
+    return None
+
+
+def document_problems(document: dict[str, Any], source: str) -> list[Problem]:
+    """One walk over the raw document (no recursion): nesting depth and forbidden characters
+    in every key and text value, each named by its dotted path."""
+    problems: list[Problem] = []
+    pending: list[tuple[str, Any, int]] = [("", document, 0)]
+    while pending:
+        path, value, depth = pending.pop()
+        if depth > MAX_NESTING:
+            problems.append(Problem(source, path[:120], f"nested more than {MAX_NESTING} levels deep"))
+            continue
+        if isinstance(value, dict):
+            for key, item in value.items():
+                step = f"{path}.{_path_key(key)}" if path else _path_key(key)
+                bad = _bad_character(key, multiline=False)
+                if bad:
+                    problems.append(Problem(source, step, f"the name contains the control character {bad}"))
+                    continue
+                pending.append((step, item, depth + 1))
+        elif isinstance(value, list):
+            pending.extend((f"{path}[{index}]", item, depth + 1) for index, item in enumerate(value, start=1))
+        elif isinstance(value, str):
+            bad = _bad_character(value, multiline=True)
+            if bad:
+                problems.append(Problem(source, path, f"contains the control character {bad}"))
+    return sorted(problems, key=lambda problem: problem.where)
+
+
+def _path_key(key: str) -> str:
+    plain = key.replace("-", "").replace("_", "").isalnum() and key.isascii()
+    return key if plain else shown_name(key)
 
 
 def type_name(value: Any) -> str:
@@ -132,10 +215,13 @@ def type_name(value: Any) -> str:
 class _Reader:
     """One pass over the TOML document; records problems instead of raising."""
 
-    def __init__(self, source: str, problems: list[Problem]) -> None:
+    def __init__(self, source: str, problems: list[Problem], overrides: ParamOverrides | None = None) -> None:
         self.source = source
         self.problems = problems
         self.params: dict[str, Rational] = {}
+        self.failed_params: set[str] = set()
+        self.members: dict[str, FamilyMember] = {}
+        self.overrides = dict(overrides or {})
 
     def error(self, where: str, message: str) -> None:
         self.problems.append(Problem(self.source, where, message))
@@ -146,7 +232,7 @@ class _Reader:
     def unknown_keys(self, table: dict[str, Any], known: frozenset[str], where: str) -> None:
         for key in table:
             if key not in known:
-                self.warn(where, f"unknown field {key!r} is ignored")
+                self.warn(where, f"unknown field {shown_name(key)} is ignored")
 
     def value(self, raw: Any, where: str, env: dict[str, Rational] | None = None) -> Rational | None:
         """An exact value from a TOML integer or an expression string; None after an error."""
@@ -156,13 +242,21 @@ class _Reader:
         if isinstance(raw, int):
             return QQ(raw)
         if isinstance(raw, float):
-            self.error(where, f'write decimals in quotes ("{raw}") so they stay exact')
+            if raw != raw or raw in (float("inf"), float("-inf")):
+                self.error(where, f"must be a finite number, not {raw}")
+            else:
+                self.error(where, f'write decimals in quotes ("{raw}") so they stay exact')
             return None
         if not isinstance(raw, str):
             self.error(where, f"must be a number or an expression in quotes, not {type_name(raw)}")
             return None
         try:
-            return evaluate(parse(raw), self.params if env is None else env)
+            tree = parse(raw)
+            broken = sorted(names_in(tree) & self.failed_params)
+            if broken:
+                self.error(where, f"uses parameter {shown_name(broken[0])}, which has an error")
+                return None
+            return evaluate(tree, self.params if env is None else env)
         except ExpressionError as error:
             self.error(where, str(error))
             return None
@@ -188,12 +282,19 @@ class _Reader:
             self.error("", "missing [ruleset] table" if head is None else "[ruleset] must be a table")
             head = {}
         self.unknown_keys(head, RULESET_KEYS, "[ruleset]")
+        version = head.get("version", FORMAT_VERSION)
+        if isinstance(version, bool) or version != FORMAT_VERSION:
+            self.error(
+                "[ruleset], version",
+                f"format version {describe_value(version)} is not supported (this oddsbench reads version "
+                f"{FORMAT_VERSION})",
+            )
         title = self.text_field(head, "title", "[ruleset]", required=True)
         about = self.text_field(head, "about", "[ruleset]", required=False) or ""
         start = self.text_field(head, "start", "[ruleset]", required=True)
         stake = self.value(head.get("stake", 1), "[ruleset], stake")
-        if stake is not None and stake <= 0:
-            self.error("[ruleset], stake", f"must be more than 0, got {text(stake)}")
+        if stake is not None and stake < 0:
+            self.error("[ruleset], stake", f"cannot be negative, got {text(stake)}")
         self.read_params(document.get("params", {}))
         states = self.read_states(document)
         strategies = self.read_strategies(document.get("strategies", {}))
@@ -220,17 +321,32 @@ class _Reader:
             self.error("[params]", f"must be a table, not {type_name(raw)}")
             return
         for name, value in raw.items():
-            where = f"param {name!r}"
+            where = f"param {shown_name(name)}"
+            if len(name) > MAX_NAME_LENGTH:
+                self.error(where, f"name longer than {MAX_NAME_LENGTH} characters")
+                continue
             try:
                 parse(name)
                 if set(names_in(parse(name))) != {name}:
                     raise ExpressionError("not a plain name")
             except ExpressionError:
-                self.error(where, "a parameter name must be letters, digits and _ (not starting with a digit)")
+                rule = "letters, digits and _ (not starting with a digit or '__')"
+                self.error(where, f"a parameter name must be {rule}")
+                continue
+            if name in self.overrides:
+                self.params[name] = self.overrides[name]
                 continue
             result = self.value(value, where)
-            if result is not None:
+            if result is None:
+                self.failed_params.add(name)
+            else:
                 self.params[name] = result
+        for name in self.overrides:
+            if name not in raw:
+                known = ", ".join(repr(key) for key in raw) or "none"
+                self.error(
+                    f"param {name!r}", f"cannot be set: the file has no such parameter (its parameters: {known})"
+                )
 
     def read_states(self, document: dict[str, Any]) -> list[State]:
         raw_states = document.get("states")
@@ -239,11 +355,26 @@ class _Reader:
         if not isinstance(raw_states, dict):
             self.error("[states]", f"must be a table, not {type_name(raw_states)}")
             return []
-        tables: dict[str, Any] = dict(raw_states)
+        tables: dict[str, Any] = {}
+        for name, table in raw_states.items():
+            if uses_family_outcomes(table):
+                table = expand_plain_state(name, table, self.source, self.problems, self.params)
+                if table is None:
+                    continue
+            tables[name] = table
+        expansion = expand_families(document, self.source, self.problems, self.params)
+        self.members = expansion.members
+        for name, table in expansion.tables.items():
+            if name in tables:
+                self.error(
+                    f"state {name!r}", f"defined twice (by hand and by family {expansion.members[name].family!r})"
+                )
+                continue
+            tables[name] = table
         for expand in STATE_EXPANDERS:
             for name, table in expand(document, self.source, self.problems, self.params).items():
                 if name in tables:
-                    self.error(f"state {name!r}", "defined twice (by hand and by a family)")
+                    self.error(f"state {shown_name(name)}", "defined twice (by hand and by a family)")
                     continue
                 tables[name] = table
         if not tables:
@@ -251,18 +382,21 @@ class _Reader:
         return [state for name, table in tables.items() if (state := self.read_state(name, table))]
 
     def read_state(self, name: str, table: Any) -> State | None:
-        where = f"state {name!r}"
+        where = f"state {shown_name(name)}"
         if not name.strip():
             self.error(where, "a state name must not be blank")
             return None
         if len(name) > MAX_NAME_LENGTH:
-            self.error(f"state {name[:40]!r}...", f"name longer than {MAX_NAME_LENGTH} characters")
+            self.error(where, f"name longer than {MAX_NAME_LENGTH} characters")
             return None
         if not isinstance(table, dict):
             self.error(where, f"must be a table, not {type_name(table)}")
             return None
         self.unknown_keys(table, STATE_KEYS, where)
         result = self.text_field(table, "result", where, required=False)
+        if result is not None and len(result) > MAX_NAME_LENGTH:
+            self.error(f"{where}, result", f"longer than {MAX_NAME_LENGTH} characters")
+            return None
         outcomes: tuple[Outcome, ...] = ()
         choices: list[tuple[str, tuple[Outcome, ...]]] = []
         if "outcomes" in table and "choices" in table:
@@ -278,7 +412,11 @@ class _Reader:
                 self.error(f"{where}, choices", "must be a table of action = [outcomes]")
                 return None
             for action, raw in raw_choices.items():
-                listed = self.read_outcomes(raw, f"{where}, choice {action!r}", f"choices.{action}")
+                if len(action) > MAX_NAME_LENGTH:
+                    too_long = f"name longer than {MAX_NAME_LENGTH} characters"
+                    self.error(f"{where}, choice {shown_name(action)}", too_long)
+                    return None
+                listed = self.read_outcomes(raw, f"{where}, choice {shown_name(action)}", "outcomes")
                 if listed:
                     choices.append((action, listed))
         return State(name=name, outcomes=outcomes, choices=tuple(choices), result=result)
@@ -301,6 +439,9 @@ class _Reader:
                 failed = True
             elif not isinstance(item["to"], str):
                 self.error(f"{place}, to", f"must be a state name in quotes, not {type_name(item['to'])}")
+                failed = True
+            elif len(item["to"]) > MAX_NAME_LENGTH:
+                self.error(f"{place}, to", f"state name longer than {MAX_NAME_LENGTH} characters")
                 failed = True
             prob = None
             if "prob" in item:
@@ -359,19 +500,31 @@ class _Reader:
             return []
         strategies = []
         for name, table in raw.items():
-            where = f"strategy {name!r}"
+            where = f"strategy {shown_name(name)}"
+            if len(name) > MAX_NAME_LENGTH:
+                self.error(where, f"name longer than {MAX_NAME_LENGTH} characters")
+                continue
             if not isinstance(table, dict):
                 self.error(where, f'must be a table of state = "action", not {type_name(table)}')
                 continue
             actions = []
             default = None
+            rules = table.get("rules")
             for state_name, action in table.items():
+                if state_name == "rules":
+                    continue
                 if not isinstance(action, str):
-                    self.error(f"{where}, {state_name}", f"action must be text, not {type_name(action)}")
+                    self.error(f"{where}, {shown_name(state_name)}", f"action must be text, not {type_name(action)}")
+                    continue
+                if len(action) > MAX_NAME_LENGTH or len(state_name) > MAX_NAME_LENGTH:
+                    self.error(f"{where}, {shown_name(state_name)}", f"name longer than {MAX_NAME_LENGTH} characters")
                     continue
                 if state_name == "default":
                     default = action
                 else:
                     actions.append((state_name, action))
+            if rules is not None:
+                explicit = {state_name for state_name, _ in actions}
+                actions += rule_actions(rules, where, self.members, self.params, explicit, self.problems, self.source)
             strategies.append(Strategy(name=name, actions=tuple(actions), default=default))
         return strategies

@@ -12,7 +12,7 @@ from sympy.polys.domains import QQ, ZZ
 
 Rational = Any  # an element of QQ (flint.fmpq or sympy's PythonMPQ, depending on ground types)
 
-__all__ = ["QQ", "ZZ", "Rational", "bit_size", "is_integer", "to_int", "to_float", "text", "parse_fraction"]
+__all__ = ["QQ", "ZZ", "Rational", "bit_size", "int_text", "is_integer", "to_int", "to_float", "text", "parse_fraction"]
 
 
 def numerator(value: Rational) -> int:
@@ -44,16 +44,46 @@ def to_float(value: Rational) -> float:
         return float("inf") if value > 0 else float("-inf")
 
 
+def int_text(value: int) -> str:
+    """Decimal digits of any integer. Python refuses ``str`` of ints over 4,300 digits (a guard
+    against slow conversion); FLINT's conversion is fast and has no such limit."""
+    if value.bit_length() < 13_000:  # under 3,900 digits: well inside Python's limit
+        return str(value)
+    from flint import fmpz
+
+    return str(fmpz(value))
+
+
+def log10_abs(value: Rational) -> float:
+    """log10 |value| (value not 0) from the integers, so it works far outside the float range."""
+    return _log10_int(abs(numerator(value))) - _log10_int(denominator(value))
+
+
+def _log10_int(value: int) -> float:
+    import math
+
+    shift = max(value.bit_length() - 64, 0)
+    return math.log10(value >> shift) + shift * math.log10(2)
+
+
 def text(value: Rational) -> str:
     """Exact text: ``7/495``, ``-1``, ``0``."""
     p, q = numerator(value), denominator(value)
-    return str(p) if q == 1 else f"{p}/{q}"
+    return int_text(p) if q == 1 else f"{int_text(p)}/{int_text(q)}"
 
 
 def parse_fraction(value: str) -> Rational:
     """Inverse of ``text`` for trusted machine output (integers and a/b only)."""
     top, _, bottom = value.partition("/")
-    return QQ(int(top), int(bottom or "1"))
+    return QQ(_int_from_text(top), _int_from_text(bottom or "1"))
+
+
+def _int_from_text(digits: str) -> int:
+    if len(digits) < 4000:
+        return int(digits)
+    from flint import fmpz
+
+    return int(fmpz(digits.strip()))
 
 
 def from_int(value: int) -> Rational:

@@ -9,6 +9,8 @@ from oddsbench.model.numbers import QQ, text
 from oddsbench.model.ruleset import Outcome, Ruleset, State
 
 MAX_LISTED_STATES = 8
+MAX_SUGGESTIONS = 20
+MAX_NAMES_TO_SUGGEST_FROM = 5_000
 
 
 def validate(ruleset: Ruleset) -> list[Problem]:
@@ -23,18 +25,25 @@ def validate(ruleset: Ruleset) -> list[Problem]:
         problems.append(Problem(source, where, message, "warning"))
 
     names = set(ruleset.state_names)
+    suggest = _Suggester(names)
     if ruleset.start and ruleset.start not in names:
-        error("[ruleset], start", f"unknown state {ruleset.start!r}{_suggest(ruleset.start, names)}")
+        error("[ruleset], start", f"unknown state {ruleset.start!r}{suggest(ruleset.start)}")
     for state in ruleset.states:
         for label, outcomes in _outcome_lists(state):
             where = f"state {state.name!r}{label}"
             for index, outcome in enumerate(outcomes, start=1):
                 if outcome.to not in names:
-                    error(f"{where}, outcome {index}, to", f"unknown state {outcome.to!r}{_suggest(outcome.to, names)}")
+                    error(f"{where}, outcome {index}, to", f"unknown state {outcome.to!r}{suggest(outcome.to)}")
             total = sum((outcome.prob for outcome in outcomes), QQ(0))
             if total != 1:
                 error(where, f"probabilities sum to {text(total)}, not 1")
     problems.extend(_check_strategies(ruleset))
+    for first, second in look_alike_names(ruleset.state_names):
+        warn(
+            f"state {second!r}",
+            f"looks like state {first!r} ({ascii(second)} and {ascii(first)} differ only in case, width or "
+            "the encoding of accents)",
+        )
     if any(problem.is_error for problem in problems) or not ruleset.start:
         return problems
 
@@ -42,14 +51,32 @@ def validate(ruleset: Ruleset) -> list[Problem]:
     reachable = reachable_from(ruleset.start, graph)
     ends = {state.name for state in ruleset.states if state.is_end}
     can_end = reaching(ends, graph)
+    position = {name: i for i, name in enumerate(ruleset.state_names)}
     for trapped_set in trapped_sets(reachable - can_end, graph):
-        shown = _listing(sorted(trapped_set, key=ruleset.state_names.index))
-        first = min(trapped_set, key=ruleset.state_names.index)
-        error(f"state {first!r}", f"the round can never end from here: trapped in {{{shown}}}")
+        ordered = sorted(trapped_set, key=position.__getitem__)
+        error(f"state {ordered[0]!r}", f"the round can never end from here: trapped in {{{_listing(ordered)}}}")
+    if ruleset.state(ruleset.start).is_end:
+        warn("[ruleset], start", f"the start state {ruleset.start!r} is an end state, so a round ends at once")
     unreachable = [name for name in ruleset.state_names if name not in reachable]
     if unreachable:
         warn("", f"unreachable from start {ruleset.start!r}: {_listing(unreachable)}")
     return problems
+
+
+def look_alike_names(names: Iterable[str]) -> list[tuple[str, str]]:
+    """Pairs of distinct names that read the same (Unicode compatibility form, case folded):
+    in a shared file, 'Won' beside 'won' or a composed beside a decomposed 'é' is a trap."""
+    import unicodedata
+
+    seen: dict[str, str] = {}
+    pairs = []
+    for name in names:
+        key = unicodedata.normalize("NFKC", name).casefold()
+        if key in seen and seen[key] != name:
+            pairs.append((seen[key], name))
+        else:
+            seen.setdefault(key, name)
+    return pairs
 
 
 def _outcome_lists(state: State) -> Iterable[tuple[str, tuple[Outcome, ...]]]:
@@ -97,17 +124,61 @@ def reaching(targets: set[str], graph: Mapping[str, set[str]]) -> set[str]:
 
 
 def trapped_sets(stuck: set[str], graph: Mapping[str, set[str]]) -> list[set[str]]:
-    """The closed classes the stuck states fall into (bottom strongly connected components)."""
-    closed: list[set[str]] = []
-    assigned: set[str] = set()
-    for name in sorted(stuck):
-        if name in assigned:
-            continue
-        component = reachable_from(name, graph)
-        if all(name in reachable_from(member, graph) for member in component):
+    """The closed classes the stuck states fall into (bottom strongly connected components),
+    in order of their first member by name. Every successor of a stuck state is stuck, so
+    the components are found within ``stuck`` alone, in linear time."""
+    components = strongly_connected(sorted(stuck), lambda name: graph.get(name, ()))
+    closed = []
+    for component in components:
+        if all(target in component for name in component for target in graph.get(name, ())):
             closed.append(component)
-            assigned |= component
-    return closed
+    return sorted(closed, key=min)
+
+
+def strongly_connected(nodes: Iterable[str], successors) -> list[set[str]]:
+    """Tarjan's strongly connected components with an explicit stack (chains of a hundred
+    thousand states must not hit the interpreter's recursion limit)."""
+    index: dict[str, int] = {}
+    low: dict[str, int] = {}
+    on_stack: set[str] = set()
+    stack: list[str] = []
+    components: list[set[str]] = []
+    for root in nodes:
+        if root in index:
+            continue
+        work = [(root, iter(successors(root)))]
+        index[root] = low[root] = len(index)
+        stack.append(root)
+        on_stack.add(root)
+        while work:
+            node, children = work[-1]
+            advanced = False
+            for child in children:
+                if child not in index:
+                    index[child] = low[child] = len(index)
+                    stack.append(child)
+                    on_stack.add(child)
+                    work.append((child, iter(successors(child))))
+                    advanced = True
+                    break
+                if child in on_stack:
+                    low[node] = min(low[node], index[child])
+            if advanced:
+                continue
+            work.pop()
+            if work:
+                parent = work[-1][0]
+                low[parent] = min(low[parent], low[node])
+            if low[node] == index[node]:
+                component = set()
+                while True:
+                    member = stack.pop()
+                    on_stack.discard(member)
+                    component.add(member)
+                    if member == node:
+                        break
+                components.append(component)
+    return components
 
 
 def _check_strategies(ruleset: Ruleset) -> list[Problem]:
@@ -128,21 +199,30 @@ def _check_strategies(ruleset: Ruleset) -> list[Problem]:
                         f"unknown action {action!r} (choose from {', '.join(state.actions)})",
                     )
                 )
+        missing: list[str] = []
+        not_offered: list[str] = []
+        named = {name for name, _ in strategy.actions}
         for state in decision_states.values():
             action = strategy.action_for(state)
             if action is None:
-                problems.append(
-                    Problem(ruleset.source, where, f"no action for decision state {state.name!r} and no default")
+                missing.append(state.name)
+            elif action not in state.actions and state.name not in named:
+                not_offered.append(state.name)
+        if missing:
+            # One line for all of them: a family can make hundreds of decision states.
+            problems.append(
+                Problem(ruleset.source, where, f"no action and no default for decision state(s) {_listing(missing)}")
+            )
+        if not_offered:
+            first = decision_states[not_offered[0]]
+            problems.append(
+                Problem(
+                    ruleset.source,
+                    f"{where}, default",
+                    f"action {strategy.default!r} is not offered in state(s) {_listing(not_offered)} "
+                    f"(in {first.name!r} choose from {', '.join(first.actions)})",
                 )
-            elif action not in state.actions and all(name != state.name for name, _ in strategy.actions):
-                problems.append(
-                    Problem(
-                        ruleset.source,
-                        f"{where}, default",
-                        f"action {action!r} is not offered in state {state.name!r} "
-                        f"(choose from {', '.join(state.actions)})",
-                    )
-                )
+            )
     return problems
 
 
@@ -152,8 +232,19 @@ def _listing(names: list[str]) -> str:
     return shown + (f" and {more} more" if more > 0 else "")
 
 
-def _suggest(name: str, names: set[str]) -> str:
-    import difflib
+class _Suggester:
+    """'Did you mean' for unknown names, bounded: fuzzy matching costs time per known name,
+    so a hostile file with thousands of bad targets gets only the first few suggestions."""
 
-    close = difflib.get_close_matches(name, sorted(names), n=1)
-    return f" (did you mean {close[0]!r}?)" if close else ""
+    def __init__(self, names: set[str]) -> None:
+        self.names = sorted(names) if len(names) <= MAX_NAMES_TO_SUGGEST_FROM else []
+        self.left = MAX_SUGGESTIONS
+
+    def __call__(self, name: str) -> str:
+        if self.left <= 0 or not self.names:
+            return ""
+        self.left -= 1
+        import difflib
+
+        close = difflib.get_close_matches(name, self.names, n=1)
+        return f" (did you mean {close[0]!r}?)" if close else ""

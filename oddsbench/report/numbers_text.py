@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import math
 
-from oddsbench.model.numbers import Rational, denominator, numerator, text
+from oddsbench.model.numbers import Rational, denominator, int_text, numerator, text
 
 MAX_EXACT_WIDTH = 40
 SIGNIFICANT = 6
@@ -22,7 +22,7 @@ def exact_text(value: Rational | None, width: int | None = MAX_EXACT_WIDTH) -> s
 
 
 def _short_int(value: int) -> str:
-    digits = str(abs(value))
+    digits = int_text(abs(value))
     sign = "-" if value < 0 else ""
     if len(digits) <= 14:
         return sign + digits

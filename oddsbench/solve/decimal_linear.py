@@ -7,6 +7,10 @@ from scipy.sparse import csc_matrix, identity
 from scipy.sparse.linalg import splu
 
 
+class FloatSingular(ArithmeticError):
+    """I - Q is singular in floating point though not exactly: some stay-probability rounds to 1."""
+
+
 class DecimalSparseLU:
     """Factor I - Q once (Q given as a sparse matrix), then solve many right-hand sides."""
 
@@ -14,7 +18,10 @@ class DecimalSparseLU:
         size = q_matrix.shape[0]
         self.size = size
         system = csc_matrix(identity(size, format="csc") - q_matrix)
-        self._lu = splu(system) if size else None
+        try:
+            self._lu = splu(system) if size else None
+        except RuntimeError as error:  # SuperLU: "Factor is exactly singular"
+            raise FloatSingular(str(error)) from None
 
     def solve(self, rhs: np.ndarray) -> np.ndarray:
         rhs = np.asarray(rhs, dtype=float)

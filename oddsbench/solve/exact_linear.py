@@ -22,11 +22,25 @@ class SolveCancelled(Exception):
     """Raised inside a solve when its cancel check says stop."""
 
 
+class ExactTooLarge(OddsbenchError):
+    """The exact factors would outgrow the size limit; callers fall back to decimals only."""
+
+
+def _bits(value: Rational) -> int:
+    return QQ.numer(value).bit_length() + QQ.denom(value).bit_length()
+
+
 class ExactSparseLU:
     """Factor once, then solve for as many right-hand sides as needed."""
 
-    def __init__(self, rows: Sequence[Row], should_stop: Callable[[], bool] | None = None) -> None:
+    def __init__(
+        self, rows: Sequence[Row], should_stop: Callable[[], bool] | None = None, max_bits: int | None = None
+    ) -> None:
+        """``max_bits`` bounds an estimate of the factors' size (stored numbers times the
+        pivot's bits), checked row by row, so a chain whose rationals or fill-in explode stops
+        early with ExactTooLarge instead of exhausting memory."""
         size = len(rows)
+        stored_bits = 0
         self.size = size
         self.lower: list[list[tuple[int, Rational]]] = []
         self.upper: list[list[tuple[int, Rational]]] = []
@@ -54,6 +68,13 @@ class ExactSparseLU:
             if pivot == 0:
                 raise OddsbenchError("the first-step system is singular: some state cannot reach an end")
             kept = {j: v for j, v in row.items() if v != 0}
+            if max_bits is not None:
+                stored_bits += (len(kept) + len(multipliers) + 1) * _bits(pivot)
+                if stored_bits > max_bits:
+                    raise ExactTooLarge(
+                        f"the exact factors reach about {stored_bits:,} bits at state {i + 1:,} of {size:,}, "
+                        f"over the exact size limit of {max_bits:,} bits (raise it with --exact-bits)"
+                    )
             upper_maps.append(kept)
             self.lower.append(multipliers)
             self.upper.append(sorted(kept.items()))

@@ -8,20 +8,26 @@ truth, their decimals are what is shown, and the float engine is checked against
 
 from __future__ import annotations
 
+import math
 from collections.abc import Callable
 from dataclasses import dataclass, field
 
 import numpy as np
 
 from oddsbench.chain.round_chain import RoundChain
-from oddsbench.model.numbers import QQ, Rational, to_float
-from oddsbench.solve.decimal_linear import DecimalSparseLU, q_matrix_from_rows
-from oddsbench.solve.exact_linear import ExactSparseLU, identity_minus
+from oddsbench.model.errors import OddsbenchError
+from oddsbench.model.limits import DEFAULT_EXACT_BITS
+from oddsbench.model.numbers import QQ, Rational, log10_abs, to_float
+from oddsbench.solve.decimal_linear import DecimalSparseLU, FloatSingular, q_matrix_from_rows
+from oddsbench.solve.exact_linear import ExactSparseLU, ExactTooLarge, identity_minus
 
 DEFAULT_EXACT_LIMIT = 5_000
 DEFAULT_STEP_BUDGET = 20_000_000
 RELATIVE_TOLERANCE = 1e-9
 ZERO_TOLERANCE = 1e-12
+NEAR_SINGULAR = 1e7  # condition number past which the float engine may lose 7 of its 16 digits
+FLOAT_TINY = 2.2250738585072014e-308  # smallest normal float; below it values are underflow
+UNRELIABLE_TINY = 1e-300
 
 FIGURE_ORDER = (
     "expected_net",
@@ -32,6 +38,9 @@ FIGURE_ORDER = (
     "expected_steps",
     "steps_variance",
 )
+
+
+STAKE_RATIOS = frozenset({"house_edge", "return_to_player"})
 
 
 @dataclass(frozen=True)
@@ -73,6 +82,7 @@ class _Moments:
     net_second: object
     steps: object
     steps_second: object
+    condition: float = 1.0
 
 
 def solve_round(
@@ -80,18 +90,41 @@ def solve_round(
     rounds: int | None = None,
     exact_limit: int = DEFAULT_EXACT_LIMIT,
     should_stop: Callable[[], bool] | None = None,
+    exact_bits: int | None = DEFAULT_EXACT_BITS,
 ) -> RoundFigures:
     """Solve a round chain both ways and collect figures, notes and checks."""
     notes: list[str] = []
     exact = None
     if chain.transient_count <= exact_limit:
-        exact = _exact_moments(chain, should_stop)
+        try:
+            exact = _exact_moments(chain, should_stop, exact_bits)
+        except ExactTooLarge as error:
+            notes.append(f"exact arithmetic stopped: {error}; decimals are from the float engine")
     else:
         notes.append(
             f"exact arithmetic skipped: {chain.transient_count:,} transient states exceed the exact "
             f"limit of {exact_limit:,} (raise it with --exact-limit); decimals are from the float engine"
         )
-    decimal = _decimal_moments(chain)
+    try:
+        decimal = _decimal_moments(chain)
+    except FloatSingular:
+        if exact is None:
+            raise OddsbenchError(
+                f"{chain.title}: the float engine cannot solve this chain (a probability of staying is so close "
+                "to 1 that it rounds to 1) and exact arithmetic was not done (raise --exact-limit)"
+            ) from None
+        notes.append(
+            "the float engine cannot solve this chain (a probability of staying rounds to 1 in floating "
+            "point); every decimal shown is derived from the exact value"
+        )
+        decimal = _floats_of(exact)
+    if decimal.condition > NEAR_SINGULAR:
+        lost = f"about {math.log10(decimal.condition):.0f}" if math.isfinite(decimal.condition) else "all"
+        notes.append(
+            f"near-singular system: condition number about {decimal.condition:.1e}, so the float engine may "
+            f"lose {lost} of its 16 digits; "
+            + ("the exact values stand" if exact is not None else "no exact values to check (raise --exact-limit)")
+        )
     figures, ends = _figures(chain, exact, decimal, notes)
     results = _by_result(chain, ends)
     by_step: dict[str, Figure] = {}
@@ -120,11 +153,21 @@ def _one_step(chain: RoundChain, weight: Callable) -> list:
     return totals
 
 
-def _exact_moments(chain: RoundChain, should_stop: Callable[[], bool] | None) -> _Moments | None:
+def _floats_of(exact: _Moments) -> _Moments:
+    return _Moments(
+        [to_float(value) for value in exact.end],
+        *(to_float(value) for value in (exact.net, exact.staked_extra, exact.net_second, exact.steps)),
+        to_float(exact.steps_second),
+    )
+
+
+def _exact_moments(
+    chain: RoundChain, should_stop: Callable[[], bool] | None, max_bits: int | None = DEFAULT_EXACT_BITS
+) -> _Moments | None:
     n = chain.transient_count
     if n == 0:
         return _Moments([QQ(1)], QQ(0), QQ(0), QQ(0), QQ(0), QQ(0))
-    lu = ExactSparseLU(identity_minus(chain.q_rows()), should_stop)
+    lu = ExactSparseLU(identity_minus(chain.q_rows()), should_stop, max_bits)
     end = [lu.solve(column)[0] for column in chain.end_columns()]
     net = lu.solve(_one_step(chain, lambda e: e.pay))
     extra = lu.solve(_one_step(chain, lambda e: e.stake))
@@ -162,7 +205,17 @@ def _decimal_moments(chain: RoundChain) -> _Moments:
     net, extra, steps = solved[:, ends_count], solved[:, ends_count + 1], solved[:, ends_count + 2]
     net_after = np.where(target < n, net[np.minimum(target, n - 1)], 0.0)
     second = lu.solve(np.column_stack([one_step(pay * pay + 2 * pay * net_after), 2 * steps - 1]))
-    return _Moments(list(solved[0, :ends_count]), net[0], extra[0], second[0, 0], steps[0], second[0, 1])
+    return _Moments(
+        list(solved[0, :ends_count]), net[0], extra[0], second[0, 0], steps[0], second[0, 1], _condition(rows, steps)
+    )
+
+
+def _condition(rows: list[dict[int, float]], steps: np.ndarray) -> float:
+    """The infinity-norm condition number of I - Q, at no extra cost: (I - Q)^-1 is non-negative,
+    so its norm is its largest row sum, which is the largest expected number of steps."""
+    norm = max(abs(1 - row.get(i, 0.0)) + sum(abs(v) for j, v in row.items() if j != i) for i, row in enumerate(rows))
+    largest = float(np.max(np.abs(steps))) if len(steps) else 1.0
+    return norm * largest if np.isfinite(largest) else float("inf")
 
 
 def _figures(chain: RoundChain, exact: _Moments | None, decimal: _Moments, notes: list[str]):
@@ -175,21 +228,32 @@ def _figures(chain: RoundChain, exact: _Moments | None, decimal: _Moments, notes
         "expected_steps": decimal.steps,
         "steps_variance": decimal.steps_second - decimal.steps**2,
     }
-    values_decimal["house_edge"] = -values_decimal["expected_net"] / values_decimal["expected_staked"]
-    values_decimal["return_to_player"] = 1 - values_decimal["house_edge"]
+    if exact is not None:
+        nothing_staked = stake_exact + exact.staked_extra == 0
+    else:
+        nothing_staked = stake + float(decimal.staked_extra) == 0.0
+    order = FIGURE_ORDER
+    if nothing_staked:
+        # A game of points with no wager (a turn at Pig): a house edge would divide by zero.
+        order = tuple(name for name in FIGURE_ORDER if name not in STAKE_RATIOS)
+        notes.append("nothing is staked in this round: house edge and return to player do not apply")
+    else:
+        values_decimal["house_edge"] = -values_decimal["expected_net"] / values_decimal["expected_staked"]
+        values_decimal["return_to_player"] = 1 - values_decimal["house_edge"]
     values_exact: dict[str, Rational | None] = dict.fromkeys(FIGURE_ORDER)
     if exact is not None:
         staked = stake_exact + exact.staked_extra
         values_exact = {
             "expected_net": exact.net,
             "expected_staked": staked,
-            "house_edge": -exact.net / staked,
-            "return_to_player": 1 + exact.net / staked,
             "net_variance": exact.net_second - exact.net**2,
             "expected_steps": exact.steps,
             "steps_variance": exact.steps_second - exact.steps**2,
         }
-    figures = {name: _checked(name, values_exact[name], values_decimal[name], notes) for name in FIGURE_ORDER}
+        if not nothing_staked:
+            values_exact["house_edge"] = -exact.net / staked
+            values_exact["return_to_player"] = 1 + exact.net / staked
+    figures = {name: _checked(name, values_exact[name], values_decimal[name], notes) for name in order}
     ends = {
         name: _checked(f"end_probability[{name}]", exact.end[j] if exact else None, decimal.end[j], notes)
         for j, name in enumerate(chain.ends)
@@ -203,8 +267,21 @@ def _checked(name: str, exact: Rational | None, decimal: float, notes: list[str]
     if exact is None:
         if not np.isfinite(decimal):
             notes.append(f"{name}: the float engine gave {decimal}; no exact value to fall back on")
+        elif decimal != 0 and abs(decimal) < UNRELIABLE_TINY:
+            notes.append(
+                f"{name}: the float engine gives {decimal:.3g}, so small that floating point is unreliable "
+                "(underflow); raise --exact-limit for the exact value"
+            )
+        elif name.startswith("end_probability") and decimal < 0:
+            notes.append(f"{name}: the float engine gives a negative chance ({decimal:.3g}): rounding error")
         return Figure(None, decimal)
     truth = to_float(exact)
+    if exact != 0 and abs(truth) < FLOAT_TINY:
+        notes.append(
+            f"{name}: the exact value is about 1e{log10_abs(exact):.0f}, below the floating-point range; the float "
+            f"engine gives {decimal!r} (underflow); the exact value stands"
+        )
+        return Figure(exact, truth)
     gap = abs(decimal - truth)
     limit = RELATIVE_TOLERANCE * abs(truth) if truth != 0 else ZERO_TOLERANCE
     if not np.isfinite(decimal) or gap > limit:

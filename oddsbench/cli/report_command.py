@@ -1,0 +1,69 @@
+"""``oddsbench report FILE``: a shareable report (Markdown, CSV or JSON), written atomically."""
+
+from __future__ import annotations
+
+import argparse
+import sys
+from pathlib import Path
+
+from oddsbench.cli.options import add_exact_limit, positive_int
+
+DEFAULT_EXACT_LIMIT = 5_000
+FORMATS = ("md", "csv", "json")
+SUFFIXES = {".md": "md", ".markdown": "md", ".csv": "csv", ".json": "json"}
+
+
+def register(commands) -> None:
+    parser = commands.add_parser(
+        "report",
+        help="write a shareable report: every figure exact and decimal, ruleset, sources, cautions",
+        description="Solve a ruleset and write every figure of a round (and of each named "
+        "strategy, side by side) exactly and in decimals, with the ruleset echoed, the sources of "
+        "the method and the cautions. The file is written whole or not at all; an existing file "
+        "is kept unless --force.",
+    )
+    parser.add_argument("file", help="ruleset file (TOML)")
+    parser.add_argument(
+        "--format", choices=FORMATS, help="md, csv or json (default: from the --output suffix, else md)"
+    )
+    parser.add_argument("--output", "-o", metavar="PATH", help="file to write (default: print to the terminal)")
+    parser.add_argument("--force", action="store_true", help="replace an existing output file")
+    parser.add_argument(
+        "--strategy",
+        action="append",
+        default=[],
+        metavar="NAME",
+        help="report this named strategy (repeat for several; default: every strategy in the file)",
+    )
+    parser.add_argument("--rounds", type=positive_int, metavar="N", help="also the chances of having ended by step N")
+    add_exact_limit(parser, DEFAULT_EXACT_LIMIT)
+    parser.set_defaults(run=run)
+
+
+def chosen_format(requested: str | None, output: str | None) -> str:
+    if requested:
+        return requested
+    if output:
+        return SUFFIXES.get(Path(output).suffix.lower(), "md")
+    return "md"
+
+
+def run(args: argparse.Namespace) -> int:
+    from oddsbench.model.load import load_ruleset
+    from oddsbench.report.atomic_write import write_atomically
+    from oddsbench.report.document import build_report
+    from oddsbench.report.render_csv import render_csv
+    from oddsbench.report.render_json import render_json
+    from oddsbench.report.render_markdown import render_markdown
+
+    ruleset = load_ruleset(args.file)
+    content = Path(args.file).read_text(encoding="utf-8")
+    document = build_report(ruleset, content, args.strategy, args.rounds, args.exact_limit)
+    fmt = chosen_format(args.format, args.output)
+    rendered = {"md": render_markdown, "csv": render_csv, "json": render_json}[fmt](document)
+    if args.output is None:
+        sys.stdout.write(rendered)
+        return 0
+    path = write_atomically(args.output, rendered, force=args.force)
+    print(f"wrote {path} ({fmt}, {len(rendered.encode('utf-8')):,} bytes)")
+    return 0

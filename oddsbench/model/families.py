@@ -1,0 +1,593 @@
+"""Indexed families of states: one table in the file, many states once expanded.
+
+A game with a state per running total (Pig, a dealer's hand) would take hundreds of hand-written
+tables. A family writes them once::
+
+    [families.turn]
+    state = "turn-{t}"              # the name of each member; {...} holds an expression
+    index = { t = [0, 99] }         # whole-number ranges, both ends included
+    when = "t != 1"                 # optional: which index values give a member
+    choices.roll = [
+      { to = "pigged", prob = "1/6", pay = "-t" },
+      { each = { f = [2, 6] }, to = "turn-{t + f}", prob = "1/6", when = "t + f < 100" },
+    ]
+
+Index variables (and any ``each`` variables of an outcome) are names in the expression language,
+beside the file's ``[params]``. Everything goes through ``model/expr.py``; nothing is run as code.
+The expansion is bounded (``MAX_FAMILY_STATES``, ``MAX_FAMILY_OUTCOMES``) and every error names
+the family and the index values where it failed. The result is plain state tables, read by
+``model/load.py`` exactly as if written out by hand.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Iterator, Mapping
+from dataclasses import dataclass
+from typing import Any
+
+from oddsbench.model.errors import Problem
+from oddsbench.model.expr import ExpressionError, Node, evaluate, names_in, parse
+from oddsbench.model.numbers import Rational, is_integer, text, to_int
+
+MAX_FAMILY_STATES = 100_000
+MAX_FAMILY_OUTCOMES = 1_000_000
+MAX_INDEX_VARIABLES = 8
+MAX_FAMILY_COMBINATIONS = 2_000_000  # index values tried, kept or not: a filter cannot hide a hang
+
+FAMILY_KEYS = frozenset({"state", "index", "let", "when", "outcomes", "choices", "result", "about"})
+FAMILY_OUTCOME_KEYS = frozenset({"to", "prob", "pay", "stake", "note", "when", "each", "let"})
+CASE_KEYS = frozenset({"when", "to"})
+RULE_KEYS = frozenset({"family", "when", "action"})
+_RESERVED_NAMES = frozenset({"if", "then", "else", "and", "or", "not", "min", "max", "abs", "floor", "ceil"})
+
+
+class FamilyError(Exception):
+    """One failure inside a family; the message already names the family and index values."""
+
+
+class _TooManyCombinations(FamilyError):
+    """The combination budget ran out; re-raised with the family's name by the caller."""
+
+
+@dataclass(frozen=True)
+class FamilyMember:
+    """Which family a state came from and at which index values (used by strategy rules)."""
+
+    family: str
+    index: tuple[tuple[str, Rational], ...]
+
+
+@dataclass(frozen=True)
+class FamilyExpansion:
+    """Plain state tables from every family, and the family each came from."""
+
+    tables: dict[str, dict[str, Any]]
+    members: dict[str, FamilyMember]
+
+
+@dataclass(frozen=True)
+class _Template:
+    """Text with ``{expression}`` holes; ``{{`` and ``}}`` are literal braces."""
+
+    parts: tuple[str | Node, ...]
+    raw: str
+
+    def render(self, env: Mapping[str, Rational]) -> str:
+        pieces = []
+        for part in self.parts:
+            if isinstance(part, str):
+                pieces.append(part)
+                continue
+            value = evaluate(part, env)
+            if not is_integer(value):
+                raise ExpressionError(f"placeholder in {self.raw!r} gives {text(value)}, not a whole number")
+            pieces.append(str(to_int(value)))
+        return "".join(pieces)
+
+
+def parse_template(raw: str) -> _Template:
+    parts: list[str | Node] = []
+    literal: list[str] = []
+    i = 0
+    while i < len(raw):
+        char = raw[i]
+        if raw.startswith("{{", i) or raw.startswith("}}", i):
+            literal.append(char)
+            i += 2
+            continue
+        if char == "}":
+            raise ExpressionError(f"unmatched '}}' in {raw!r} (write '}}}}' for a literal brace)")
+        if char == "{":
+            end = raw.find("}", i + 1)
+            if end < 0:
+                raise ExpressionError(f"unclosed '{{' in {raw!r}")
+            if literal:
+                parts.append("".join(literal))
+                literal = []
+            parts.append(parse(raw[i + 1 : end]))
+            i = end + 1
+            continue
+        literal.append(char)
+        i += 1
+    if literal:
+        parts.append("".join(literal))
+    return _Template(tuple(parts), raw)
+
+
+@dataclass(frozen=True)
+class _Range:
+    name: str
+    low: Node | int
+    high: Node | int
+
+
+def _value_node(raw: Any, what: str) -> Node | int:
+    if isinstance(raw, float):
+        raise FamilyError(f'{what}: write decimals in quotes ("{raw}") so they stay exact')
+    if isinstance(raw, bool) or not isinstance(raw, int | str):
+        raise FamilyError(f"{what} must be a whole number or an expression in quotes, not {_type_name(raw)}")
+    if isinstance(raw, int):
+        return raw
+    try:
+        return parse(raw)
+    except ExpressionError as error:
+        raise FamilyError(f"{what} {raw!r}: {error}") from None
+
+
+def _whole(node: Node | int, env: Mapping[str, Rational], what: str) -> int:
+    if isinstance(node, int):
+        return node
+    value = evaluate(node, env)
+    if not is_integer(value):
+        raise ExpressionError(f"{what} is {text(value)}, not a whole number")
+    return to_int(value)
+
+
+def _ranges(raw: Any, what: str, taken: set[str]) -> list[_Range]:
+    if not isinstance(raw, dict) or not raw:
+        raise FamilyError(f"{what} must be a table of name = [low, high], e.g. {{ t = [0, 99] }}")
+    if len(raw) > MAX_INDEX_VARIABLES:
+        raise FamilyError(f"{what} has {len(raw)} variables, more than the limit of {MAX_INDEX_VARIABLES}")
+    ranges = []
+    for name, bounds in raw.items():
+        try:
+            plain = names_in(parse(name)) == {name}
+        except ExpressionError:
+            plain = False
+        if not plain or name in _RESERVED_NAMES:
+            raise FamilyError(f"{what}: {name!r} is not a usable variable name (letters, digits and _)")
+        if name in taken:
+            raise FamilyError(f"{what}: variable {name!r} is already a parameter or index variable")
+        if not isinstance(bounds, list) or len(bounds) != 2:
+            raise FamilyError(f"{what}, {name}: must be [low, high] (both included), not {bounds!r}")
+        low = _value_node(bounds[0], f"{what}, {name}, low end")
+        high = _value_node(bounds[1], f"{what}, {name}, high end")
+        ranges.append(_Range(name, low, high))
+        taken.add(name)
+    return ranges
+
+
+def _lets(raw: Any, what: str, taken: set[str]) -> list[tuple[str, Node]]:
+    """Named helper values, in order, each free to use the ones before it."""
+    if raw is None:
+        return []
+    if not isinstance(raw, dict):
+        raise FamilyError(f'{what} must be a table of name = "expression"')
+    lets = []
+    for name, expression in raw.items():
+        try:
+            plain = names_in(parse(name)) == {name}
+        except ExpressionError:
+            plain = False
+        if not plain or name in _RESERVED_NAMES:
+            raise FamilyError(f"{what}: {name!r} is not a usable name (letters, digits and _)")
+        if name in taken:
+            raise FamilyError(f"{what}: {name!r} is already a parameter or variable")
+        if not isinstance(expression, int | str) or isinstance(expression, bool):
+            raise FamilyError(f"{what}, {name}: must be an expression in quotes")
+        try:
+            lets.append((name, parse(str(expression))))
+        except ExpressionError as error:
+            raise FamilyError(f"{what}, {name} {expression!r}: {error}") from None
+        taken.add(name)
+    return lets
+
+
+def _with_lets(env: dict[str, Rational], lets: list[tuple[str, Node]]) -> dict[str, Rational]:
+    if not lets:
+        return env
+    env = dict(env)
+    for name, node in lets:
+        try:
+            env[name] = evaluate(node, env)
+        except ExpressionError as error:
+            raise ExpressionError(f"let {name}: {error}") from None
+    return env
+
+
+def _combinations(
+    ranges: list[_Range], env: dict[str, Rational], tried: list[int] | None = None
+) -> Iterator[dict[str, Rational]]:
+    """Every assignment of the index variables, the later ranges free to use the earlier values.
+    ``tried`` counts down the combinations left in the whole expansion (``when`` filters can
+    discard every one, so the count of members alone does not bound the time)."""
+    from oddsbench.model.numbers import QQ
+
+    if not ranges:
+        if tried is not None:
+            tried[0] -= 1
+            if tried[0] < 0:
+                raise _TooManyCombinations(
+                    f"index ranges give more than {MAX_FAMILY_COMBINATIONS:,} combinations to try (the limit)"
+                )
+        yield dict(env)
+        return
+    first, rest = ranges[0], ranges[1:]
+    low = _whole(first.low, env, f"low end of {first.name}")
+    high = _whole(first.high, env, f"high end of {first.name}")
+    for value in range(low, high + 1):
+        inner = dict(env)
+        inner[first.name] = QQ(value)
+        yield from _combinations(rest, inner, tried)
+
+
+def _fixed_count(ranges: list[_Range], params: Mapping[str, Rational]) -> int | None:
+    """How many combinations the ranges give, when no range depends on another (else None):
+    a hopeless expansion is refused at once, with its size, instead of after the budget runs out."""
+    count = 1
+    for item in ranges:
+        try:
+            low = _whole(item.low, params, "low end")
+            high = _whole(item.high, params, "high end")
+        except ExpressionError:
+            return None
+        count *= max(high - low + 1, 0)
+    return count
+
+
+def _where(env: Mapping[str, Rational], names: list[str]) -> str:
+    shown = ", ".join(f"{name}={text(env[name])}" for name in names if name in env)
+    return f" at {shown}" if shown else ""
+
+
+class _Outcome:
+    """One outcome table of a family, parsed once and rendered per index combination."""
+
+    def __init__(self, raw: Any, where: str, taken: set[str], warn) -> None:
+        if not isinstance(raw, dict):
+            raise FamilyError(f'{where}: must be a table like {{ to = "...", prob = "..." }}, not {_type_name(raw)}')
+        for key in raw:
+            if key not in FAMILY_OUTCOME_KEYS:
+                warn(where, f"unknown field {key!r} is ignored")
+        target = raw.get("to")
+        if not isinstance(target, str | list):
+            raise FamilyError(
+                f"{where}: needs 'to', a state name in quotes (with {{...}} placeholders) or a list of cases"
+            )
+        inner_taken = set(taken)
+        self.each = _ranges(raw["each"], f"{where}, each", inner_taken) if "each" in raw else []
+        self.lets = _lets(raw.get("let"), f"{where}, let", inner_taken)
+        try:
+            self.cases = self._cases(target, where)
+            self.note = parse_template(raw["note"]) if isinstance(raw.get("note"), str) else None
+            self.when = parse(raw["when"]) if "when" in raw else None
+        except ExpressionError as error:
+            raise FamilyError(f"{where}: {error}") from None
+        if "when" in raw and not isinstance(raw["when"], str):
+            raise FamilyError(f"{where}, when: must be a condition in quotes")
+        if "note" in raw and not isinstance(raw["note"], str):
+            raise FamilyError(f"{where}, note: must be text")
+        self.values = {key: _value_node(raw[key], f"{where}, {key}") for key in ("prob", "pay", "stake") if key in raw}
+        self.where = where
+
+    def render(self, env: dict[str, Rational], tried: list[int] | None = None) -> Iterator[dict[str, Any]]:
+        for inner in _combinations(self.each, env, tried):
+            try:
+                inner = _with_lets(inner, self.lets)
+                if self.when is not None and evaluate(self.when, inner) == 0:
+                    continue
+                target = self._target(inner)
+                if target is None:
+                    continue
+                table: dict[str, Any] = {"to": target}
+                for key, node in self.values.items():
+                    table[key] = node if isinstance(node, int) else text(evaluate(node, inner))
+                if self.note is not None:
+                    table["note"] = self.note.render(inner)
+            except ExpressionError as error:
+                shown = _where(inner, [r.name for r in self.each]).removeprefix(" at ")
+                raise ExpressionError(f"{shown}: {error}" if shown else str(error)) from None
+            yield table
+
+    @staticmethod
+    def _cases(target: str | list, where: str) -> list[tuple[Node | None, _Template]]:
+        if isinstance(target, str):
+            return [(None, parse_template(target))]
+        cases = []
+        for number, case in enumerate(target, start=1):
+            place = f"{where}, to, case {number}"
+            if not isinstance(case, dict) or not isinstance(case.get("to"), str):
+                raise FamilyError(f'{place}: must be a table like {{ when = "...", to = "..." }}')
+            if any(key not in CASE_KEYS for key in case):
+                raise FamilyError(f"{place}: only 'when' and 'to' belong in a case")
+            if "when" in case and not isinstance(case["when"], str):
+                raise FamilyError(f"{place}, when: must be a condition in quotes")
+            cases.append((parse(case["when"]) if "when" in case else None, parse_template(case["to"])))
+        if not cases:
+            raise FamilyError(f"{where}, to: the list of cases is empty")
+        return cases
+
+    def _target(self, env: dict[str, Rational]) -> str | None:
+        """The first case whose condition holds; None when no case matches (no outcome)."""
+        for test, template in self.cases:
+            if test is None or evaluate(test, env) != 0:
+                return template.render(env)
+        return None
+
+
+class _Family:
+    def __init__(self, name: str, raw: Any, params: Mapping[str, Rational], warn, plain: bool = False) -> None:
+        self.name = name
+        self._current = "state"
+        self.tried = [MAX_FAMILY_COMBINATIONS]
+        where = f"family {name!r}"
+        if not isinstance(raw, dict):
+            raise FamilyError(f"{where}: must be a table, not {_type_name(raw)}")
+        for key in raw:
+            if key not in FAMILY_KEYS:
+                warn(where, f"unknown field {key!r} is ignored")
+        if not isinstance(raw.get("state"), str):
+            raise FamilyError(f"{where}: needs 'state', the member name with placeholders, e.g. \"total-{{t}}\"")
+        taken = set(params)
+        self.ranges = [] if plain else _ranges(raw.get("index"), f"{where}, index", taken)
+        self.variables = [r.name for r in self.ranges]
+        self.lets = _lets(raw.get("let"), f"{where}, let", taken)
+        try:
+            self.state = parse_template(raw["state"])
+            self.when = parse(raw["when"]) if "when" in raw else None
+            self.result = parse_template(raw["result"]) if isinstance(raw.get("result"), str) else None
+        except ExpressionError as error:
+            raise FamilyError(f"{where}: {error}") from None
+        if "when" in raw and not isinstance(raw["when"], str):
+            raise FamilyError(f"{where}, when: must be a condition in quotes")
+        if "result" in raw and not isinstance(raw["result"], str):
+            raise FamilyError(f"{where}, result: must be text")
+        if "outcomes" in raw and "choices" in raw:
+            raise FamilyError(f"{where}: has both 'outcomes' and 'choices': a state has one or the other")
+        self.about = raw.get("about")
+        self.outcomes = self._outcome_list(raw.get("outcomes"), f"{where}, outcomes", taken, warn)
+        self.choices: list[tuple[str, list[_Outcome]]] = []
+        if "choices" in raw:
+            if not isinstance(raw["choices"], dict) or not raw["choices"]:
+                raise FamilyError(f"{where}, choices: must be a table of action = [outcomes]")
+            for action, listed in raw["choices"].items():
+                self.choices.append((action, self._outcome_list(listed, f"{where}, choice {action!r}", taken, warn)))
+
+    @staticmethod
+    def _outcome_list(raw: Any, where: str, taken: set[str], warn) -> list[_Outcome] | None:
+        if raw is None:
+            return None
+        if not isinstance(raw, list):
+            raise FamilyError(f"{where}: must be a list of outcome tables, not {_type_name(raw)}")
+        return [_Outcome(item, f"{where}, outcome {i}", taken, warn) for i, item in enumerate(raw, start=1)]
+
+    def members(self, params: dict[str, Rational]) -> Iterator[tuple[dict[str, Rational], str]]:
+        env: dict[str, Rational] = params
+        count = _fixed_count(self.ranges, params)
+        if count is not None and count > self.tried[0]:
+            raise FamilyError(
+                f"family {self.name!r}: index ranges give {count:,} combinations, over the limit of "
+                f"{MAX_FAMILY_COMBINATIONS:,}"
+            )
+        combinations = _combinations(self.ranges, params, self.tried)
+        while True:
+            try:
+                env = next(combinations)
+                env = _with_lets(env, self.lets)
+                if self.when is not None and evaluate(self.when, env) == 0:
+                    continue
+                name = self.state.render(env)
+            except StopIteration:
+                return
+            except ExpressionError as error:
+                raise FamilyError(f"family {self.name!r}{_where(env, self.variables)}: {error}") from None
+            except _TooManyCombinations as error:
+                raise FamilyError(f"family {self.name!r}: {error}") from None
+            yield env, name
+
+    def table(self, env: dict[str, Rational], budget: list[int]) -> dict[str, Any]:
+        """One member's plain state table; ``budget`` counts outcomes left before the limit."""
+        table: dict[str, Any] = {}
+        where = f"family {self.name!r}{_where(env, self.variables)}"
+        try:
+            if self.result is not None:
+                table["result"] = self.result.render(env)
+            if isinstance(self.about, str):
+                table["about"] = self.about
+            if self.outcomes is not None:
+                listed = self._render(self.outcomes, env, budget)
+                if listed:
+                    table["outcomes"] = listed
+            if self.choices:
+                choices = {}
+                for action, outcomes in self.choices:
+                    listed = self._render(outcomes, env, budget)
+                    if listed:
+                        choices[action] = listed
+                if choices:
+                    table["choices"] = choices
+        except (ExpressionError, _TooManyCombinations) as error:
+            raise FamilyError(f"{where}, {self._current}: {error}") from None
+        return table
+
+    def _render(self, outcomes: list[_Outcome], env: dict[str, Rational], budget: list[int]) -> list[dict[str, Any]]:
+        listed = []
+        for outcome in outcomes:
+            self._current = outcome.where.removeprefix(f"family {self.name!r}, ")
+            for table in outcome.render(env, self.tried):
+                budget[0] -= 1
+                if budget[0] < 0:
+                    raise FamilyError(
+                        f"family {self.name!r}: families expand to more than "
+                        f"{MAX_FAMILY_OUTCOMES:,} outcomes (the limit)"
+                    )
+                listed.append(table)
+        return listed
+
+
+def expand_families(
+    document: dict[str, Any], source: str, problems: list[Problem], params: dict[str, Rational]
+) -> FamilyExpansion:
+    """Every family of the document as plain state tables; problems are appended, never raised."""
+    raw = document.get("families", {})
+    tables: dict[str, dict[str, Any]] = {}
+    members: dict[str, FamilyMember] = {}
+    if not isinstance(raw, dict):
+        problems.append(Problem(source, "[families]", f"must be a table, not {_type_name(raw)}"))
+        return FamilyExpansion(tables, members)
+
+    def warn(where: str, message: str) -> None:
+        problems.append(Problem(source, where, message, "warning"))
+
+    states_left = MAX_FAMILY_STATES
+    budget = [MAX_FAMILY_OUTCOMES]
+    tried = [MAX_FAMILY_COMBINATIONS]
+    for name, body in raw.items():
+        try:
+            family = _Family(name, body, params, warn)
+            family.tried = tried
+            found: dict[str, dict[str, Rational]] = {}
+            for env, state in family.members(params):
+                if state in found:
+                    first = _where(found[state], family.variables).removeprefix(" at ")
+                    again = _where(env, family.variables).removeprefix(" at ")
+                    raise FamilyError(f"family {name!r}: {first} and {again} both give the state name {state!r}")
+                if state in tables:
+                    raise FamilyError(f"family {name!r}{_where(env, family.variables)}: state {state!r} is made twice")
+                states_left -= 1
+                if states_left < 0:
+                    raise FamilyError(
+                        f"family {name!r}: families expand to more than {MAX_FAMILY_STATES:,} states (the limit)"
+                    )
+                found[state] = env
+            for state, env in found.items():
+                tables[state] = family.table(env, budget)
+                members[state] = FamilyMember(name, tuple((v, env[v]) for v in family.variables))
+        except FamilyError as error:
+            problems.append(Problem(source, "", str(error)))
+        except RecursionError:
+            problems.append(Problem(source, f"family {name!r}", "expression nested too deeply"))
+    return FamilyExpansion(tables, members)
+
+
+FAMILY_ONLY_OUTCOME_KEYS = frozenset({"each", "let", "when"})
+
+
+def uses_family_outcomes(table: Any) -> bool:
+    """Whether a hand-written state uses ``each``, ``let``, ``when`` or a list of cases in ``to``."""
+    if not isinstance(table, dict):
+        return False
+    lists = [table.get("outcomes")]
+    if isinstance(table.get("choices"), dict):
+        lists += list(table["choices"].values())
+    return any(
+        isinstance(item, dict) and (FAMILY_ONLY_OUTCOME_KEYS & item.keys() or isinstance(item.get("to"), list))
+        for listed in lists
+        if isinstance(listed, list)
+        for item in listed
+    )
+
+
+def expand_plain_state(
+    name: str, table: dict[str, Any], source: str, problems: list[Problem], params: dict[str, Rational]
+) -> dict[str, Any] | None:
+    """A hand-written state whose outcomes use family features, rendered to a plain table."""
+
+    def warn(where: str, message: str) -> None:
+        problems.append(Problem(source, where, message, "warning"))
+
+    raw = {key: value for key, value in table.items() if key in ("outcomes", "choices", "result", "about")}
+    raw["state"] = name.replace("{", "{{").replace("}", "}}")
+    try:
+        family = _Family(name, raw, params, warn, plain=True)
+        family.name = name
+        return family.table(dict(params), [MAX_FAMILY_OUTCOMES])
+    except FamilyError as error:
+        problems.append(Problem(source, "", str(error).replace(f"family {name!r}", f"state {name!r}", 1)))
+    except RecursionError:
+        problems.append(Problem(source, f"state {name!r}", "expression nested too deeply"))
+    return None
+
+
+def rule_actions(
+    rules: Any,
+    where: str,
+    members: Mapping[str, FamilyMember],
+    params: Mapping[str, Rational],
+    explicit: set[str],
+    problems: list[Problem],
+    source: str,
+) -> list[tuple[str, str]]:
+    """(state, action) pairs from a strategy's ``rules``: the first rule that matches a state wins.
+
+    A rule is ``{ family = "turn", when = "t >= 20", action = "hold" }``; ``when`` may use the
+    family's index variables and the file's parameters. States named in the strategy by hand keep
+    their hand-written action.
+    """
+
+    def error(place: str, message: str) -> None:
+        problems.append(Problem(source, place, message))
+
+    if not isinstance(rules, list):
+        error(f"{where}, rules", 'must be a list of { family = "...", when = "...", action = "..." }')
+        return []
+    families = {member.family for member in members.values()}
+    chosen: dict[str, str] = {}
+    for number, rule in enumerate(rules, start=1):
+        place = f"{where}, rule {number}"
+        if not isinstance(rule, dict):
+            error(place, f'must be a table like {{ family = "...", action = "..." }}, not {_type_name(rule)}')
+            continue
+        for key in rule:
+            if key not in RULE_KEYS:
+                problems.append(Problem(source, place, f"unknown field {key!r} is ignored", "warning"))
+        family, action, when = rule.get("family"), rule.get("action"), rule.get("when")
+        if not isinstance(family, str) or not isinstance(action, str):
+            error(place, "needs 'family' and 'action', both text")
+            continue
+        if family not in families:
+            known = ", ".join(sorted(families)) or "none defined"
+            error(f"{place}, family", f"unknown family {family!r} (known: {known})")
+            continue
+        if when is not None and not isinstance(when, str):
+            error(f"{place}, when", "must be a condition in quotes")
+            continue
+        try:
+            test = parse(when) if when is not None else None
+        except ExpressionError as problem:
+            error(f"{place}, when {when!r}", str(problem))
+            continue
+        for state, member in members.items():
+            if member.family != family or state in explicit or state in chosen:
+                continue
+            env = dict(params)
+            env.update(member.index)
+            try:
+                if test is None or evaluate(test, env) != 0:
+                    chosen[state] = action
+            except ExpressionError as problem:
+                shown = ", ".join(f"{n}={text(v)}" for n, v in member.index)
+                error(f"{place}, when {when!r}", f"at {shown}: {problem}")
+                break
+    return list(chosen.items())
+
+
+def _type_name(value: Any) -> str:
+    return {
+        bool: "true/false",
+        int: "a whole number",
+        float: "a decimal number",
+        str: "text",
+        list: "a list",
+        dict: "a table",
+    }.get(type(value), type(value).__name__)

@@ -1,0 +1,50 @@
+"""Report content as plain rows shared by the renderers: one place decides labels and order."""
+
+from __future__ import annotations
+
+from oddsbench.model.numbers import text, to_float
+from oddsbench.report.document import ReportDocument, RoundSection
+from oddsbench.report.numbers_text import decimal_text, exact_text
+from oddsbench.report.round_report import PERCENT_FIGURES, figure_label
+from oddsbench.solve.round import Figure
+
+
+def strategy_label(section: RoundSection) -> str:
+    return section.strategy if section.strategy is not None else "as written"
+
+
+def round_figure_items(section: RoundSection) -> list[tuple[str, str, Figure]]:
+    """(key, label, figure) for every figure of one round section, end and result chances too."""
+    figures = section.figures
+    items = [(name, figure_label(name, figures.rounds), f) for name, f in figures.figures.items()]
+    for name, f in figures.end_probability.items():
+        result = figures.end_results.get(name)
+        items.append((f"end_probability[{name}]", f"ends in {name!r}" + (f" ({result})" if result else ""), f))
+    for label, f in figures.result_probability.items():
+        items.append((f"result_probability[{label}]", f"result {label!r}", f))
+    for name, f in figures.end_probability_by_step.items():
+        items.append((f"end_probability_by_step[{name}]", f"in {name!r} by step {figures.rounds}", f))
+    return items
+
+
+def shown(key: str, figure: Figure, width: int | None) -> tuple[str, str]:
+    percent = key in PERCENT_FIGURES or key.startswith(("end_probability", "result_probability"))
+    return exact_text(figure.exact, width), decimal_text(figure.decimal, figure.exact, percent)
+
+
+def comparison_rows(document: ReportDocument) -> tuple[list[str], list[list[str]]]:
+    """quantity | decimal under each strategy, for the strategies-compared table."""
+    headers = ["quantity"] + [strategy_label(s) for s in document.rounds]
+    keyed = [dict((key, (label, f)) for key, label, f in round_figure_items(s)) for s in document.rounds]
+    order = [key for key, _, _ in round_figure_items(document.rounds[0])]
+    for other in keyed[1:]:
+        order += [key for key in other if key not in order]
+    rows = []
+    for key in order:
+        label = next(k[key][0] for k in keyed if key in k)
+        rows.append([label] + [shown(key, k[key][1], None)[1] if key in k else "-" for k in keyed])
+    return headers, rows
+
+
+def param_items(document: ReportDocument) -> list[tuple[str, str, float]]:
+    return [(name, text(value), to_float(value)) for name, value in document.ruleset.params]

@@ -1,0 +1,299 @@
+"""Text and JSON for decisions: strategies side by side, the best play, a strategy's check."""
+
+from __future__ import annotations
+
+import textwrap
+from typing import Any
+
+from oddsbench.report.cautions import CAUTIONS, caution_block
+from oddsbench.report.numbers_text import render_table
+from oddsbench.report.round_report import (
+    PERCENT_FIGURES,
+    figure_cells,
+    figure_json,
+    figure_label,
+    round_json,
+    round_rows,
+)
+from oddsbench.solve.round import Figure
+from oddsbench.strategy.best_policy import BestPolicy, StrategyCheck
+from oddsbench.strategy.compare import StartComparison, StrategyComparison
+
+CELL_KINDS = ("both", "exact", "decimal")
+
+SIDE_BY_SIDE_EXACT_WIDTH = 28
+MAX_LISTED_IMPROVEMENTS = 40
+
+
+def cell(
+    figure: Figure | None, percent: bool = False, width: int | None = SIDE_BY_SIDE_EXACT_WIDTH, kind: str = "both"
+) -> str:
+    """One ``exact | decimal`` cell (or only one of them); ``-`` where a figure does not apply."""
+    if figure is None:
+        return "-"
+    exact, decimal = figure_cells(figure, percent, None)
+    if width is not None and len(exact) > width:
+        exact = _compact(exact)
+    if kind == "exact":
+        return exact if figure.exact is not None else f"- | {decimal}"
+    if kind == "decimal":
+        return decimal
+    return f"{exact} | {decimal}"
+
+
+def _compact(exact: str) -> str:
+    """A long fraction as its leading digits and digit counts: ``40609.../36561... (18/17 digits)``."""
+    top, _, bottom = exact.partition("/")
+    digits = len(top.lstrip("-"))
+    if not bottom:
+        return f"{top[:7]}... ({digits} digits)"
+    return f"{top[:6]}.../{bottom[:5]}... ({digits}/{len(bottom)} digits)"
+
+
+Comparison = StrategyComparison | StartComparison
+
+
+def comparison_rows(comparison: Comparison, kind: str = "both") -> tuple[list[str], list[list[str]]]:
+    """quantity, then one ``exact | decimal`` column per strategy (or per start state)."""
+    first = comparison.figures[0] if comparison.figures else None
+    names: list[str] = []
+    ends: list[str] = []
+    for figures in comparison.figures:
+        names += [name for name in figures.figures if name not in names]
+        ends += [name for name in figures.end_probability if name not in ends]
+    rows = []
+    for name in names:
+        label = figure_label(name, first.rounds if first else None)
+        percent = name in PERCENT_FIGURES
+        rows.append([label] + [cell(f.figures.get(name), percent, kind=kind) for f in comparison.figures])
+    zero = Figure(None, 0.0)
+    for name in ends:
+        result = next((f.end_results.get(name) for f in comparison.figures if name in f.end_results), None)
+        label = f"ends in {name!r}" + (f" ({result})" if result else "")
+        cells = []
+        for figures in comparison.figures:
+            figure = figures.end_probability.get(name)
+            if figure is None:  # not reachable under this strategy: chance exactly 0
+                figure = Figure(_zero(), 0.0) if figures.exact else zero
+            cells.append(cell(figure, percent=True, kind=kind))
+        rows.append([label] + cells)
+    return ["quantity", *comparison.columns], rows
+
+
+def _zero():
+    from oddsbench.model.numbers import QQ
+
+    return QQ(0)
+
+
+def comparison_text(comparison: Comparison, kind: str = "both") -> str:
+    """Side-by-side output of ``oddsbench solve``: per named strategy, or per start state (``--from``)."""
+    count = len(comparison.columns)
+    shown = {"both": "exact | decimal", "exact": "exact", "decimal": "decimal"}[kind]
+    if isinstance(comparison, StrategyComparison):
+        heading = (
+            f"{comparison.title}: one round from {comparison.start!r} under each of {count} named "
+            f"strateg{'y' if count == 1 else 'ies'} (cells: {shown})"
+        )
+    else:
+        play = f", strategy {comparison.strategy!r}" if comparison.strategy else ""
+        heading = f"{comparison.title}: one round from each of {count} start states{play} (cells: {shown})"
+    headers, rows = comparison_rows(comparison, kind)
+    parts = [heading, "", render_table(headers, rows)]
+    notes = []
+    for name, figures in zip(comparison.columns, comparison.figures):
+        for note in figures.notes:
+            if all(note in other.notes for other in comparison.figures):
+                if f"every strategy: {note}" not in notes:
+                    notes.append(f"every strategy: {note}")
+            else:
+                notes.append(f"{name}: {note}")
+    if notes:
+        parts += ["", "Notes:"] + [f"  - {note}" for note in notes]
+    parts += ["", caution_block()]
+    return "\n".join(parts)
+
+
+def starts_json(comparison: StartComparison) -> dict[str, Any]:
+    """``{"ruleset", "starts": [...], "strategy", "by_start": {STATE: <solve JSON>}, "cautions"}``."""
+    by_start = {}
+    for name, figures in zip(comparison.starts, comparison.figures):
+        body = round_json(figures, comparison.title)
+        body.pop("cautions", None)
+        by_start[name] = body
+    return {
+        "ruleset": comparison.title,
+        "starts": list(comparison.starts),
+        "strategy": comparison.strategy,
+        "by_start": by_start,
+        "cautions": list(CAUTIONS),
+    }
+
+
+def comparison_json(comparison: StrategyComparison) -> dict[str, Any]:
+    """``{"ruleset", "start", "strategies": [...], "by_strategy": {NAME: <solve JSON>}, "cautions"}``."""
+    by_strategy = {}
+    for name, figures in zip(comparison.strategies, comparison.figures):
+        body = round_json(figures, comparison.title)
+        body.pop("cautions", None)
+        by_strategy[name] = body
+    return {
+        "ruleset": comparison.title,
+        "start": comparison.start,
+        "strategies": list(comparison.strategies),
+        "by_strategy": by_strategy,
+        "cautions": list(CAUTIONS),
+    }
+
+
+def policy_runs(policy: tuple[tuple[str, str], ...]) -> list[tuple[str, str, int, str]]:
+    """Consecutive states (in file order) with the same action, as (first, last, count, action)."""
+    runs: list[list] = []
+    for state, action in policy:
+        if runs and runs[-1][3] == action:
+            runs[-1][1] = state
+            runs[-1][2] += 1
+        else:
+            runs.append([state, state, 1, action])
+    return [tuple(run) for run in runs]
+
+
+def best_text(best: BestPolicy, every_state: bool = False) -> str:
+    """The human output of ``oddsbench best``."""
+    parts = [f"{best.title}: best play for goal {best.goal} from {best.start!r}", ""]
+    if best.policy:
+        if every_state:
+            parts.append("Best action in every decision state:")
+            rows = [[state, action] for state, action in best.policy]
+            parts.append(render_table(["state", "action"], rows, right=set()))
+        else:
+            parts.append(
+                f"Best action in each of the {len(best.policy)} decision states "
+                "(consecutive states with the same action on one line):"
+            )
+            rows = []
+            for first, last, count, action in policy_runs(best.policy):
+                states = first if count == 1 else f"{first} .. {last}"
+                rows.append([states, str(count), action])
+            parts.append(render_table(["states", "count", "action"], rows, right={1}))
+        parts.append("")
+    exact, decimal = figure_cells(best.value, best.goal in ("max-win", "min-loss"))
+    parts.append(render_table(["value", "exact", "decimal"], [[best.value_label, exact, decimal]]))
+    parts += ["", *textwrap.wrap(f"Certificate: {best.certificate.statement}", 100)]
+    if best.certificate.ties:
+        parts.append("Ties (the first action listed in the file is reported where the round still surely ends):")
+        for tie in best.certificate.ties[:MAX_LISTED_IMPROVEMENTS]:
+            parts.append(f"  - {tie.state}: {tie.chosen}, exactly as good as {', '.join(tie.equally_good)}")
+        more = len(best.certificate.ties) - MAX_LISTED_IMPROVEMENTS
+        if more > 0:
+            parts.append(f"  - and {more} more (all in --json)")
+    parts.append(
+        f"Policy iteration: {best.iterations} evaluation(s); {len(best.reached)} of {len(best.policy)} "
+        "decision states are reached under this play."
+    )
+    if best.figures is not None:
+        rows = [list(row) for row in round_rows(best.figures)]
+        parts += [
+            "",
+            "Every figure of the round under this play:",
+            render_table(["quantity", "exact", "decimal"], rows),
+        ]
+        notes = [note for note in best.figures.notes if note not in best.notes]
+        if notes:
+            parts += [f"  ({note})" for note in notes]
+    if best.notes:
+        parts += ["", "Notes:"] + [f"  - {note}" for note in best.notes]
+    parts += ["", caution_block()]
+    return "\n".join(parts)
+
+
+def best_json(best: BestPolicy) -> dict[str, Any]:
+    """``{"goal", "value": {"exact", "decimal"}, "policy": {STATE: ACTION}, "certified", "notes"}`` and more."""
+    certificate = best.certificate
+    return {
+        "ruleset": best.title,
+        "start": best.start,
+        "goal": best.goal,
+        "value_label": best.value_label,
+        "value": figure_json(best.value),
+        "policy": dict(best.policy),
+        "certified": best.certified,
+        "certificate": {
+            "holds": certificate.holds,
+            "exact": certificate.exact,
+            "decision_states": certificate.decision_states,
+            "pairs_checked": certificate.pairs_checked,
+            "largest_gain": figure_json(certificate.largest_gain),
+            "ties": {
+                tie.state: {"chosen": tie.chosen, "equally_good": list(tie.equally_good)} for tie in certificate.ties
+            },
+            "statement": certificate.statement,
+        },
+        "reached": list(best.reached),
+        "iterations": best.iterations,
+        "figures": round_json(best.figures, best.title)["figures"] if best.figures is not None else None,
+        "notes": list(best.notes),
+        "cautions": list(CAUTIONS),
+    }
+
+
+def check_text(check: StrategyCheck) -> str:
+    """The human output of ``oddsbench best --check-strategy NAME``."""
+    percent = check.goal in ("max-win", "min-loss")
+    parts = [f"{check.title}: strategy {check.strategy!r} held against goal {check.goal}", ""]
+    rows = [
+        [f"{check.value_label} under {check.strategy!r}", *figure_cells(check.value, percent)],
+        [f"{check.value_label} under the best play", *figure_cells(check.best_value, percent)],
+    ]
+    parts += [render_table(["value", "exact", "decimal"], rows), ""]
+    kind = "exactly" if check.exact else "in floating point only"
+    if check.optimal:
+        parts += textwrap.wrap(
+            f"Optimal: checked {kind} in all {check.decision_states} decision states, no single change of "
+            f"action improves any state (Bellman optimality holds for {check.strategy!r}).",
+            100,
+        )
+    else:
+        reached = [i for i in check.improvements if i.reached]
+        parts.append(
+            f"Improvable: in {len(check.improvements)} decision state(s) a single change of action does "
+            f"better ({len(reached)} of them reached under the strategy), checked {kind}:"
+        )
+        rows = [
+            [i.state, i.action, i.better, *figure_cells(i.gain), "yes" if i.reached else "no"]
+            for i in check.improvements[:MAX_LISTED_IMPROVEMENTS]
+        ]
+        parts.append(render_table(["state", "plays", "better", "gain exact", "gain decimal", "reached"], rows, {3, 4}))
+        more = len(check.improvements) - MAX_LISTED_IMPROVEMENTS
+        if more > 0:
+            parts.append(f"... and {more} more (all in --json)")
+        parts.append("The gain is the rise in that state's value from changing its action alone.")
+    if check.notes:
+        parts += ["", "Notes:"] + [f"  - {note}" for note in check.notes]
+    parts += ["", caution_block()]
+    return "\n".join(parts)
+
+
+def check_json(check: StrategyCheck) -> dict[str, Any]:
+    return {
+        "ruleset": check.title,
+        "strategy": check.strategy,
+        "goal": check.goal,
+        "value_label": check.value_label,
+        "value": figure_json(check.value),
+        "best_value": figure_json(check.best_value),
+        "optimal": check.optimal,
+        "exact": check.exact,
+        "improvements": [
+            {
+                "state": i.state,
+                "action": i.action,
+                "better": i.better,
+                "gain": figure_json(i.gain),
+                "reached": i.reached,
+            }
+            for i in check.improvements
+        ],
+        "notes": list(check.notes),
+        "cautions": list(CAUTIONS),
+    }

@@ -1,0 +1,86 @@
+"""Regenerate ``screenshots/*.svg`` from the real workbench: ``python -m oddsbench.screenshots [FOLDER]``.
+
+Each scene opens the app through the same factory as the CLI, drives it with the keyboard
+(Textual's Pilot, headless) and saves what the terminal shows. A scratch copy of the bundled
+rulesets is used, so nothing in the repository is edited.
+"""
+
+from __future__ import annotations
+
+import asyncio
+import shutil
+import sys
+import tempfile
+from collections.abc import Awaitable, Callable
+from dataclasses import dataclass
+from pathlib import Path
+
+from oddsbench.tui.app import create_app
+from oddsbench.tui.bundled import bundled_folder
+
+DEFAULT_FOLDER = Path(__file__).resolve().parent.parent / "screenshots"
+
+
+@dataclass(frozen=True)
+class Scene:
+    name: str
+    ruleset: str
+    size: tuple[int, int]
+    keys: tuple[str, ...] = ()
+    state: str | None = None
+
+
+SCENES = (
+    Scene("workbench-80x24", "lantern-dice.toml", (80, 24)),
+    Scene("edit-payout-120x40", "lantern-dice.toml", (120, 40), ("enter", "enter", "tab", "end", "ctrl+u", "2")),
+    Scene("round-figures-100x30", "pass-line.toml", (100, 30), ("f3",)),
+    Scene("bad-value-100x30", "pass-line.toml", (100, 30), ("enter", "enter", "end", "ctrl+u", *"8/3(")),
+    Scene("strategies-120x40", "lamplighter-ladder.toml", (120, 40), ("f4",)),
+    Scene("help-100x30", "pass-line.toml", (100, 30), ("f1",)),
+    Scene("workbench-160x40", "pass-line.toml", (160, 40), ("down", "enter")),
+)
+
+
+async def _settle(pilot) -> None:
+    for _ in range(3):
+        await pilot.pause()
+        await pilot.app.workers.wait_for_complete()
+    await pilot.pause()
+
+
+async def take(scene: Scene, folder: Path, scratch: Path) -> Path:
+    source = scratch / scene.ruleset
+    app = create_app(source, folder=scratch, cursor_blinks=False)
+    async with app.run_test(size=scene.size) as pilot:
+        await _settle(pilot)
+        for key in scene.keys:
+            await pilot.press(key)
+            await _settle(pilot)
+        await _settle(pilot)
+        return Path(app.save_screenshot(f"{scene.name}.svg", str(folder)))
+
+
+async def take_all(
+    folder: Path, scenes: tuple[Scene, ...] = SCENES, step: Callable[[Path], Awaitable[None]] | None = None
+):
+    folder.mkdir(parents=True, exist_ok=True)
+    written = []
+    with tempfile.TemporaryDirectory() as scratch_name:
+        scratch = Path(scratch_name)
+        for path in bundled_folder().glob("*.toml"):
+            shutil.copy(path, scratch / path.name)
+        for scene in scenes:
+            written.append(await take(scene, folder, scratch))
+    return written
+
+
+def main(argv: list[str] | None = None) -> int:
+    args = sys.argv[1:] if argv is None else argv
+    folder = Path(args[0]) if args else DEFAULT_FOLDER
+    for path in asyncio.run(take_all(folder)):
+        print(path)
+    return 0
+
+
+if __name__ == "__main__":
+    sys.exit(main())

@@ -1,0 +1,207 @@
+"""Reading a sweep spec (TOML): the ruleset to vary and the axes of the grid.
+
+    [sweep]
+    title = "Payout of a straight-up bet"
+    ruleset = "../rulesets/single-zero-wheel.toml"   # relative to the spec file
+    figures = ["house_edge", "return_to_player"]      # columns of the table (all go to CSV/JSON)
+    strategy = ["eager", "careful"]                   # optional axis: named strategies
+
+    [params]                                          # one axis per ruleset parameter
+    payout = [30, 31, 32, 33, 34, 35, 36]             # a list of values (whole numbers or "a/b")
+    pockets = { from = 37, to = 38, step = 1 }        # or an inclusive range, exact arithmetic
+
+The grid is the product of every axis, first axis slowest. Values are exact: integers, or text
+through the ruleset expression language (no names), never floats.
+"""
+
+from __future__ import annotations
+
+import tomllib
+from dataclasses import dataclass
+from pathlib import Path
+from typing import Any
+
+from oddsbench.model.errors import Problem, RulesetError
+from oddsbench.model.expr import ExpressionError, evaluate_text
+from oddsbench.model.numbers import QQ, Rational, text
+
+MAX_POINTS = 100_000
+SPEC_KEYS = frozenset({"sweep", "params", "session"})
+SWEEP_KEYS = frozenset({"title", "ruleset", "figures", "strategy", "exact_limit"})
+DEFAULT_FIGURES = ("house_edge", "return_to_player")
+DEFAULT_EXACT_LIMIT = 5_000
+
+
+@dataclass(frozen=True)
+class Axis:
+    """One dimension of the grid: ``kind`` is "param", "strategy" or "session"; values in order."""
+
+    kind: str
+    name: str
+    values: tuple[Any, ...]
+
+    @property
+    def label(self) -> str:
+        return self.name if self.kind != "session" else f"session.{self.name}"
+
+    def shown(self, value: Any) -> str:
+        return text(value) if self.kind == "param" else str(value)
+
+
+@dataclass(frozen=True)
+class SweepSpec:
+    source: str
+    title: str
+    ruleset_path: Path
+    ruleset_text: str
+    axes: tuple[Axis, ...]
+    figures: tuple[str, ...] = DEFAULT_FIGURES
+    exact_limit: int = DEFAULT_EXACT_LIMIT
+
+    @property
+    def size(self) -> int:
+        total = 1
+        for axis in self.axes:
+            total *= len(axis.values)
+        return total
+
+
+class _SpecReader:
+    def __init__(self, source: str) -> None:
+        self.source = source
+        self.problems: list[Problem] = []
+
+    def error(self, where: str, message: str) -> None:
+        self.problems.append(Problem(self.source, where, message))
+
+    def exact(self, raw: Any, where: str) -> Rational | None:
+        if isinstance(raw, bool) or not isinstance(raw, int | str):
+            if isinstance(raw, float):
+                self.error(where, f'write decimals in quotes ("{raw}") so they stay exact')
+            else:
+                self.error(where, f"must be a whole number or an exact value in quotes, not {type(raw).__name__}")
+            return None
+        if isinstance(raw, int):
+            return QQ(raw)
+        try:
+            return evaluate_text(raw)
+        except ExpressionError as error:
+            self.error(where, str(error))
+            return None
+
+    def values(self, raw: Any, where: str) -> tuple[Rational, ...]:
+        if isinstance(raw, list):
+            found = [self.exact(item, f"{where}, value {i}") for i, item in enumerate(raw, start=1)]
+            if not raw:
+                self.error(where, "needs at least one value")
+            return tuple(v for v in found if v is not None) if None not in found else ()
+        if isinstance(raw, dict):
+            unknown = set(raw) - {"from", "to", "step"}
+            if unknown or "from" not in raw or "to" not in raw:
+                self.error(where, "a range is { from = A, to = B, step = C } (step optional, default 1)")
+                return ()
+            low = self.exact(raw["from"], f"{where}, from")
+            high = self.exact(raw["to"], f"{where}, to")
+            step = self.exact(raw.get("step", 1), f"{where}, step")
+            if low is None or high is None or step is None:
+                return ()
+            if step <= 0:
+                self.error(f"{where}, step", f"must be more than 0, got {text(step)}")
+                return ()
+            if high < low:
+                self.error(where, f"'to' ({text(high)}) is below 'from' ({text(low)})")
+                return ()
+            count = int((high - low) / step) + 1
+            if count > MAX_POINTS:
+                self.error(where, f"{count:,} values, over the limit of {MAX_POINTS:,}")
+                return ()
+            return tuple(low + step * i for i in range(count))
+        self.error(where, "must be a list of values or a range table { from, to, step }")
+        return ()
+
+
+def read_sweep_spec(path: str | Path) -> SweepSpec:
+    """Read a spec file and the ruleset it names, or raise RulesetError naming file and field."""
+    path = Path(path)
+    source = path.name
+    try:
+        document = tomllib.loads(path.read_text(encoding="utf-8"))
+    except FileNotFoundError:
+        raise RulesetError([Problem(source, "", "no such file")]) from None
+    except (OSError, UnicodeDecodeError) as error:
+        raise RulesetError([Problem(source, "", f"cannot be read: {error}")]) from None
+    except tomllib.TOMLDecodeError as error:
+        raise RulesetError([Problem(source, "", f"not valid TOML: {error}")]) from None
+    reader = _SpecReader(source)
+    for key in document:
+        if key not in SPEC_KEYS:
+            reader.error("", f"unknown table {key!r} (known: sweep, params, session)")
+    head = document.get("sweep")
+    if not isinstance(head, dict):
+        reader.error("", "missing [sweep] table" if head is None else "[sweep] must be a table")
+        raise RulesetError(reader.problems)
+    for key in head:
+        if key not in SWEEP_KEYS:
+            reader.error("[sweep]", f"unknown field {key!r}")
+    ruleset_name = head.get("ruleset")
+    if not isinstance(ruleset_name, str) or not ruleset_name:
+        reader.error("[sweep], ruleset", "missing: the path of the ruleset file to vary")
+        raise RulesetError(reader.problems)
+    ruleset_path = (
+        (path.parent / ruleset_name).resolve() if not Path(ruleset_name).is_absolute() else Path(ruleset_name)
+    )
+    try:
+        ruleset_text = ruleset_path.read_text(encoding="utf-8")
+    except (OSError, UnicodeDecodeError) as error:
+        reasons = {FileNotFoundError: "no such file"}
+        reason = reasons.get(type(error), str(error))
+        reader.error("[sweep], ruleset", f"{ruleset_name!r}: {reason}")
+        raise RulesetError(reader.problems) from None
+    axes: list[Axis] = []
+    params = document.get("params", {})
+    if not isinstance(params, dict):
+        reader.error("[params]", "must be a table of name = [values]")
+        params = {}
+    for name, raw in params.items():
+        values = reader.values(raw, f"[params], {name}")
+        if values:
+            axes.append(Axis("param", name, values))
+    strategies = head.get("strategy")
+    if strategies is not None:
+        listed = [strategies] if isinstance(strategies, str) else strategies
+        if not isinstance(listed, list) or not listed or not all(isinstance(s, str) for s in listed):
+            reader.error("[sweep], strategy", "must be a strategy name or a list of names")
+        else:
+            axes.append(Axis("strategy", "strategy", tuple(listed)))
+    session = document.get("session", {})
+    if not isinstance(session, dict):
+        reader.error("[session]", "must be a table of setting = [values]")
+        session = {}
+    for name in session:
+        reader.error(f"[session], {name}", "session settings cannot be swept by this build (no session engine)")
+    figures = head.get("figures", list(DEFAULT_FIGURES))
+    if not isinstance(figures, list) or not all(isinstance(f, str) for f in figures) or not figures:
+        reader.error("[sweep], figures", 'must be a list of figure names such as ["house_edge"]')
+        figures = list(DEFAULT_FIGURES)
+    exact_limit = head.get("exact_limit", DEFAULT_EXACT_LIMIT)
+    if isinstance(exact_limit, bool) or not isinstance(exact_limit, int) or exact_limit < 0:
+        reader.error("[sweep], exact_limit", "must be a whole number of states, at least 0")
+        exact_limit = DEFAULT_EXACT_LIMIT
+    title = head.get("title", "")
+    if not isinstance(title, str):
+        reader.error("[sweep], title", "must be text")
+        title = ""
+    spec = SweepSpec(
+        source=source,
+        title=title or f"Sweep of {ruleset_path.name}",
+        ruleset_path=ruleset_path,
+        ruleset_text=ruleset_text,
+        axes=tuple(axes),
+        figures=tuple(figures),
+        exact_limit=exact_limit,
+    )
+    if spec.size > MAX_POINTS:
+        reader.error("", f"the grid has {spec.size:,} points, over the limit of {MAX_POINTS:,}")
+    if reader.problems:
+        raise RulesetError(reader.problems)
+    return spec

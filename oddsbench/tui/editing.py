@@ -1,0 +1,119 @@
+"""One open ruleset in the workbench: its path, its document, its history and whether it is saved.
+
+Every edit is a function applied to the ``RulesetDocument``; the text after it is recorded in
+the history, so undo, redo and the unsaved-changes guard all compare plain text.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Callable
+from dataclasses import dataclass
+from pathlib import Path
+
+from oddsbench.model.atomic_write import write_text_atomically
+from oddsbench.model.document import DocumentError, RulesetDocument, parse_document
+from oddsbench.model.errors import OddsbenchError, Problem
+from oddsbench.model.history import History, Step
+from oddsbench.tui.bundled import is_bundled
+
+Edit = Callable[[RulesetDocument], object]
+
+
+@dataclass(frozen=True)
+class EditOutcome:
+    """What an edit did: whether the text changed, and the message to show if it was refused."""
+
+    changed: bool
+    refused: str | None = None
+
+
+class EditSession:
+    """The open file. ``document`` is None while the text is not valid TOML (edit it as source)."""
+
+    def __init__(self, text: str, path: Path | None, saved: bool = True) -> None:
+        self.path = path
+        self.history = History(text)
+        self.saved_text: str | None = text if saved else None
+        self.document: RulesetDocument | None = None
+        self.toml_problem: Problem | None = None
+        self._load(text)
+
+    @classmethod
+    def open(cls, path: Path) -> EditSession:
+        try:
+            text = path.read_text(encoding="utf-8")
+        except UnicodeDecodeError:
+            raise OddsbenchError(f"{path}: is not UTF-8 text") from None
+        except OSError as error:
+            raise OddsbenchError(f"{path}: cannot be read: {error.strerror or error}") from None
+        return cls(text, path)
+
+    @property
+    def source(self) -> str:
+        return self.path.name if self.path else "new ruleset"
+
+    @property
+    def text(self) -> str:
+        return self.history.current
+
+    @property
+    def dirty(self) -> bool:
+        return self.text != self.saved_text
+
+    @property
+    def read_only(self) -> bool:
+        """Bundled rulesets are not overwritten: saving one asks for a new path."""
+        return self.path is None or is_bundled(self.path)
+
+    def apply(self, edit: Edit, label: str, field: str | None = None) -> EditOutcome:
+        """Run one edit on the document and record it; a refused edit changes nothing."""
+        if self.document is None:
+            return EditOutcome(False, "the file is not valid TOML: fix it in the source view first")
+        before = self.text
+        base = self.history.merge_base(field) if field is not None else None
+        if base is not None:
+            self._load(base)
+        try:
+            if self.document is None:
+                raise DocumentError("the file is not valid TOML")
+            edit(self.document)
+        except DocumentError as error:
+            self._load(before)
+            return EditOutcome(False, str(error))
+        after = self.document.text()
+        self.history.record(after, label, field)
+        return EditOutcome(after != before)
+
+    def replace_text(self, text: str, label: str = "source edit") -> None:
+        """The whole text edited by hand (the source view)."""
+        self.history.record(text, label, "source")
+        self._load(text)
+
+    def undo(self) -> Step | None:
+        step = self.history.undo()
+        if step is not None:
+            self._load(self.text)
+        return step
+
+    def redo(self) -> Step | None:
+        step = self.history.redo()
+        if step is not None:
+            self._load(self.text)
+        return step
+
+    def seal(self) -> None:
+        self.history.seal()
+
+    def save(self, path: Path | None = None) -> Path:
+        """Write the text atomically to ``path`` (or the file's own path) and mark it saved."""
+        target = path or self.path
+        if target is None:
+            raise OddsbenchError("no file name: use save as")
+        write_text_atomically(target, self.text)
+        self.path = target
+        self.saved_text = self.text
+        self.history.seal()
+        return target
+
+    def _load(self, text: str) -> None:
+        self.document, self.toml_problem = parse_document(text, self.source)

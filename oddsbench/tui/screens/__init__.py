@@ -1,0 +1,1 @@
+"""The workbench's screens: the main workbench and its dialogs."""

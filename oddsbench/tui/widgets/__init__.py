@@ -1,0 +1,1 @@
+"""The workbench's widgets: each shows one part of the document or of the figures."""

@@ -1,0 +1,60 @@
+"""``oddsbench simulate``: estimate, interval and exact value side by side; bad input exits 2."""
+
+import json
+from pathlib import Path
+
+from oddsbench.cli.main import main
+from oddsbench.report.cautions import CAUTIONS
+
+PASS_LINE = str(Path(__file__).parent.parent / "rulesets" / "pass-line.toml")
+
+
+def test_simulate_prints_the_estimate_its_interval_and_7_495(capsys):
+    assert main(["simulate", PASS_LINE, "--trials", "100000", "--seed", "1"]) == 0
+    out = capsys.readouterr().out
+    house_edge = next(line for line in out.splitlines() if line.startswith("house edge"))
+    assert "7/495" in house_edge and "[" in house_edge and "inside" in house_edge
+    assert "rounds/s" in out and CAUTIONS[0] in out
+
+
+def test_simulate_json_names_the_seed_and_no_value_outside(capsys):
+    assert main(["simulate", PASS_LINE, "--trials", "50000", "--seed", "9", "--json"]) == 0
+    body = json.loads(capsys.readouterr().out)
+    assert body["seed"] == 9 and body["trials"] == 50_000 and body["outside"] == []
+    edge = next(item for item in body["estimates"] if item["name"] == "house_edge")
+    assert edge["exact"] == "7/495" and edge["interval"][0] < edge["exact_decimal"] < edge["interval"][1]
+    assert body["cautions"] == list(CAUTIONS)
+
+
+def test_simulate_without_a_seed_prints_the_seed_it_drew(capsys):
+    assert main(["simulate", PASS_LINE, "--trials", "1000"]) == 0
+    assert ", seed " in capsys.readouterr().out.splitlines()[0]
+
+
+def test_a_bad_confidence_level_exits_2(capsys):
+    try:
+        code = main(["simulate", PASS_LINE, "--confidence", "1.5"])
+    except SystemExit as exit_:
+        code = exit_.code
+    assert code == 2
+    assert "between 0 and 1" in capsys.readouterr().err
+
+
+def test_an_unknown_strategy_exits_2_naming_the_file(capsys):
+    assert main(["simulate", PASS_LINE, "--trials", "10", "--strategy", "bold"]) == 2
+    assert "pass-line.toml: unknown strategy 'bold'" in capsys.readouterr().err
+
+
+def test_a_game_with_decisions_needs_a_strategy_or_a_goal(capsys, rulesets_dir):
+    assert main(["simulate", str(rulesets_dir / "pig-turn.toml"), "--trials", "10"]) == 2
+    assert "choose --strategy NAME (known: hold-at-10" in capsys.readouterr().err
+
+
+def test_the_best_play_for_a_goal_is_simulated_against_its_exact_figures(capsys, rulesets_dir):
+    pig = str(rulesets_dir / "pig-turn.toml")
+    assert main(["simulate", pig, "--trials", "50000", "--seed", "2", "--best", "max-return", "--json"]) == 0
+    body = json.loads(capsys.readouterr().out)
+    assert body["outside"] == [] and body["policy"]
+    names = {item["name"] for item in body["estimates"]}
+    # a turn of Pig stakes nothing, so there is no house edge to estimate (as in `solve`)
+    assert "house_edge" not in names and "expected_net" in names

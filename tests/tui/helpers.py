@@ -1,0 +1,60 @@
+"""Shared steps for driving the workbench in Pilot tests."""
+
+from __future__ import annotations
+
+import shutil
+from pathlib import Path
+
+from oddsbench.tui.app import WorkbenchApp, create_app
+
+ROOT = Path(__file__).resolve().parents[2]
+RULESETS = ROOT / "rulesets"
+
+
+def copy_ruleset(name: str, folder: Path) -> Path:
+    target = folder / name
+    shutil.copy(RULESETS / name, target)
+    return target
+
+
+def app_on(path: Path | None, folder: Path) -> WorkbenchApp:
+    return create_app(path, folder=folder, cursor_blinks=False)
+
+
+async def settle(pilot) -> None:
+    """Let pending messages run and the background read and solve finish."""
+    await pilot.pause()
+    await pilot.app.workers.wait_for_complete()
+    await pilot.pause()
+    await pilot.app.workers.wait_for_complete()
+    await pilot.pause()
+
+
+def figure(app: WorkbenchApp, quantity: str) -> tuple[str, str]:
+    """(exact, decimal) as the round table shows them."""
+    table = app.workbench.query_one("#round-table")
+    for index in range(table.row_count):
+        cells = [str(cell) for cell in table.get_row_at(index)]
+        if cells[0] == quantity:
+            return cells[1], cells[2]
+    raise KeyError(quantity)
+
+
+async def go_to_state(pilot, name: str) -> None:
+    navigator = pilot.app.workbench.query_one("#navigator")
+    navigator.focus()
+    ids = [navigator.get_option_at_index(i).id for i in range(navigator.option_count)]
+    navigator.highlighted = ids.index("state:" + name)
+    await settle(pilot)
+
+
+async def edit_field(pilot, row: int, field: str, text: str) -> None:
+    """Highlight outcome ``row`` in the table, then retype ``field`` with the keyboard."""
+    screen = pilot.app.workbench
+    table = screen.query_one("#outcomes")
+    table.focus()
+    table.move_cursor(row=row)
+    await pilot.pause()
+    screen.query_one(f"#field-{field}").focus()
+    await pilot.press("end", "ctrl+u", *text)
+    await settle(pilot)

@@ -1,0 +1,202 @@
+"""The workbench's workflows, driven from the keyboard with Textual's Pilot."""
+
+from __future__ import annotations
+
+from oddsbench.model.load import read_ruleset_text
+from oddsbench.tui.screens.dialogs import Choose
+from tests.tui.helpers import app_on, copy_ruleset, edit_field, figure, go_to_state, settle
+
+# Pass line: house edge 7/495 (Epstein, The Theory of Gambling and Statistical Logic, ch. on dice (from memory)).
+PASS_LINE_EDGE = "7/495"
+POINT_4_WIN = '{ to = "won",     prob = "3/36", pay = 1,  note = "4 again" }'
+POINT_4_AGAIN = '{ to = "point-4", prob = "27/36", note = "any other total: roll again" }'
+
+
+async def test_opening_a_bundled_game_shows_its_house_edge(tmp_path):
+    app = app_on(copy_ruleset("pass-line.toml", tmp_path), tmp_path)
+    async with app.run_test(size=(100, 30)) as pilot:
+        await settle(pilot)
+        assert figure(app, "house edge")[0] == PASS_LINE_EDGE
+        assert figure(app, "house edge")[1].startswith("0.0141414")
+
+
+async def test_no_file_opens_the_bundled_demo(tmp_path):
+    app = app_on(None, tmp_path)
+    async with app.run_test() as pilot:
+        await settle(pilot)
+        assert app.workbench.session.path.name == "lantern-dice.toml"
+        assert figure(app, "house edge")[0] == "1/30"  # the demo file's own comment gives 1/30
+
+
+async def test_changing_probabilities_updates_the_exact_house_edge_and_saves_keeping_comments(tmp_path):
+    path = copy_ruleset("pass-line.toml", tmp_path)
+    original = path.read_text()
+    app = app_on(path, tmp_path)
+    async with app.run_test(size=(100, 30)) as pilot:
+        await settle(pilot)
+        await go_to_state(pilot, "point-4")
+        await edit_field(pilot, 0, "prob", "6/36")
+        await edit_field(pilot, 2, "prob", "24/36")
+        # With the point of 4 made with chance 1/2 instead of 1/3, P(win) rises by (3/36)(1/6) = 1/72,
+        # so the edge 1 - 2 P(win) falls by 1/36: 7/495 - 1/36 = -3/220 (worked by hand).
+        assert figure(app, "house edge")[0] == "-3/220"
+        assert app.workbench.session.dirty
+        await pilot.press("ctrl+s")
+        await settle(pilot)
+        assert not app.workbench.session.dirty
+    expected = original.replace(POINT_4_WIN, POINT_4_WIN.replace('"3/36"', '"6/36"')).replace(
+        POINT_4_AGAIN, POINT_4_AGAIN.replace('"27/36"', '"24/36"')
+    )
+    assert path.read_text() == expected
+    assert "# Come-out roll: 7 or 11 wins even money" in path.read_text()
+    reopened = app_on(path, tmp_path)
+    async with reopened.run_test(size=(100, 30)) as pilot:
+        await settle(pilot)
+        assert figure(reopened, "house edge")[0] == "-3/220"
+        assert reopened.workbench.session.text == expected
+
+
+async def test_a_bad_expression_shows_the_check_message_beside_the_field_and_keeps_the_last_figures(tmp_path):
+    path = copy_ruleset("pass-line.toml", tmp_path)
+    app = app_on(path, tmp_path)
+    async with app.run_test(size=(100, 30)) as pilot:
+        await settle(pilot)
+        await go_to_state(pilot, "point-4")
+        await edit_field(pilot, 0, "prob", "3/(")
+        session = app.workbench.session
+        expected = [str(p) for p in read_ruleset_text(session.text, "pass-line.toml").problems if p.is_error]
+        assert expected, "the edit should be invalid"
+        message = app.workbench.query_one("#field-prob").parent.query_one(".field-message")
+        assert str(message.render()) == "\n".join(expected)
+        assert figure(app, "house edge")[0] == PASS_LINE_EDGE
+        assert "last good figures" in str(app.workbench.query_one("#summary").render())
+        assert 'prob = "3/("' in session.text  # the edit is kept, not lost
+
+
+async def test_quitting_with_unsaved_changes_asks_first(tmp_path):
+    path = copy_ruleset("pass-line.toml", tmp_path)
+    app = app_on(path, tmp_path)
+    async with app.run_test(size=(100, 30)) as pilot:
+        await settle(pilot)
+        await go_to_state(pilot, "point-4")
+        await edit_field(pilot, 0, "note", "four again")
+        await pilot.press("ctrl+q")
+        await pilot.pause()
+        assert isinstance(app.screen, Choose)
+        await pilot.press("c")
+        await pilot.pause()
+        assert not app._exit and not isinstance(app.screen, Choose)
+        await pilot.press("ctrl+q")
+        await pilot.pause()
+        await pilot.press("d")
+        await pilot.pause()
+        assert app._exit
+    assert "four again" not in path.read_text()
+
+
+async def test_quitting_without_changes_does_not_ask(tmp_path):
+    app = app_on(copy_ruleset("pass-line.toml", tmp_path), tmp_path)
+    async with app.run_test() as pilot:
+        await settle(pilot)
+        await pilot.press("ctrl+q")
+        await pilot.pause()
+        assert app._exit
+
+
+async def test_undo_restores_the_text_and_the_figures_and_redo_reapplies(tmp_path):
+    path = copy_ruleset("pass-line.toml", tmp_path)
+    original = path.read_text()
+    app = app_on(path, tmp_path)
+    async with app.run_test(size=(100, 30)) as pilot:
+        await settle(pilot)
+        await go_to_state(pilot, "come-out")
+        await edit_field(pilot, 0, "pay", "2")
+        changed = app.workbench.session.text
+        assert figure(app, "house edge")[0] != PASS_LINE_EDGE
+        await pilot.press("ctrl+z")
+        await settle(pilot)
+        assert app.workbench.session.text == original
+        assert figure(app, "house edge")[0] == PASS_LINE_EDGE
+        assert app.workbench.query_one("#field-pay").value == "1"
+        await pilot.press("ctrl+y")
+        await settle(pilot)
+        assert app.workbench.session.text == changed
+
+
+async def test_adding_and_deleting_an_outcome_from_the_table(tmp_path):
+    app = app_on(copy_ruleset("pass-line.toml", tmp_path), tmp_path)
+    async with app.run_test(size=(100, 30)) as pilot:
+        await settle(pilot)
+        await go_to_state(pilot, "point-4")
+        app.workbench.query_one("#outcomes").focus()
+        await pilot.press("a")
+        await settle(pilot)
+        assert len(app.workbench.session.document.outcomes(app.workbench.query_one("StateEditor").where)) == 4
+        await pilot.press("d")
+        await settle(pilot)
+        assert len(app.workbench.session.document.outcomes(app.workbench.query_one("StateEditor").where)) == 3
+
+
+async def test_renaming_a_state_from_the_list_renames_its_references(tmp_path):
+    app = app_on(copy_ruleset("pass-line.toml", tmp_path), tmp_path)
+    async with app.run_test(size=(100, 30)) as pilot:
+        await settle(pilot)
+        await go_to_state(pilot, "won")
+        await pilot.press("r", "ctrl+u", *"player-won", "enter")
+        await settle(pilot)
+        text = app.workbench.session.text
+        assert "[states.player-won]" in text and '"won"' not in text
+        assert figure(app, "house edge")[0] == PASS_LINE_EDGE
+
+
+async def test_saving_a_bundled_game_asks_for_a_copy_in_the_current_folder(tmp_path):
+    app = app_on(None, tmp_path)
+    async with app.run_test(size=(100, 30)) as pilot:
+        await settle(pilot)
+        await pilot.press("ctrl+s")
+        await pilot.pause()
+        field = app.screen.query_one("#ask-name")
+        assert field.value == str(tmp_path / "lantern-dice.toml")
+        await pilot.press("enter")
+        await settle(pilot)
+        text = app.workbench.session.text
+        assert app.workbench.session.path == tmp_path / "lantern-dice.toml"
+    assert (tmp_path / "lantern-dice.toml").read_text() == text
+
+
+async def test_opening_a_missing_file_offers_to_create_it(tmp_path):
+    path = tmp_path / "mine.toml"
+    app = app_on(path, tmp_path)
+    async with app.run_test(size=(100, 30)) as pilot:
+        await settle(pilot)
+        assert isinstance(app.screen, Choose)
+        await pilot.press("c")
+        await settle(pilot)
+        assert path.exists() and app.workbench.session.path == path
+        assert figure(app, "house edge")[0] == "0"  # the template is a fair coin
+
+
+async def test_help_lists_the_keys(tmp_path):
+    app = app_on(copy_ruleset("pass-line.toml", tmp_path), tmp_path)
+    async with app.run_test(size=(100, 30)) as pilot:
+        await settle(pilot)
+        await pilot.press("f1")
+        await pilot.pause()
+        shown = "".join(str(w.render()) for w in app.screen.query("Static"))
+        for words in ("Ctrl+S", "Save", "Ctrl+Z", "Undo", "Add outcome", "Rename", "F3"):
+            assert words in shown
+
+
+async def test_a_refresh_while_typing_never_overwrites_newer_keystrokes(tmp_path):
+    app = app_on(copy_ruleset("pass-line.toml", tmp_path), tmp_path)
+    async with app.run_test(size=(100, 30)) as pilot:
+        await settle(pilot)
+        await go_to_state(pilot, "come-out")
+        field = app.workbench.query_one("#field-note")
+        field.focus()
+        await pilot.pause()
+        field.value = "typed ahead"  # newer than the document while its Changed message waits
+        app.workbench.refresh_document()
+        assert field.value == "typed ahead"
+        await settle(pilot)
+        assert 'note = "typed ahead"' in app.workbench.session.text
