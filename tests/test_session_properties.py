@@ -211,3 +211,11 @@ result = "end"
 """
     distribution = round_distribution_of(load_ruleset_text(text, "two.toml"))
     assert [(o.net, o.prob) for o in distribution.outcomes] == [(0, QQ(1, 2)), (2, QQ(1, 2))]
+
+
+def test_a_goal_chance_below_the_float_range_is_flagged_not_shown_as_a_plain_zero():
+    # (19/18)^-20000 is about 1e-470: far below the smallest float
+    game = parse_round_text("1:18/37,-1:19/37")
+    result = analyse_session(game, SessionSettings(QQ(20_000), QQ(40_000)), "timid")
+    assert result.figures["goal_probability"].decimal == 0.0
+    assert any("below the float range" in note for note in result.notes)

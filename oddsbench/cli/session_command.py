@@ -4,8 +4,6 @@ from __future__ import annotations
 
 import argparse
 import json
-import os
-import tempfile
 
 from oddsbench.cli.options import add_exact_limit, positive_int
 
@@ -71,6 +69,7 @@ def register(commands) -> None:
         "--series", action="store_true", help="with --json: the goal chance for every starting bankroll"
     )
     parser.add_argument("--series-csv", metavar="FILE", help="write the goal chance for every starting bankroll as CSV")
+    parser.add_argument("--force", action="store_true", help="let --series-csv replace an existing file")
     add_exact_limit(parser, DEFAULT_EXACT_LIMIT)
     from oddsbench.cli.no_goal import add_no_goal_arguments
 
@@ -128,7 +127,9 @@ def run(args: argparse.Namespace) -> int:
     plans = args.plan or list(DEFAULT_PLANS)
     results = [analyse_session(distribution, settings, plan, args.exact_limit, args.rounds) for plan in plans]
     if args.series_csv:
-        _write_atomically(args.series_csv, series_csv(results))
+        from oddsbench.report.atomic_write import write_atomically
+
+        write_atomically(args.series_csv, series_csv(results), force=args.force)
     if args.json:
         print(json.dumps(session_json(title, distribution, settings, results, series=args.series), indent=2))
     else:
@@ -157,16 +158,3 @@ def _policy(ruleset, strategy_name: str | None) -> dict:
         raise OddsbenchError(f"{ruleset.source}: unknown strategy {strategy_name!r} (known: {known})") from None
     return {state.name: strategy.action_for(state) for state in ruleset.states if state.is_decision}
 
-
-def _write_atomically(path: str, content: str) -> None:
-    """Write to a temporary file beside the target, then rename: never a partial file."""
-    from oddsbench.model.errors import OddsbenchError
-
-    folder = os.path.dirname(os.path.abspath(path))
-    try:
-        handle, temporary = tempfile.mkstemp(dir=folder, prefix=".series-", suffix=".csv")
-        with os.fdopen(handle, "w", encoding="utf-8") as stream:
-            stream.write(content)
-        os.replace(temporary, path)
-    except OSError as error:
-        raise OddsbenchError(f"--series-csv {path}: cannot write: {error.strerror}") from None

@@ -105,6 +105,12 @@ def solve_session(
         figures.update(within_figures)
     goal_series, goal_exact = _series(chain, series, series_exact)
     _underflow_notes(figures, notes)
+    goal = figures["goal_probability"]
+    if goal.exact is None and goal.decimal == 0.0 and any(value > 0 for value in goal_series[:-1]):
+        notes.append(
+            "goal_probability: shown as 0 because it is below the float range (about 1e-308); the goal can "
+            "be reached from higher bankrolls (see the series); solve a smaller grid exactly for its size"
+        )
     return SessionSolution(
         figures=figures,
         final=final,
