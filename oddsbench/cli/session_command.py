@@ -127,7 +127,7 @@ def run(args: argparse.Namespace) -> int:
     plans = args.plan or list(DEFAULT_PLANS)
     results = [analyse_session(distribution, settings, plan, args.exact_limit, args.rounds) for plan in plans]
     if args.series_csv:
-        from oddsbench.report.atomic_write import write_atomically
+        from oddsbench.model.atomic_write import write_atomically
 
         write_atomically(args.series_csv, series_csv(results), force=args.force)
     if args.json:
