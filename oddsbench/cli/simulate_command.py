@@ -6,7 +6,7 @@ import argparse
 import json
 
 from oddsbench.cli.best_command import GOAL_NAMES
-from oddsbench.cli.options import add_exact_limit, add_max_states, positive_int
+from oddsbench.cli.options import add_exact_limit, add_max_states, non_negative_int, positive_int
 from oddsbench.cli.session_options import add_session_options
 
 DEFAULT_EXACT_LIMIT = 5_000
@@ -21,16 +21,6 @@ def confidence_level(text: str) -> float:
         raise argparse.ArgumentTypeError(f"expected a number such as 0.99, got {text!r}") from None
     if not 0 < value < 1:
         raise argparse.ArgumentTypeError(f"expected a level strictly between 0 and 1 (such as 0.99), got {text}")
-    return value
-
-
-def seed_value(text: str) -> int:
-    try:
-        value = int(text)
-    except ValueError:
-        raise argparse.ArgumentTypeError(f"expected a whole number, got {text!r}") from None
-    if value < 0:
-        raise argparse.ArgumentTypeError(f"expected a whole number of at least 0, got {value}")
     return value
 
 
@@ -51,7 +41,7 @@ def register(commands) -> None:
         help=f"rounds to play (default {DEFAULT_TRIALS:,}), or sessions per plan (default {DEFAULT_SESSION_TRIALS:,})",
     )
     parser.add_argument(
-        "--seed", type=seed_value, metavar="S", help="random seed; without it a fresh seed is drawn and printed"
+        "--seed", type=non_negative_int, metavar="S", help="random seed; without it a fresh seed is drawn and printed"
     )
     parser.add_argument(
         "--confidence",
