@@ -11,6 +11,7 @@ from __future__ import annotations
 
 import os
 
+import pytest
 import tomlkit
 from hypothesis import HealthCheck, assume, event, given, settings
 from hypothesis import strategies as st
@@ -21,6 +22,9 @@ from oddsbench.model.expr import ExpressionError, evaluate, parse
 from oddsbench.model.load import read_ruleset_text
 from oddsbench.model.numbers import QQ
 from oddsbench.solve.round import solve_round
+
+# A numpy warning would print extra lines on the command line's stderr: treat it as a failure.
+pytestmark = pytest.mark.filterwarnings("error::RuntimeWarning")
 
 EXAMPLES = int(os.environ.get("ODDSBENCH_FUZZ_EXAMPLES", "0")) or None
 FUZZ = settings(

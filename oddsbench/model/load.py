@@ -292,6 +292,8 @@ class _Reader:
         title = self.text_field(head, "title", "[ruleset]", required=True)
         about = self.text_field(head, "about", "[ruleset]", required=False) or ""
         start = self.text_field(head, "start", "[ruleset]", required=True)
+        if start is not None and not start.strip():
+            self.error("[ruleset], start", "must name a state, not be blank")
         stake = self.value(head.get("stake", 1), "[ruleset], stake")
         if stake is not None and stake < 0:
             self.error("[ruleset], stake", f"cannot be negative, got {text(stake)}")

@@ -106,7 +106,8 @@ def solve_round(
             f"limit of {exact_limit:,} (raise it with --exact-limit); decimals are from the float engine"
         )
     try:
-        decimal = _decimal_moments(chain)
+        with np.errstate(all="ignore"):  # inf and nan are caught and named by _checked
+            decimal = _decimal_moments(chain)
     except FloatSingular:
         if exact is None:
             raise OddsbenchError(
@@ -125,7 +126,8 @@ def solve_round(
             f"lose {lost} of its 16 digits; "
             + ("the exact values stand" if exact is not None else "no exact values to check (raise --exact-limit)")
         )
-    figures, ends = _figures(chain, exact, decimal, notes)
+    with np.errstate(all="ignore"):
+        figures, ends = _figures(chain, exact, decimal, notes)
     results = _by_result(chain, ends)
     by_step: dict[str, Figure] = {}
     if rounds is not None:
@@ -154,10 +156,15 @@ def _one_step(chain: RoundChain, weight: Callable) -> list:
 
 
 def _floats_of(exact: _Moments) -> _Moments:
+    """Decimals derived from exact moments, as numpy floats (which overflow to inf, not raise)."""
+
+    def floated(value: Rational) -> np.float64:
+        return np.float64(to_float(value))
+
     return _Moments(
-        [to_float(value) for value in exact.end],
-        *(to_float(value) for value in (exact.net, exact.staked_extra, exact.net_second, exact.steps)),
-        to_float(exact.steps_second),
+        [floated(value) for value in exact.end],
+        *(floated(value) for value in (exact.net, exact.staked_extra, exact.net_second, exact.steps)),
+        floated(exact.steps_second),
     )
 
 
@@ -285,8 +292,9 @@ def _checked(name: str, exact: Rational | None, decimal: float, notes: list[str]
     gap = abs(decimal - truth)
     limit = RELATIVE_TOLERANCE * abs(truth) if truth != 0 else ZERO_TOLERANCE
     if not np.isfinite(decimal) or gap > limit:
+        shown = repr(truth) if np.isfinite(truth) else f"about 1e{log10_abs(exact):.0f}, beyond the float range"
         notes.append(
-            f"numerical warning: {name}: float engine gives {decimal!r}, exact value is {truth!r}; "
+            f"numerical warning: {name}: float engine gives {decimal!r}, exact value is {shown}; "
             "the exact value is shown"
         )
     return Figure(exact, truth)
