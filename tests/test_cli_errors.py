@@ -120,3 +120,12 @@ def test_unknown_strategy_is_one_line(capsys):
     code, _, err = run_cli(capsys, "solve", RULESETS / "pass-line.toml", "--strategy", "nope")
     assert code == 2
     assert err.strip() == "oddsbench: pass-line.toml: unknown strategy 'nope' (known: none defined)"
+
+
+def test_every_ruleset_command_prints_the_files_warnings(tmp_path, capsys):
+    path = tmp_path / "spare.toml"
+    path.write_text(HEAD + '[states.a]\noutcomes = [ { to = "b", pay = -1 } ]\n[states.b]\n[states.spare]\n')
+    for command in (["solve", path], ["best", path], ["session", path, "--bankroll", "3", "--goal", "6"]):
+        code, _, err = run_cli(capsys, *command)
+        assert code == 0, (command, err)
+        assert "spare.toml: warning: unreachable from start 'a': 'spare'" in err, command

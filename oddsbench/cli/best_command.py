@@ -38,12 +38,12 @@ def register(commands) -> None:
 
 
 def run(args: argparse.Namespace) -> int:
-    from oddsbench.model.load import load_ruleset
+    from oddsbench.cli.options import load_with_warnings
     from oddsbench.report.strategy_report import best_json, best_text, check_json, check_text
     from oddsbench.strategy.best_policy import best_policy, check_strategy
     from oddsbench.strategy.compare import starting_at
 
-    ruleset = starting_at(load_ruleset(args.file), args.start)
+    ruleset = starting_at(load_with_warnings(args.file), args.start)
     if args.check_strategy is not None:
         check = check_strategy(ruleset, args.check_strategy, args.goal, args.exact_limit)
         print(json.dumps(check_json(check), indent=2) if args.json else check_text(check))

@@ -51,15 +51,15 @@ def chosen_format(requested: str | None, output: str | None) -> str:
 
 
 def run(args: argparse.Namespace) -> int:
+    from oddsbench.cli.options import load_with_warnings
     from oddsbench.cli.session_options import wants_session
     from oddsbench.model.atomic_write import write_atomically
-    from oddsbench.model.load import load_ruleset
     from oddsbench.report.document import build_report
     from oddsbench.report.render_csv import render_csv
     from oddsbench.report.render_json import render_json
     from oddsbench.report.render_markdown import render_markdown
 
-    ruleset = load_ruleset(args.file)
+    ruleset = load_with_warnings(args.file)
     content = Path(args.file).read_text(encoding="utf-8")
     document = build_report(ruleset, content, args.strategy, args.rounds, args.exact_limit)
     if wants_session(args):

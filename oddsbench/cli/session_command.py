@@ -105,10 +105,10 @@ def run(args: argparse.Namespace) -> int:
         distribution = parse_round_text(args.round)
         title, source = "Inline round", "--round"
     else:
-        from oddsbench.model.load import load_ruleset
+        from oddsbench.cli.options import load_with_warnings
         from oddsbench.solve.round_distribution import round_distribution_of
 
-        ruleset = load_ruleset(args.file)
+        ruleset = load_with_warnings(args.file)
         distribution = round_distribution_of(ruleset, _policy(ruleset, args.strategy))
         title, source = ruleset.title, ruleset.source
         table = dict(ruleset.session)

@@ -97,15 +97,15 @@ def run(args: argparse.Namespace) -> int:
     import numpy as np
 
     from oddsbench.chain.round_chain import build_round_chain
+    from oddsbench.cli.options import load_with_warnings
     from oddsbench.cli.session_options import wants_session
-    from oddsbench.model.load import load_ruleset
     from oddsbench.report.simulation_report import simulation_json, simulation_text
     from oddsbench.simulate.checks import round_checks
     from oddsbench.simulate.round_sim import simulate_round
     from oddsbench.solve.round import solve_round
     from oddsbench.strategy.compare import starting_at
 
-    ruleset = starting_at(load_ruleset(args.file), args.start)
+    ruleset = starting_at(load_with_warnings(args.file), args.start)
     policy, play = round_play(ruleset, args)
     chain = build_round_chain(ruleset, policy, args.max_states)
     seed = args.seed if args.seed is not None else int(np.random.SeedSequence().entropy % (1 << 63))

@@ -45,6 +45,8 @@ def _log10_int(value: int) -> float:
 
 def decimal_text(decimal: float, exact: Rational | None = None, percent: bool = False) -> str:
     """Six significant digits; values beyond the float range are given as powers of ten."""
+    if decimal == 0:
+        decimal = 0.0  # a float engine's -0.0 (a fair game's edge) reads as 0
     if exact is not None and exact != 0 and (decimal == 0 or math.isinf(decimal)):
         power = log10_abs(exact)
         sign = "-" if exact < 0 else ""
