@@ -10,8 +10,9 @@ WHEEL = RULESETS / "single-zero-wheel.toml"
 
 
 def test_wheel_session_prints_flat_and_bold_columns_exact_and_decimal(capsys):
-    code, out, _ = run_cli(capsys, "session", WHEEL, "--bankroll", "100", "--goal", "200",
-                           "--plan", "flat:1", "--plan", "bold")
+    code, out, _ = run_cli(
+        capsys, "session", WHEEL, "--bankroll", "100", "--goal", "200", "--plan", "flat:1", "--plan", "bold"
+    )
     assert code == 0
     header = next(line for line in out.splitlines() if line.startswith("quantity"))
     assert "flat:1" in header and "bold" in header
@@ -27,13 +28,33 @@ def test_ruleset_session_table_supplies_defaults(capsys):
 
 
 def test_session_json_has_exact_and_decimal_pairs(capsys):
-    code, out, _ = run_cli(capsys, "session", "--round", "1:18/37,-1:19/37", "--bankroll", "10", "--goal", "20",
-                           "--plan", "bold", "--plan", "kelly:1/2", "--json", "--series")
+    code, out, _ = run_cli(
+        capsys,
+        "session",
+        "--round",
+        "1:18/37,-1:19/37",
+        "--bankroll",
+        "10",
+        "--goal",
+        "20",
+        "--plan",
+        "bold",
+        "--plan",
+        "kelly:1/2",
+        "--json",
+        "--series",
+    )
     assert code == 0
     body = json.loads(out)
     bold = body["plans"]["bold"]
-    for name in ("goal_probability", "ruin_probability", "expected_rounds", "rounds_variance", "expected_staked",
-                 "expected_final_bankroll"):
+    for name in (
+        "goal_probability",
+        "ruin_probability",
+        "expected_rounds",
+        "rounds_variance",
+        "expected_staked",
+        "expected_final_bankroll",
+    ):
         assert set(bold[name]) == {"exact", "decimal"}
     assert bold["goal_probability"]["exact"] is not None
     assert len(bold["goal_probability_by_bankroll"]) == 21
@@ -42,8 +63,20 @@ def test_session_json_has_exact_and_decimal_pairs(capsys):
 
 def test_series_csv_has_a_line_per_bankroll(capsys, tmp_path):
     target = tmp_path / "series.csv"
-    code, _, _ = run_cli(capsys, "session", "--round", "1:1/2,-1:1/2", "--bankroll", "5", "--goal", "10",
-                         "--plan", "timid", "--series-csv", target)
+    code, _, _ = run_cli(
+        capsys,
+        "session",
+        "--round",
+        "1:1/2,-1:1/2",
+        "--bankroll",
+        "5",
+        "--goal",
+        "10",
+        "--plan",
+        "timid",
+        "--series-csv",
+        target,
+    )
     assert code == 0
     lines = target.read_text().splitlines()
     assert lines[0] == "bankroll,timid" and len(lines) == 12 and lines[6] == "5,0.5"

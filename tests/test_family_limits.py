@@ -28,15 +28,13 @@ def test_fixed_ranges_past_the_budget_are_refused_with_their_count(small_budget)
 
 def test_dependent_ranges_that_a_filter_empties_stop_at_the_budget(small_budget):
     text = HEAD + '[families.s]\nstate = "s-{a}-{b}"\nindex = { a = [0, 99], b = [0, "a"] }\nwhen = "a < 0"\n'
-    assert errors(text) == [
-        "f.toml: family 's': index ranges give more than 1,000 combinations to try (the limit)"
-    ]
+    assert errors(text) == ["f.toml: family 's': index ranges give more than 1,000 combinations to try (the limit)"]
 
 
 def test_outcome_ranges_that_a_filter_empties_stop_at_the_budget(small_budget):
     text = (
         '[ruleset]\ntitle = "t"\nstart = "s-0"\n[states.end]\n[families.s]\nstate = "s-{t}"\n'
-        'index = { t = [0, 3] }\n'
+        "index = { t = [0, 3] }\n"
         'outcomes = [{ each = { f = [0, 100000] }, to = "s-{t}", when = "f < 0" }, { to = "end" }]\n'
     )
     assert errors(text) == [

@@ -93,7 +93,10 @@ def test_a_process_killed_while_saving_leaves_the_old_file_whole(moment, tmp_pat
     )
     assert finished.returncode == 0, finished.stderr
     printed = subprocess.run(
-        [sys.executable, "-m", "oddsbench", "report", str(PASS_LINE)], cwd=tmp_path, env=_env(), capture_output=True,
+        [sys.executable, "-m", "oddsbench", "report", str(PASS_LINE)],
+        cwd=tmp_path,
+        env=_env(),
+        capture_output=True,
         text=True,
     )
     written = target.read_text(encoding="utf-8")

@@ -81,8 +81,9 @@ def test_feller_rows_match_closed_form(p, z, a, ruin, success, gain, duration):
     assert printed(float(duration_closed_form(p, z, a)), duration) or "." not in duration
 
 
-@pytest.mark.parametrize(("p", "z", "a"), [(QQ(9, 20), 9, 10), (QQ(9, 20), 90, 100), (QQ(2, 5), 99, 100),
-                                            (QQ(1, 2), 90, 100)])
+@pytest.mark.parametrize(
+    ("p", "z", "a"), [(QQ(9, 20), 9, 10), (QQ(9, 20), 90, 100), (QQ(2, 5), 99, 100), (QQ(1, 2), 90, 100)]
+)
 def test_exact_ruin_equals_closed_form_for_rational_p(p, z, a):
     figures = session(p, z, a).figures
     assert figures["ruin_probability"].exact == ruin_closed_form(p, z, a)
@@ -169,8 +170,9 @@ def test_martingale_series_fails_with_chance_q_to_the_k(series):
     # Bankroll 2^k - 1 covers exactly one series; a won series nets +1 and reaches the goal.
     q = QQ(19, 37)
     bankroll = 2**series - 1
-    result = analyse_session(walk(QQ(18, 37)), SessionSettings(QQ(bankroll), QQ(bankroll + 1)),
-                             f"martingale:1:{series}")
+    result = analyse_session(
+        walk(QQ(18, 37)), SessionSettings(QQ(bankroll), QQ(bankroll + 1)), f"martingale:1:{series}"
+    )
     assert result.figures["ruin_probability"].exact == q**series
 
 

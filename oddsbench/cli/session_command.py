@@ -157,4 +157,3 @@ def _policy(ruleset, strategy_name: str | None) -> dict:
         known = ", ".join(s.name for s in ruleset.strategies) or "none defined"
         raise OddsbenchError(f"{ruleset.source}: unknown strategy {strategy_name!r} (known: {known})") from None
     return {state.name: strategy.action_for(state) for state in ruleset.states if state.is_decision}
-

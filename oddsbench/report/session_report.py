@@ -86,8 +86,10 @@ def session_rows(results: list[SessionFigures]) -> list[list[str]]:
 
 
 def _round_line(distribution: RoundDistribution) -> str:
-    parts = [f"{text(o.net)}:{text(o.prob)}" + (f" (+{text(o.extra)} staked)" if o.extra else "") for o in
-             distribution.outcomes]
+    parts = [
+        f"{text(o.net)}:{text(o.prob)}" + (f" (+{text(o.extra)} staked)" if o.extra else "")
+        for o in distribution.outcomes
+    ]
     return "net per unit staked : chance  " + ", ".join(parts)
 
 
@@ -128,7 +130,10 @@ def series_sample(result: SessionFigures, points: int = SERIES_POINTS) -> list[t
 
 
 def session_text(
-    title: str, distribution: RoundDistribution, settings: SessionSettings, results: list[SessionFigures],
+    title: str,
+    distribution: RoundDistribution,
+    settings: SessionSettings,
+    results: list[SessionFigures],
     notes: list[str] | None = None,
 ) -> str:
     """The human output of ``oddsbench session``."""
@@ -160,15 +165,22 @@ def session_text(
 
 def _final_json(values) -> list[dict[str, Any]]:
     return [
-        {"bankroll": {"exact": text(v.money), "decimal": to_float(v.money)}, "kind": v.kind,
-         "probability": figure_json(v.chance)}
+        {
+            "bankroll": {"exact": text(v.money), "decimal": to_float(v.money)},
+            "kind": v.kind,
+            "probability": figure_json(v.chance),
+        }
         for v in values
     ]
 
 
 def session_json(
-    title: str, distribution: RoundDistribution, settings: SessionSettings, results: list[SessionFigures],
-    notes: list[str] | None = None, series: bool = False,
+    title: str,
+    distribution: RoundDistribution,
+    settings: SessionSettings,
+    results: list[SessionFigures],
+    notes: list[str] | None = None,
+    series: bool = False,
 ) -> dict[str, Any]:
     """The documented ``--json`` object of ``oddsbench session``."""
     plans: dict[str, Any] = {}
@@ -182,18 +194,25 @@ def session_json(
         if series:
             exact = result.goal_series_exact
             body["goal_probability_by_bankroll"] = [
-                {"bankroll": text(result.step * k), "exact": None if exact is None else text(exact[k]),
-                 "decimal": value}
+                {
+                    "bankroll": text(result.step * k),
+                    "exact": None if exact is None else text(exact[k]),
+                    "decimal": value,
+                }
                 for k, value in enumerate(result.goal_series)
             ]
         body["notes"] = list(result.notes)
         plans[result.plan] = body
     return {
         "ruleset": title,
-        "round": [{"net": text(o.net), "probability": text(o.prob), "extra_stake": text(o.extra)}
-                  for o in distribution.outcomes],
+        "round": [
+            {"net": text(o.net), "probability": text(o.prob), "extra_stake": text(o.extra)}
+            for o in distribution.outcomes
+        ],
         "settings": {
-            "bankroll": text(settings.bankroll), "goal": text(settings.goal), "floor": text(settings.floor),
+            "bankroll": text(settings.bankroll),
+            "goal": text(settings.goal),
+            "floor": text(settings.floor),
             "min_bet": None if settings.min_bet is None else text(settings.min_bet),
             "max_bet": None if settings.max_bet is None else text(settings.max_bet),
             "unit": None if settings.unit is None else text(settings.unit),

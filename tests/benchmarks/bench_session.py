@@ -42,8 +42,9 @@ def paytable():
 def q_system(distribution, goal):
     grid = make_grid(distribution, QQ(goal // 2), QQ(goal))
     outcomes = len(distribution.outcomes)
-    chain = build_bankroll_chain(distribution, grid, np.ones((1, grid.width), dtype=np.int64),
-                                 np.zeros((1, outcomes), dtype=np.int64))
+    chain = build_bankroll_chain(
+        distribution, grid, np.ones((1, grid.width), dtype=np.int64), np.zeros((1, outcomes), dtype=np.int64)
+    )
     return chain
 
 
@@ -56,26 +57,35 @@ def main(quick: bool) -> None:
     wheel = parse_round_text(WHEEL)
     p, q = 18 / 37, 19 / 37
     print("Decimal engine (float64), timid play on an even-money wheel bet, bankroll = goal / 2")
-    for goal in ([10**4, 10**5] if quick else [10**4, 10**5, 10**6]):
+    for goal in [10**4, 10**5] if quick else [10**4, 10**5, 10**6]:
         build, chain = timed(lambda g=goal: q_system(wheel, g))
         seconds, result = timed(lambda g=goal: analyse_session(wheel, SessionSettings(QQ(g // 2), QQ(g)), "timid"))
         rounds = result.figures["expected_rounds"].decimal
         z, a = goal // 2, goal
         r = q / p  # Feller ch. XIV (3.4), with (1 - r^z)/(1 - r^a) written as r^(z-a)(r^-z - 1)/(r^-a - 1)
         exact_rounds = z / (q - p) - a / (q - p) * r ** (z - a) * (r**-z - 1) / (r**-a - 1)
-        row(f"ours, {goal:,} units (build {build:.2f} s)", seconds, f"E[rounds] {rounds:.10g}",
-            f"closed form {exact_rounds:.10g}")
+        row(
+            f"ours, {goal:,} units (build {build:.2f} s)",
+            seconds,
+            f"E[rounds] {rounds:.10g}",
+            f"closed form {exact_rounds:.10g}",
+        )
     seconds, result = timed(lambda: analyse_session(wheel, SessionSettings(QQ(5 * 10**5), QQ(10**6)), "bold"))
-    row("ours, bold play, 1,000,000 units", seconds, f"P(goal) {result.figures['goal_probability'].decimal:.6f}",
-        "Dubins-Savage: 18/37 = 0.486486")
+    row(
+        "ours, bold play, 1,000,000 units",
+        seconds,
+        f"P(goal) {result.figures['goal_probability'].decimal:.6f}",
+        "Dubins-Savage: 18/37 = 0.486486",
+    )
     size = 3000
     chain = q_system(wheel, size + 1)
     dense = np.eye(chain.size) - chain.q_matrix().toarray()
     rhs = np.ones(chain.size)
     seconds, solved = timed(lambda: np.linalg.solve(dense, rhs))
     row(f"dense numpy solve, {chain.size:,} states", seconds, f"E[rounds] {solved[chain.start]:.10g}")
-    seconds, result = timed(lambda: analyse_session(wheel, SessionSettings(QQ((size + 1) // 2), QQ(size + 1)),
-                                                    "timid", exact_limit=0))
+    seconds, result = timed(
+        lambda: analyse_session(wheel, SessionSettings(QQ((size + 1) // 2), QQ(size + 1)), "timid", exact_limit=0)
+    )
     rounds = result.figures["expected_rounds"].decimal
     row(f"ours (decimal), {chain.size:,} states", seconds, f"E[rounds] {rounds:.10g}")
     q_matrix = chain.q_matrix()
@@ -92,26 +102,38 @@ def main(quick: bool) -> None:
 
     seconds, (sweeps, h) = timed(value_iteration)
     truth = result.figures["goal_probability"].decimal
-    row(f"value iteration, {chain.size:,} states", seconds, f"{sweeps:,} sweeps",
-        f"P(goal) {h[chain.start]:.6g} vs {truth:.6g}")
+    row(
+        f"value iteration, {chain.size:,} states",
+        seconds,
+        f"{sweeps:,} sweeps",
+        f"P(goal) {h[chain.start]:.6g} vs {truth:.6g}",
+    )
 
     print()
     print("Decimal engine, paytable with 38 outcomes and payouts up to 1000x, flat 1")
     table = paytable()
     print(f"  house edge {to_float(table.house_edge):.4f}")
-    for goal in ([10**4] if quick else [10**4, 10**5]):
+    for goal in [10**4] if quick else [10**4, 10**5]:
         seconds, result = timed(lambda g=goal: analyse_session(table, SessionSettings(QQ(g // 2), QQ(g)), "flat:1"))
-        row(f"ours, {goal:,} units", seconds, f"E[rounds] {result.figures['expected_rounds'].decimal:.8g}",
+        row(
+            f"ours, {goal:,} units",
+            seconds,
+            f"E[rounds] {result.figures['expected_rounds'].decimal:.8g}",
             f"E[net] = -edge x staked: {result.figures['expected_net'].decimal:.6g} "
-            f"= {result.figures['edge_times_staked'].decimal:.6g}")
+            f"= {result.figures['edge_times_staked'].decimal:.6g}",
+        )
 
     print()
     print("Exact engine (rationals), timid play on the wheel bet")
     for goal in (201, 1001, 2001):
         settings = SessionSettings(QQ(goal // 2), QQ(goal))
         seconds, result = timed(lambda s=settings: analyse_session(wheel, s, "timid"))
-        row(f"ours, full session, {goal - 1:,} states", seconds,
-            f"P(goal) {result.figures['goal_probability'].decimal:.6g}", f"exact: {result.exact}")
+        row(
+            f"ours, full session, {goal - 1:,} states",
+            seconds,
+            f"P(goal) {result.figures['goal_probability'].decimal:.6g}",
+            f"exact: {result.exact}",
+        )
     from oddsbench.solve.exact_linear import ExactSparseLU, identity_minus
 
     chain = q_system(wheel, 2001)
@@ -135,8 +157,12 @@ def main(quick: bool) -> None:
     print()
     print("Optimiser (plan best), even-money wheel bet, bankroll 100, goal 200")
     seconds, result = timed(lambda: analyse_session(wheel, SessionSettings(QQ(100), QQ(200)), "best"))
-    row("ours, policy iteration + exact certificate", seconds,
-        f"P(goal) {result.figures['goal_probability'].decimal:.6f}", "bold play: 0.486486")
+    row(
+        "ours, policy iteration + exact certificate",
+        seconds,
+        f"P(goal) {result.figures['goal_probability'].decimal:.6f}",
+        "bold play: 0.486486",
+    )
 
 
 if __name__ == "__main__":
