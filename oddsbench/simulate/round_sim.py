@@ -23,6 +23,11 @@ from oddsbench.simulate.moments import CrossMoment, Moments
 BATCH_SIZE = 1 << 18
 DEFAULT_MAX_STEPS = 1_000_000
 MAX_TRIALS = 10**10
+STEP_BUDGET = 1_000_000_000  # trial-steps in one run: about a minute or two of sampling
+
+
+class StepBudgetExceeded(OddsbenchError):
+    """A simulation whose rounds are so long that it would run for many minutes."""
 
 
 class SimulationCancelled(Exception):
@@ -99,7 +104,8 @@ def simulate_round(
     done_trials = 0
     while done_trials < trials:
         size = min(batch_size, trials - done_trials)
-        _run_batch(sample, size, player, rng, max_steps, should_stop)
+        budget = STEP_BUDGET - sample.steps_taken
+        _run_batch(sample, size, player, rng, max_steps, should_stop, budget)
         done_trials += size
     sample.seconds = time.perf_counter() - began
     return sample
@@ -126,8 +132,19 @@ class RoundPlayer:
         tables = build_alias_tables(source, prob, chain.transient_count)
         return cls(tables, target, pay, extra if np.any(extra) else None, chain.transient_count, to_float(chain.stake))
 
-    def play(self, size: int, rng: np.random.Generator, max_steps: int = DEFAULT_MAX_STEPS, should_stop=None):
-        """``size`` rounds at once: (end index or -1 if unfinished, net, total staked, steps, steps taken)."""
+    def play(
+        self,
+        size: int,
+        rng: np.random.Generator,
+        max_steps: int = DEFAULT_MAX_STEPS,
+        should_stop=None,
+        budget: int = STEP_BUDGET,
+    ):
+        """``size`` rounds at once: (end index or -1 if unfinished, net, total staked, steps, steps taken).
+
+        Raises StepBudgetExceeded once more than ``budget`` trial-steps would be taken, so a chain
+        whose rounds almost never end cannot keep the command busy for hours.
+        """
         n = self.transient
         live = np.arange(size)
         state = np.zeros(size, dtype=np.int64)
@@ -146,6 +163,11 @@ class RoundPlayer:
             state = self.target[edge]
             step += 1
             taken += live.size
+            if taken > budget:
+                raise StepBudgetExceeded(
+                    f"simulation stopped: over {STEP_BUDGET:,} simulated steps in all (rounds here last "
+                    f"{step:,}+ steps); use fewer --trials or a lower --max-steps"
+                )
             ended = state >= n
             if ended.any():
                 finished = live[ended]
@@ -156,8 +178,8 @@ class RoundPlayer:
         return end, net, staked, steps, taken
 
 
-def _run_batch(sample, size, player: RoundPlayer, rng, max_steps, should_stop) -> None:
-    end, net, staked, steps, taken = player.play(size, rng, max_steps, should_stop)
+def _run_batch(sample, size, player: RoundPlayer, rng, max_steps, should_stop, budget: int) -> None:
+    end, net, staked, steps, taken = player.play(size, rng, max_steps, should_stop, budget)
     sample.steps_taken += taken
     finished_mask = end >= 0
     sample.unfinished += int(size - finished_mask.sum())
