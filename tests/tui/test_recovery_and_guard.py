@@ -2,10 +2,19 @@
 
 from __future__ import annotations
 
+import asyncio
+import os
+import signal
+import subprocess
+import sys
+import time
+
+import pytest
+
 from oddsbench.model.recovery import copy_path, find_recovery
 from oddsbench.tui.screens.dialogs import AskName, Choose
 from oddsbench.tui.screens.open_file import OpenScreen
-from tests.tui.helpers import app_on, copy_ruleset, edit_field, figure, go_to_state, settle
+from tests.tui.helpers import ROOT, app_on, copy_ruleset, edit_field, figure, go_to_state, settle
 
 # Pass line: house edge 7/495 (Epstein, The Theory of Gambling and Statistical Logic, ch. on dice (from memory)).
 PASS_LINE_EDGE = "7/495"
@@ -200,3 +209,63 @@ async def test_a_new_ruleset_with_unsaved_changes_asks_first_and_save_keeps_them
         assert app.workbench.session.path == tmp_path / "new-game.toml"
     assert 'prob = "24/36"' in path.read_text()
     assert not copy_path(path).exists()
+
+
+# A real process: the workbench runs headless in a child, edits, and is killed with SIGKILL, so no
+# exit code of any kind runs; the next workbench on the same file must offer the edits back.
+KILLED_SESSION = """
+import asyncio, sys
+from pathlib import Path
+from tests.tui.helpers import ROOT, app_on, edit_field, go_to_state, settle
+
+path, ready = Path(sys.argv[1]), Path(sys.argv[2])
+
+async def edit_then_wait(pilot):
+    await settle(pilot)
+    await go_to_state(pilot, "point-4")
+    await edit_field(pilot, 0, "prob", "6/36")
+    await edit_field(pilot, 2, "prob", "24/36")
+    part = ready.with_suffix(".part")
+    part.write_text(pilot.app.workbench.session.text)
+    part.rename(ready)
+    await asyncio.sleep(600)
+
+app_on(path, path.parent).run(headless=True, size=(100, 30), auto_pilot=edit_then_wait)
+"""
+
+
+@pytest.mark.skipif(not hasattr(signal, "SIGKILL"), reason="needs SIGKILL")
+async def test_recovery_copy_offered_after_a_process_killed_with_sigkill(tmp_path, recovery_folder):
+    path = copy_ruleset("pass-line.toml", tmp_path)
+    original = path.read_text()
+    ready = tmp_path / "ready.txt"
+    env = {**os.environ, "PYTHONPATH": str(ROOT), "ODDSBENCH_RECOVERY_DIR": str(recovery_folder)}
+    child = subprocess.Popen(
+        [sys.executable, "-c", KILLED_SESSION, str(path), str(ready)],
+        env=env,
+        cwd=tmp_path,
+        stdout=subprocess.DEVNULL,
+        stderr=subprocess.PIPE,
+    )
+    try:
+        deadline = time.monotonic() + 90  # generous for a loaded machine; about 3 s when idle
+        while not ready.exists() and child.poll() is None and time.monotonic() < deadline:
+            await asyncio.sleep(0.1)
+    finally:
+        if child.poll() is None:
+            child.send_signal(signal.SIGKILL)
+        child.wait(timeout=30)
+        errors = child.stderr.read()
+        child.stderr.close()
+    assert ready.exists(), f"the child workbench did not finish its edits: {errors[-2000:]!r}"
+    assert child.returncode == -signal.SIGKILL
+    edited = ready.read_text()
+    assert path.read_text() == original
+    app = app_on(path, tmp_path)
+    async with app.run_test(size=(100, 30)) as pilot:
+        await settle(pilot)
+        assert isinstance(app.screen, Choose)
+        await pilot.press("r")
+        await settle(pilot)
+        assert app.workbench.session.text == edited and app.workbench.session.dirty
+        assert figure(app, "house edge")[0] == EDITED_EDGE
