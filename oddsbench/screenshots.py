@@ -8,6 +8,7 @@ rulesets is used, so nothing in the repository is edited.
 from __future__ import annotations
 
 import asyncio
+import os
 import shutil
 import sys
 import tempfile
@@ -15,6 +16,7 @@ from collections.abc import Awaitable, Callable
 from dataclasses import dataclass
 from pathlib import Path
 
+from oddsbench.model.recovery import ENV_VAR as RECOVERY_ENV
 from oddsbench.tui.app import create_app
 from oddsbench.tui.bundled import bundled_folder
 
@@ -68,10 +70,20 @@ async def take_all(
     written = []
     with tempfile.TemporaryDirectory() as scratch_name:
         scratch = Path(scratch_name)
-        for path in bundled_folder().glob("*.toml"):
-            shutil.copy(path, scratch / path.name)
-        for scene in scenes:
-            written.append(await take(scene, folder, scratch))
+        # Scenes leave unsaved edits: each scene's recovery copies stay in its own scratch folder, so
+        # neither an earlier scene nor an old copy in the user's folder puts a dialog into a screenshot.
+        before = os.environ.get(RECOVERY_ENV)
+        try:
+            for path in bundled_folder().glob("*.toml"):
+                shutil.copy(path, scratch / path.name)
+            for scene in scenes:
+                os.environ[RECOVERY_ENV] = str(scratch / f".recovery-{scene.name}")
+                written.append(await take(scene, folder, scratch))
+        finally:
+            if before is None:
+                os.environ.pop(RECOVERY_ENV, None)
+            else:
+                os.environ[RECOVERY_ENV] = before
     return written
 
 

@@ -10,6 +10,14 @@ ROOT = Path(__file__).resolve().parent.parent
 RULESETS = ROOT / "rulesets"
 
 
+@pytest.fixture(autouse=True)
+def recovery_folder(tmp_path_factory, monkeypatch) -> Path:
+    """Workbench recovery copies of every test go to a fresh folder, never the home folder."""
+    folder = tmp_path_factory.mktemp("recovery")
+    monkeypatch.setenv("ODDSBENCH_RECOVERY_DIR", str(folder))
+    return folder
+
+
 @pytest.fixture
 def rulesets_dir() -> Path:
     return RULESETS

@@ -11,6 +11,7 @@ from textual.screen import Screen
 
 from oddsbench.model.atomic_write import write_text_atomically
 from oddsbench.model.errors import OddsbenchError
+from oddsbench.model.recovery import discard_recovery, find_recovery
 from oddsbench.tui.bundled import demo_ruleset
 from oddsbench.tui.editing import EditSession
 from oddsbench.tui.screens.dialogs import AskName, Choose
@@ -44,6 +45,8 @@ class WorkbenchApp(App):
         self.push_screen(WorkbenchScreen(self.session, self.folder))
         if self.missing is not None:
             self._offer_to_create(self.missing)
+        else:
+            self._offer_recovery()
 
     @property
     def workbench(self) -> WorkbenchScreen:
@@ -82,6 +85,46 @@ class WorkbenchApp(App):
         old = self.workbench
         self.push_screen(WorkbenchScreen(session, self.folder))
         self.call_later(self._drop_screen, old)
+        self._offer_recovery()
+
+    def _offer_recovery(self) -> None:
+        """If a killed session left unsaved edits of this file, offer them back."""
+        session = self.session
+        if session.path is None:
+            return
+        found = find_recovery(session.path, session.saved_text)
+        if found.problem:
+            self.notify(found.problem, severity="warning")
+        copy = found.copy
+        if copy is None:
+            return
+        screen = self.workbench
+        path = session.path
+
+        def answered(answer: str) -> None:
+            if answer == "r":
+                session.replace_text(copy.text, "restored unsaved edits")
+                session.seal()
+                screen._refresh_forced()
+                self.notify("unsaved edits restored: Ctrl+S saves them, Ctrl+Z takes them back")
+            elif answer == "d":
+                discard_recovery(path)
+                self.notify("recovery copy discarded")
+            else:
+                self.notify("recovery copy kept; the file is shown as saved")
+
+        detail = f"{path}"
+        if copy.disk_changed(session.saved_text):
+            detail += "\nthe file changed on disk since: restoring replaces what is there now"
+        question = f"Unsaved edits of {path.name} from {copy.written_local()} were kept: that session ended unsaved."
+        self.push_screen(
+            Choose(
+                question,
+                [("r", "Restore them"), ("d", "Discard the copy"), ("k", "Keep the copy, open as saved")],
+                detail=detail,
+            ),
+            answered,
+        )
 
     async def _drop_screen(self, screen: WorkbenchScreen) -> None:
         if screen in self.screen_stack:
@@ -104,6 +147,7 @@ class WorkbenchApp(App):
                 if screen._save(None):
                     then()
             elif answer == "d":
+                self.workbench.drop_recovery()
                 then()
 
         self.push_screen(

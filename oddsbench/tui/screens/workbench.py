@@ -21,6 +21,7 @@ from textual.worker import get_current_worker
 from oddsbench.model.document import DocumentError
 from oddsbench.model.errors import OddsbenchError, Problem
 from oddsbench.model.places import place_of
+from oddsbench.model.recovery import discard_recovery, write_recovery
 from oddsbench.tui import analysis
 from oddsbench.tui.analysis import Reading, RoundFailure, RoundResult
 from oddsbench.tui.editing import EditSession
@@ -89,6 +90,8 @@ class WorkbenchScreen(Screen):
         self.sessions_result = None
         self.sessions_key: tuple | None = None
         self.sessions_busy = False
+        self.recovery_for: Path | None = None  # the path whose recovery copy this screen wrote
+        self.recovery_failed = False
 
     # ----- layout -----
 
@@ -160,7 +163,33 @@ class WorkbenchScreen(Screen):
             self.query_one("#views", ContentSwitcher).current = "source"
         if self.query_one("#views", ContentSwitcher).current == "source":
             self._fill_source()
+        self.sync_recovery()
         self.analyse()
+
+    # ----- recovery copy -----
+
+    def sync_recovery(self) -> None:
+        """Unsaved changes are kept in a recovery copy; back at the saved text, the copy goes."""
+        path = self.session.path
+        if self.session.dirty and path is not None:
+            if self.recovery_for is not None and self.recovery_for != path:
+                discard_recovery(self.recovery_for)
+            try:
+                write_recovery(path, self.session.text, self.session.saved_text)
+            except OddsbenchError as error:
+                if not self.recovery_failed:
+                    self.notify(f"no recovery copy: {error}", severity="warning")
+                self.recovery_failed = True
+                return
+            self.recovery_for = path
+        else:
+            self.drop_recovery()
+
+    def drop_recovery(self) -> None:
+        """The unsaved changes were saved or given up: their recovery copy is no longer wanted."""
+        if self.recovery_for is not None:
+            discard_recovery(self.recovery_for)
+            self.recovery_for = None
 
     def _failing_states(self, problems: tuple[Problem, ...]) -> set[str]:
         return {place.state for p in problems if p.is_error if (place := place_of(p)).state}
@@ -670,6 +699,7 @@ class WorkbenchScreen(Screen):
         if errors:
             message += f" (with {len(errors)} problem(s): `oddsbench check` will report them)"
         self.notify(message, severity="warning" if errors else "information")
+        self.sync_recovery()
         self._update_topbar()
         return True
 
