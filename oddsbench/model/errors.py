@@ -54,3 +54,15 @@ class RulesetError(Exception):
 
 class OddsbenchError(Exception):
     """A user-facing failure outside ruleset files (bad option values, limits); one line."""
+
+
+def type_name(value: object) -> str:
+    """A TOML value's kind in words, for messages such as "must be text, not a whole number"."""
+    return {
+        bool: "true/false",
+        int: "a whole number",
+        float: "a decimal number",
+        str: "text",
+        list: "a list",
+        dict: "a table",
+    }.get(type(value), type(value).__name__)

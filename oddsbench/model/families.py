@@ -25,7 +25,7 @@ from collections.abc import Iterator, Mapping
 from dataclasses import dataclass
 from typing import Any
 
-from oddsbench.model.errors import Problem
+from oddsbench.model.errors import Problem, type_name
 from oddsbench.model.expr import ExpressionError, Node, evaluate, names_in, parse
 from oddsbench.model.numbers import Rational, is_integer, text, to_int
 
@@ -125,7 +125,7 @@ def _value_node(raw: Any, what: str) -> Node | int:
     if isinstance(raw, float):
         raise FamilyError(f'{what}: write decimals in quotes ("{raw}") so they stay exact')
     if isinstance(raw, bool) or not isinstance(raw, int | str):
-        raise FamilyError(f"{what} must be a whole number or an expression in quotes, not {_type_name(raw)}")
+        raise FamilyError(f"{what} must be a whole number or an expression in quotes, not {type_name(raw)}")
     if isinstance(raw, int):
         return raw
     try:
@@ -255,7 +255,7 @@ class _Outcome:
 
     def __init__(self, raw: Any, where: str, taken: set[str], warn) -> None:
         if not isinstance(raw, dict):
-            raise FamilyError(f'{where}: must be a table like {{ to = "...", prob = "..." }}, not {_type_name(raw)}')
+            raise FamilyError(f'{where}: must be a table like {{ to = "...", prob = "..." }}, not {type_name(raw)}')
         for key in raw:
             if key not in FAMILY_OUTCOME_KEYS:
                 warn(where, f"unknown field {key!r} is ignored")
@@ -332,7 +332,7 @@ class _Family:
         self.tried = [MAX_FAMILY_COMBINATIONS]
         where = f"family {name!r}"
         if not isinstance(raw, dict):
-            raise FamilyError(f"{where}: must be a table, not {_type_name(raw)}")
+            raise FamilyError(f"{where}: must be a table, not {type_name(raw)}")
         for key in raw:
             if key not in FAMILY_KEYS:
                 warn(where, f"unknown field {key!r} is ignored")
@@ -368,7 +368,7 @@ class _Family:
         if raw is None:
             return None
         if not isinstance(raw, list):
-            raise FamilyError(f"{where}: must be a list of outcome tables, not {_type_name(raw)}")
+            raise FamilyError(f"{where}: must be a list of outcome tables, not {type_name(raw)}")
         return [_Outcome(item, f"{where}, outcome {i}", taken, warn) for i, item in enumerate(raw, start=1)]
 
     def members(self, params: dict[str, Rational]) -> Iterator[tuple[dict[str, Rational], str]]:
@@ -443,7 +443,7 @@ def expand_families(
     tables: dict[str, dict[str, Any]] = {}
     members: dict[str, FamilyMember] = {}
     if not isinstance(raw, dict):
-        problems.append(Problem(source, "[families]", f"must be a table, not {_type_name(raw)}"))
+        problems.append(Problem(source, "[families]", f"must be a table, not {type_name(raw)}"))
         return FamilyExpansion(tables, members)
 
     def warn(where: str, message: str) -> None:
@@ -546,7 +546,7 @@ def rule_actions(
     for number, rule in enumerate(rules, start=1):
         place = f"{where}, rule {number}"
         if not isinstance(rule, dict):
-            error(place, f'must be a table like {{ family = "...", action = "..." }}, not {_type_name(rule)}')
+            error(place, f'must be a table like {{ family = "...", action = "..." }}, not {type_name(rule)}')
             continue
         for key in rule:
             if key not in RULE_KEYS:
@@ -580,14 +580,3 @@ def rule_actions(
                 error(f"{place}, when {when!r}", f"at {shown}: {problem}")
                 break
     return list(chosen.items())
-
-
-def _type_name(value: Any) -> str:
-    return {
-        bool: "true/false",
-        int: "a whole number",
-        float: "a decimal number",
-        str: "text",
-        list: "a list",
-        dict: "a table",
-    }.get(type(value), type(value).__name__)

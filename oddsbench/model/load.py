@@ -12,7 +12,7 @@ from dataclasses import dataclass
 from pathlib import Path
 from typing import Any
 
-from oddsbench.model.errors import Problem, RulesetError, shown_name
+from oddsbench.model.errors import Problem, RulesetError, shown_name, type_name
 from oddsbench.model.expr import ExpressionError, evaluate, names_in, parse
 from oddsbench.model.families import (
     FamilyMember,
@@ -199,17 +199,6 @@ def document_problems(document: dict[str, Any], source: str) -> list[Problem]:
 def _path_key(key: str) -> str:
     plain = key.replace("-", "").replace("_", "").isalnum() and key.isascii()
     return key if plain else shown_name(key)
-
-
-def type_name(value: Any) -> str:
-    return {
-        bool: "true/false",
-        int: "a whole number",
-        float: "a decimal number",
-        str: "text",
-        list: "a list",
-        dict: "a table",
-    }.get(type(value), type(value).__name__)
 
 
 class _Reader:

@@ -332,7 +332,8 @@ def _root_in_unit_interval(low_first: tuple[int, ...], digits: int) -> Character
     carrier = None
     for factor, _multiplicity in poly.factor_list()[1]:
         # count_roots counts the closed interval [0, 1]: t - 1 always divides P and must be skipped
-        if factor.degree() >= 1 and factor.eval(1) != 0 and factor.count_roots(0, 1) == 1:
+        # Poly.eval evaluates an integer polynomial at 1; no text is parsed.
+        if factor.degree() >= 1 and factor.eval(1) != 0 and factor.count_roots(0, 1) == 1:  # safe: Poly.eval
             carrier = factor
             break
     if carrier is None:
