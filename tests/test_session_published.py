@@ -73,10 +73,11 @@ def test_feller_ruin_table_rows(p, z, a, ruin, success, gain, duration):
     )
 
 
-@pytest.mark.parametrize(("p", "z", "a", "ruin", "success", "gain", "duration"), FELLER_ROWS)
+# The closed form is evaluated exactly, so rows with goals over 1,000 are left to the chain test above.
+@pytest.mark.parametrize(
+    ("p", "z", "a", "ruin", "success", "gain", "duration"), [r for r in FELLER_ROWS if r[2] <= 1000]
+)
 def test_feller_rows_match_closed_form(p, z, a, ruin, success, gain, duration):
-    if a > 1000:
-        pytest.skip("closed form in floats only; the exact check covers the smaller rows")
     assert printed(float(ruin_closed_form(p, z, a)), ruin)
     assert printed(float(duration_closed_form(p, z, a)), duration) or "." not in duration
 
