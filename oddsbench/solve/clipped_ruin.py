@@ -311,30 +311,17 @@ def _certain(problem: _Problem, common: dict, notes: list[str], shown_mean: str,
         rounds = RoundsToRuin(
             "infinite", None, None, None, None, "fair game: ruin is certain but its expected time is infinite"
         )
-    return UnboundedRuin(
-        **common,
+    return ur.settled_ruin(
+        common,
         verdict=ur.VERDICT_CERTAIN,
+        ruin=QQ(1),
         reason=reason,
-        ruin=ur._certified_exact(QQ(1), digits),
-        ruin_exact=QQ(1),
-        ruin_closed_form=QQ(1),
-        ruin_exact_text="1",
         method="expected result per round <= 0 at the full bet",
-        error_bound="none: exact",
-        theta=None,
-        adjustment_coefficient=None,
-        lundberg=None,
-        lundberg_exact_text="-",
-        lundberg_text="not applicable: no adjustment coefficient R > 0 when the expected result is <= 0",
-        diffusion=None,
+        lundberg_text=ur.NO_ADJUSTMENT_COEFFICIENT,
         diffusion_text="not applicable: ruin is certain",
-        diffusion_exponent=None,
-        diffusion_ratio=None,
-        adjustment_text="not applicable",
-        rounds_to_ruin=rounds,
-        rounds_if_ruined=None,
-        truncation=None,
-        notes=tuple(notes),
+        rounds=rounds,
+        notes=notes,
+        digits=digits,
     )
 
 

@@ -617,30 +617,17 @@ def _solve_unbounded_ruin(jumps, bankroll, digits: int, check: bool, unit) -> Un
 
     if largest_loss == 0:
         reason = "no result of the round loses money, so the bankroll never falls"
-        return UnboundedRuin(
-            **common,
+        return settled_ruin(
+            common,
             verdict=VERDICT_NEVER,
+            ruin=QQ(0),
             reason=reason,
-            ruin=_certified_exact(QQ(0), digits),
-            ruin_exact=QQ(0),
-            ruin_closed_form=QQ(0),
-            ruin_exact_text="0",
             method="no losing result",
-            error_bound="none: exact",
-            theta=None,
-            adjustment_coefficient=None,
-            lundberg=None,
-            lundberg_exact_text="-",
             lundberg_text="not applicable: no losing result",
-            diffusion=None,
             diffusion_text="not applicable: no losing result",
-            diffusion_exponent=None,
-            diffusion_ratio=None,
-            adjustment_text="not applicable",
-            rounds_to_ruin=RoundsToRuin("none", None, None, None, None, "ruin never happens"),
-            rounds_if_ruined=None,
-            truncation=None,
-            notes=tuple(notes),
+            rounds=RoundsToRuin("none", None, None, None, None, "ruin never happens"),
+            notes=notes,
+            digits=digits,
         )
     if mean <= 0:
         return _certain_ruin(common, reduced, level, notes, shown_mean)
@@ -674,30 +661,17 @@ def _certain_ruin(common: dict, reduced, level: int, notes: list[str], shown_mea
             "would force the mean result at ruin to be 0, yet it is at most -bankroll)",
         )
         diffusion_text = "not applicable: ruin is certain"
-    return UnboundedRuin(
-        **common,
+    return settled_ruin(
+        common,
         verdict=VERDICT_CERTAIN,
+        ruin=QQ(1),
         reason=reason,
-        ruin=_certified_exact(QQ(1), digits),
-        ruin_exact=QQ(1),
-        ruin_closed_form=QQ(1),
-        ruin_exact_text="1",
         method="expected result per round <= 0",
-        error_bound="none: exact",
-        theta=None,
-        adjustment_coefficient=None,
-        lundberg=None,
-        lundberg_exact_text="-",
-        lundberg_text="not applicable: no adjustment coefficient R > 0 when the expected result is <= 0",
-        diffusion=None,
+        lundberg_text=NO_ADJUSTMENT_COEFFICIENT,
         diffusion_text=diffusion_text,
-        diffusion_exponent=None,
-        diffusion_ratio=None,
-        adjustment_text="not applicable",
-        rounds_to_ruin=rounds,
-        rounds_if_ruined=None,
-        truncation=None,
-        notes=tuple(notes),
+        rounds=rounds,
+        notes=notes,
+        digits=digits,
     )
 
 
@@ -1029,3 +1003,51 @@ def _rational_power(base: Rational, power: int) -> Rational:
 
 def _is_integer_text(value: Rational) -> bool:
     return denominator(value) == 1
+
+
+NO_ADJUSTMENT_COEFFICIENT = "not applicable: no adjustment coefficient R > 0 when the expected result is <= 0"
+
+
+def settled_ruin(
+    common: dict,
+    *,
+    verdict: str,
+    ruin: Rational,
+    reason: str,
+    method: str,
+    lundberg_text: str,
+    diffusion_text: str,
+    rounds: RoundsToRuin,
+    notes: list[str],
+    digits: int,
+) -> UnboundedRuin:
+    """A ruin chance settled without any root or truncation (exactly 0 or exactly 1).
+
+    The plain walk and the walk with cut bets both end here, so the fields that such an answer
+    leaves empty are set in one place.
+    """
+    return UnboundedRuin(
+        **common,
+        verdict=verdict,
+        reason=reason,
+        ruin=_certified_exact(ruin, digits),
+        ruin_exact=ruin,
+        ruin_closed_form=ruin,
+        ruin_exact_text=text(ruin),
+        method=method,
+        error_bound="none: exact",
+        theta=None,
+        adjustment_coefficient=None,
+        lundberg=None,
+        lundberg_exact_text="-",
+        lundberg_text=lundberg_text,
+        diffusion=None,
+        diffusion_text=diffusion_text,
+        diffusion_exponent=None,
+        diffusion_ratio=None,
+        adjustment_text="not applicable",
+        rounds_to_ruin=rounds,
+        rounds_if_ruined=None,
+        truncation=None,
+        notes=tuple(notes),
+    )
