@@ -72,6 +72,21 @@ class BankrollGrid:
         return kinds
 
 
+def grid_steps(label: str, value: Rational, unit: Rational, scale: int) -> int:
+    """``value`` in grid steps (the betting unit split by the payouts' common denominator ``scale``).
+
+    A bankroll, goal or floor off the grid is refused in one line naming it.
+    """
+    step = unit / scale
+    count = value / step
+    if not is_integer(count):
+        raise OddsbenchError(
+            f"{label} {text(value)} is not a whole number of grid steps of {text(step)} "
+            f"(betting unit {text(unit)} split by the payout denominator {scale})"
+        )
+    return to_int(count)
+
+
 def make_grid(
     distribution: RoundDistribution,
     bankroll: Rational,
@@ -89,16 +104,9 @@ def make_grid(
         raise OddsbenchError(f"betting unit must be more than 0, got {text(unit)}")
     min_bet = min_bet if min_bet is not None else unit
     scale = distribution.net_denominator
-    step = unit / scale
 
     def steps(name: str, value: Rational) -> int:
-        count = value / step
-        if not is_integer(count):
-            raise OddsbenchError(
-                f"session {name} {text(value)} is not a whole number of grid steps of {text(step)} "
-                f"(betting unit {text(unit)} split by the payout denominator {scale})"
-            )
-        return to_int(count)
+        return grid_steps(f"session {name}", value, unit, scale)
 
     def units(name: str, value: Rational) -> int:
         count = value / unit

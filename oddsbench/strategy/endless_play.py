@@ -18,6 +18,7 @@ import math
 from collections.abc import Iterable
 from dataclasses import dataclass
 
+from oddsbench.chain.bankroll import grid_steps
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.numbers import QQ, Rational, denominator, is_integer, numerator, text, to_int
 from oddsbench.solve.clipped_ruin import solve_clipped_ruin
@@ -128,13 +129,7 @@ def endless_flat_walk(
     grid = unit / scale
 
     def steps(name: str, value: Rational) -> int:
-        count = value / grid
-        if not is_integer(count):
-            raise OddsbenchError(
-                f"{name} {text(value)} is not a whole number of grid steps of {text(grid)} "
-                f"(betting unit {text(unit)} split by the payout denominator {scale})"
-            )
-        return to_int(count)
+        return grid_steps(name, value, unit, scale)
 
     held = steps("the bankroll", bankroll)
     floor_steps = steps("the floor", floor) if floor else 0
