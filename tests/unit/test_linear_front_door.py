@@ -26,15 +26,19 @@ from oddsbench.solve.linear import (
 )
 
 
-def walk_q(size: int, up: float, down: float):
-    """Q of a +1/-1 walk on transient levels 0..size-1 (absorbing just outside)."""
+def walk_rows(size: int, up, down) -> list[dict]:
+    """Rows of Q of a +1/-1 walk on transient levels 0..size-1 (absorbing just outside)."""
     rows = [{} for _ in range(size)]
     for i in range(size):
         if i + 1 < size:
             rows[i][i + 1] = up
         if i > 0:
             rows[i][i - 1] = down
-    return sparse_from_rows(rows, size)
+    return rows
+
+
+def walk_q(size: int, up: float, down: float):
+    return sparse_from_rows(walk_rows(size, up, down), size)
 
 
 def band_of(dense: np.ndarray, lower: int, upper: int) -> BandMatrix:
@@ -142,16 +146,9 @@ def test_unknown_order_and_method_are_refused():
 
 def _exact_walk(size: int):
     """I - Q of an 18/37 walk, exactly, with the chance of leaving at the top as right-hand side."""
-    up, down = QQ(18, 37), QQ(19, 37)
-    q_rows = [{} for _ in range(size)]
-    for i in range(size):
-        if i + 1 < size:
-            q_rows[i][i + 1] = up
-        if i > 0:
-            q_rows[i][i - 1] = down
     rhs = [QQ(0)] * size
-    rhs[-1] = up
-    return identity_minus(q_rows), rhs
+    rhs[-1] = QQ(18, 37)
+    return identity_minus(walk_rows(size, QQ(18, 37), QQ(19, 37))), rhs
 
 
 def test_the_three_exact_methods_agree_both_ways():
