@@ -274,7 +274,7 @@ def test_pushes_do_not_change_the_ruin_chance_but_stretch_the_rounds():
 
 
 def test_a_cancel_check_stops_the_solve():
-    from oddsbench.solve.exact_linear import SolveCancelled
+    from oddsbench.solve.cancel import SolveCancelled
 
     with pytest.raises(SolveCancelled):
         solve_unbounded_ruin(SKIP_FREE, 3, should_stop=lambda: True)
