@@ -17,7 +17,7 @@ import oddsbench  # noqa: F401  (sets FLINT ground types before sympy loads)
 from oddsbench.chain.round_chain import build_round_chain
 from oddsbench.model.numbers import QQ
 from oddsbench.model.ruleset import Outcome, Ruleset, State
-from oddsbench.solve.exact_linear import SolveCancelled
+from oddsbench.solve.cancel import SolveCancelled
 from oddsbench.solve.round import solve_round
 
 UP = QQ(18, 37)

@@ -271,7 +271,7 @@ async def test_escape_cancels_a_long_solve_and_keeps_the_workbench_responsive(tm
     import asyncio
     import threading
 
-    from oddsbench.solve.exact_linear import SolveCancelled
+    from oddsbench.solve.cancel import SolveCancelled
     from oddsbench.tui import analysis
 
     asked, released, ended, outcome = threading.Event(), threading.Event(), threading.Event(), []

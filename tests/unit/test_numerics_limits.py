@@ -124,7 +124,7 @@ def test_the_factorisation_asks_whether_to_stop_every_256_rows():
     # tests/benchmarks/bench_cancellation.py): rows 0, 256, 512 and 768 of 999 ask.
     rows = identity_minus(build_round_chain(walk(1_000, 500, QQ(18, 37))).q_rows())
     asked = []
-    ExactSparseLU(rows, should_stop=lambda: asked.append(len(asked)) or False)
+    factor_exact(rows, should_stop=lambda: asked.append(len(asked)) or False)
     assert len(rows) == 999 and len(asked) == 4
 
 
