@@ -9,7 +9,6 @@ from __future__ import annotations
 
 from conftest import CHOICE_GAME
 
-from oddsbench.strategy.session import SETTING_NAMES
 from tests.tui.helpers import app_on, copy_ruleset, go_to_entry, go_to_state, settle
 
 OUTCOME_FIELDS = ("to", "prob", "pay", "stake", "note")
@@ -146,4 +145,6 @@ async def test_esc_in_every_session_field_returns_to_the_list(tmp_path):
             await go_to_entry(pilot, "session:")
             await pilot.press("enter")
 
-        await escape_from_each(pilot, SETTING_NAMES, "navigator", start)
+        fields = [row.field for row in app.workbench.query("#session-editor FieldRow")]
+        assert len(fields) == 7 and fields[:2] == ["bankroll", "goal"]  # every setting of [session]
+        await escape_from_each(pilot, fields, "navigator", start)
