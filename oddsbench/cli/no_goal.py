@@ -145,14 +145,14 @@ def _money(value: str, option: str):
 
 
 def _solve(outcomes, bankroll, bet, kwargs):
-    from oddsbench.strategy.endless_play import solve_endless_play, solve_endless_progression
+    from oddsbench.strategy.no_goal_play import solve_no_goal_play, solve_no_goal_progression
 
     kwargs = dict(kwargs)
     progression = kwargs.pop("progression", None)
     if progression is not None:
         kind, series = progression
-        return solve_endless_progression(outcomes, kind, bet, series, bankroll, **kwargs)
-    return solve_endless_play(outcomes, bet, bankroll, **kwargs)
+        return solve_no_goal_progression(outcomes, kind, bet, series, bankroll, **kwargs)
+    return solve_no_goal_play(outcomes, bet, bankroll, **kwargs)
 
 
 def _figures_json(outcomes, bankroll, bet, title, plan, kwargs) -> dict:
@@ -209,11 +209,11 @@ def run_no_goal(
     ``bet`` None means timid play: always the minimum bet.
     """
     from oddsbench.report.no_goal_report import no_goal_json, no_goal_text
-    from oddsbench.strategy.endless_play import solve_endless_play
+    from oddsbench.strategy.no_goal_play import solve_no_goal_play
 
     if bet is None:
         bet = min_bet if min_bet is not None else (unit if unit is not None else 1)
-    figures = solve_endless_play(
+    figures = solve_no_goal_play(
         list(outcomes),
         bet,
         bankroll,

@@ -7,8 +7,8 @@ from typing import Any
 from oddsbench.model.numbers import text
 from oddsbench.report.cautions import CAUTIONS, caution_block
 from oddsbench.report.numbers_text import render_table
-from oddsbench.solve.unbounded_ruin import Certified, RoundsToRuin, UnboundedRuin
-from oddsbench.strategy.endless_play import EndlessPlayFigures
+from oddsbench.solve.ruin import Certified, NoGoalRuin, RoundsToRuin
+from oddsbench.strategy.no_goal_play import NoGoalFigures
 
 WRITTEN_OUT_WIDTH = 90
 APPROXIMATION_LABEL = "approximation, not a bound (common practice, no source)"
@@ -57,7 +57,7 @@ def _rounds_cells(rounds: RoundsToRuin) -> tuple[str, str]:
     return "not defined", "ruin is not certain"
 
 
-def no_goal_rows(figures: EndlessPlayFigures) -> list[tuple[str, str, str]]:
+def no_goal_rows(figures: NoGoalFigures) -> list[tuple[str, str, str]]:
     """quantity | exact | decimal rows of endless play."""
     ruin = figures.ruin
     rows: list[tuple[str, str, str]] = [("ruin chance (play never stops)", ruin.ruin_exact_text, ruin.ruin.text)]
@@ -94,13 +94,13 @@ def no_goal_rows(figures: EndlessPlayFigures) -> list[tuple[str, str, str]]:
     return rows
 
 
-def _goal_text(figures: EndlessPlayFigures) -> str:
+def _goal_text(figures: NoGoalFigures) -> str:
     walk, ruin = figures.walk, figures.ruin
     goal_level = ruin.truncation.goal_level if ruin.truncation else 0
     return _cell((goal_level + walk.low - 1) * walk.grid)
 
 
-def no_goal_explanations(figures: EndlessPlayFigures) -> list[str]:
+def no_goal_explanations(figures: NoGoalFigures) -> list[str]:
     """The sentences under the table: method, error bound, bound, approximation, check."""
     ruin = figures.ruin
     lines: list[str] = []
@@ -113,7 +113,7 @@ def no_goal_explanations(figures: EndlessPlayFigures) -> list[str]:
     if ruin.diffusion is not None:
         lines.append(f"Diffusion figure: {ruin.diffusion_text}: an {APPROXIMATION_LABEL}.")
     else:
-        lines.append(f"Diffusion figure: {ruin.diffusion_text}.")
+        lines.append(f"Diffusion figure: {ruin.why_absent('diffusion')}.")
     comparison = _comparison(ruin)
     if comparison:
         lines.append(comparison)
@@ -131,7 +131,7 @@ def no_goal_explanations(figures: EndlessPlayFigures) -> list[str]:
     return lines
 
 
-def no_goal_text(figures: EndlessPlayFigures, title: str = "round", cautions: bool = True) -> str:
+def no_goal_text(figures: NoGoalFigures, title: str = "round", cautions: bool = True) -> str:
     """The human output of ``oddsbench session ... --goal none``."""
     walk, ruin = figures.walk, figures.ruin
     heading = (
@@ -165,7 +165,7 @@ def no_goal_text(figures: EndlessPlayFigures, title: str = "round", cautions: bo
     return "\n".join(parts)
 
 
-def _comparison(ruin: UnboundedRuin) -> str:
+def _comparison(ruin: NoGoalRuin) -> str:
     """How far the players' rule of thumb is from the exact figure, in words."""
     ratio = ruin.diffusion_ratio
     if ratio is None:
@@ -194,7 +194,7 @@ def _rounds_json(rounds: RoundsToRuin | None) -> dict[str, Any] | None:
     }
 
 
-def no_goal_json(figures: EndlessPlayFigures, title: str = "round") -> dict[str, Any]:
+def no_goal_json(figures: NoGoalFigures, title: str = "round") -> dict[str, Any]:
     """The ``--json`` object of ``--goal none``."""
     walk, ruin = figures.walk, figures.ruin
     root = ruin.theta
