@@ -26,7 +26,7 @@ def non_negative_int(text: str) -> int:
 
 
 def add_max_states(parser: argparse.ArgumentParser) -> None:
-    from oddsbench.model.limits import DEFAULT_MAX_STATES
+    from oddsbench.model.defaults import DEFAULT_MAX_STATES
 
     parser.add_argument(
         "--max-states",
@@ -38,7 +38,7 @@ def add_max_states(parser: argparse.ArgumentParser) -> None:
 
 
 def add_exact_bits(parser: argparse.ArgumentParser) -> None:
-    from oddsbench.model.limits import DEFAULT_EXACT_BITS
+    from oddsbench.model.defaults import DEFAULT_EXACT_BITS
 
     parser.add_argument(
         "--exact-bits",

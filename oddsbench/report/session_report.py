@@ -9,7 +9,7 @@ from oddsbench.model.numbers import Rational, text, to_float
 from oddsbench.report.cautions import CAUTIONS, caution_block
 from oddsbench.report.numbers_text import decimal_text, render_table
 from oddsbench.report.round_report import figure_json
-from oddsbench.solve.round import Figure
+from oddsbench.model.figure import Figure
 from oddsbench.strategy.session import SessionFigures, SessionSettings
 
 EXACT_WIDTH = 24

@@ -15,7 +15,7 @@ from oddsbench.report.round_report import (
     round_json,
     round_rows,
 )
-from oddsbench.solve.round import Figure
+from oddsbench.model.figure import Figure
 from oddsbench.strategy.best_policy import BestPolicy, StrategyCheck
 from oddsbench.strategy.compare import StartComparison, StrategyComparison
 

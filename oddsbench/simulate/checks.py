@@ -7,7 +7,8 @@ from dataclasses import dataclass
 
 from oddsbench.simulate.intervals import DEFAULT_CONFIDENCE, Interval, normal_interval, wilson_interval
 from oddsbench.simulate.round_sim import RoundSample
-from oddsbench.solve.round import Figure, RoundFigures
+from oddsbench.model.figure import Figure
+from oddsbench.solve.round import RoundFigures
 
 WILSON = "Wilson"
 NORMAL = "normal"

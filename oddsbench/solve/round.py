@@ -16,12 +16,13 @@ import numpy as np
 
 from oddsbench.chain.round_chain import RoundChain
 from oddsbench.model.errors import OddsbenchError
-from oddsbench.model.limits import DEFAULT_EXACT_BITS
+from oddsbench.model.defaults import DEFAULT_EXACT_BITS, ROUND_EXACT_LIMIT
+from oddsbench.model.figure import Figure
 from oddsbench.model.numbers import QQ, Rational, log10_abs, to_float
 from oddsbench.solve.decimal_linear import DecimalSparseLU, FloatSingular, q_matrix_from_rows
 from oddsbench.solve.exact_linear import ExactSparseLU, ExactTooLarge, identity_minus
 
-DEFAULT_EXACT_LIMIT = 5_000
+DEFAULT_EXACT_LIMIT = ROUND_EXACT_LIMIT
 DEFAULT_STEP_BUDGET = 20_000_000
 RELATIVE_TOLERANCE = 1e-9
 ZERO_TOLERANCE = 1e-12
@@ -41,14 +42,6 @@ FIGURE_ORDER = (
 
 
 STAKE_RATIOS = frozenset({"house_edge", "return_to_player"})
-
-
-@dataclass(frozen=True)
-class Figure:
-    """One quantity: the exact rational (None where exact arithmetic was skipped) and its decimal."""
-
-    exact: Rational | None
-    decimal: float
 
 
 @dataclass(frozen=True)

@@ -14,7 +14,7 @@ from oddsbench.chain.bankroll import BankrollGrid, build_bankroll_chain, make_gr
 from oddsbench.chain.round_distribution import RoundDistribution
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.numbers import QQ, Rational, is_integer, text, to_float, to_int
-from oddsbench.solve.round import Figure
+from oddsbench.model.figure import Figure
 from oddsbench.solve.session import DEFAULT_EXACT_LIMIT, FinalValue, solve_session
 from oddsbench.strategy.plans import Plan, parse_plan, planned_bets
 
