@@ -16,6 +16,7 @@ DEFAULT_EXACT_BITS = 16_000_000_000  # estimated bits held by the exact factors 
 
 # Sessions.
 DEFAULT_PLANS = ("timid", "bold")  # the plans compared when none is named
+NO_GOAL_DEFAULT_PLANS = ("timid",)  # ... and with no goal (bold play needs a goal)
 NO_GOAL = "none"  # ``--goal none`` / ``goal = "none"``: play until ruin, no target
 NO_GOAL_WORDS = frozenset({"none", "no", "never"})
 NO_GOAL_DIGITS = 20  # significant digits of each proved decimal with no goal (``--digits``)
@@ -31,3 +32,9 @@ DEFAULT_MAX_STEPS = 1_000_000  # a simulated round still running after this many
 
 # Output.
 JSON_VERSION = 2  # the shape of every ``--json`` output; 1 was the shapes before one shape per command
+
+# Names of the session settings, as in a [session] table (options spell them with dashes).
+SESSION_SETTING_NAMES = ("bankroll", "goal", "floor", "min_bet", "max_bet", "unit", "max_rounds")
+
+# The goals of best play (``oddsbench best --goal``), as ``strategy/goals.py`` defines them.
+BEST_GOALS = ("max-return", "max-win", "min-loss", "min-steps")

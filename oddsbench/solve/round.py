@@ -15,8 +15,8 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from oddsbench.chain.round_chain import RoundChain
-from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.defaults import DEFAULT_EXACT_BITS, ROUND_EXACT_LIMIT
+from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.figure import Figure
 from oddsbench.model.numbers import QQ, Rational, log10_abs, to_float
 from oddsbench.solve.decimal_linear import DecimalSparseLU, FloatSingular, q_matrix_from_rows

@@ -17,12 +17,17 @@ Spellings on the command line (``--plan``), all amounts in money, exact:
 - ``best``       the bet in every state that maximises the chance of reaching the goal
                  (policy iteration, ``strategy.bet_optimiser``).
 
+With no goal (``--goal none``) only plans whose bet stays bounded are played: flat, timid and
+the two capped progressions; ``timid`` takes no value anywhere (``timid:1/2`` is refused in the
+same line by every command: the table minimum is a session setting, ``--min-bet``).
+
 Every bet is then raised to the table minimum and cut to the table maximum and to what the
 bankroll can cover for the round's worst case; a bankroll that cannot cover the minimum is ruin.
 """
 
 from __future__ import annotations
 
+from collections.abc import Iterable
 from dataclasses import dataclass
 
 import numpy as np
@@ -43,6 +48,11 @@ PLAN_HELP = (
     ("best", "the bet in each state that maximises the chance of the goal (optimiser)"),
 )
 MAX_SERIES = 30
+PROGRESSIONS = ("martingale", "paroli")
+NO_GOAL_KINDS = ("flat", "timid", *PROGRESSIONS)  # plans whose bet stays bounded as the bankroll grows
+NO_GOAL_PLANS = (
+    "flat:B (a fixed bet of B), timid (always the table minimum), or a capped progression martingale:B:K / paroli:B:K"
+)
 
 
 @dataclass(frozen=True)
@@ -56,11 +66,25 @@ class Plan:
 
     @property
     def levels(self) -> int:
-        return self.series if self.kind in ("martingale", "paroli") else 1
+        return self.series if self.kind in PROGRESSIONS else 1
+
+    @property
+    def plays_without_goal(self) -> bool:
+        """Whether the bet stays bounded however far the bankroll grows, so play with no goal is defined."""
+        return self.kind in NO_GOAL_KINDS
+
+    @property
+    def fixed_amounts(self) -> tuple[Rational, ...]:
+        """The money amounts the plan bets by itself (flat B, a progression's base B): the default unit follows them."""
+        return (self.amount,) if self.kind in ("flat", *PROGRESSIONS) else ()
 
 
-def parse_plan(spelling: str) -> Plan:
-    """``flat:2``, ``kelly:1/2``, ``martingale:1:6``...: one clear line when it is not a plan."""
+def parse_plan(spelling: str, no_goal: bool = False) -> Plan:
+    """``flat:2``, ``kelly:1/2``, ``martingale:1:6``...: one clear line when it is not a plan.
+
+    The one reader of plan text for every command and the workbench. With ``no_goal`` the plans
+    whose bet grows with the bankroll (or that aim at a goal) are refused in one line.
+    """
     from oddsbench.model.expr import ExpressionError, evaluate_text
 
     parts = [part.strip() for part in spelling.strip().split(":")]
@@ -80,29 +104,48 @@ def parse_plan(spelling: str) -> Plan:
         if len(args) != count:
             raise OddsbenchError(f"--plan {spelling!r}: {kind} takes {count} value(s) after ':' (plans: {known})")
 
+    if kind == "timid" and args:
+        raise OddsbenchError(
+            f"--plan {spelling!r}: timid takes no value: it always bets the table minimum "
+            "(set that with --min-bet, or use flat:B for a fixed bet of B)"
+        )
     if kind in ("timid", "bold", "best"):
         expect(0)
-        return Plan(spelling, kind)
-    if kind == "kelly":
+        plan = Plan(spelling, kind)
+    elif kind == "kelly":
         if len(args) > 1:
             expect(1)
-        return Plan(spelling, kind, value(args[0], "Kelly multiple") if args else QQ(1))
-    if kind == "flat":
+        plan = Plan(spelling, kind, value(args[0], "Kelly multiple") if args else QQ(1))
+    elif kind == "flat":
         expect(1)
-        return Plan(spelling, kind, value(args[0], "bet"))
-    if kind == "fraction":
+        plan = Plan(spelling, kind, value(args[0], "bet"))
+    elif kind == "fraction":
         expect(1)
         fraction = value(args[0], "fraction")
         if fraction > 1:
             raise OddsbenchError(f"--plan {spelling!r}: fraction must be at most 1, got {text(fraction)}")
-        return Plan(spelling, kind, fraction)
-    if kind in ("martingale", "paroli"):
+        plan = Plan(spelling, kind, fraction)
+    elif kind in PROGRESSIONS:
         expect(2)
         series = value(args[1], "series length")
         if not is_integer(series) or series > MAX_SERIES:
             raise OddsbenchError(f"--plan {spelling!r}: series length must be a whole number from 1 to {MAX_SERIES}")
-        return Plan(spelling, kind, value(args[0], "base bet"), to_int(series))
-    raise OddsbenchError(f"--plan {spelling!r}: unknown plan (plans: {known})")
+        plan = Plan(spelling, kind, value(args[0], "base bet"), to_int(series))
+    else:
+        raise OddsbenchError(f"--plan {spelling!r}: unknown plan (plans: {known})")
+    if no_goal and not plan.plays_without_goal:
+        raise OddsbenchError(
+            f"--plan {spelling!r}: with no goal the bet must stay bounded; use {NO_GOAL_PLANS}"
+            + (" (bold play needs a goal to aim at)" if kind == "bold" else "")
+        )
+    return plan
+
+
+def parse_plans(spellings: str | Iterable[str], no_goal: bool = False) -> tuple[Plan, ...]:
+    """Several plans: a list, or one text such as ``timid, bold, flat:2`` (the workbench's field)."""
+    if isinstance(spellings, str):
+        spellings = spellings.replace(";", ",").split(",")
+    return tuple(parse_plan(part.strip(), no_goal) for part in spellings if part.strip())
 
 
 def _units(plan: Plan, amount: Rational, grid: BankrollGrid) -> int:
@@ -160,7 +203,7 @@ def planned_bets(
         else:
             bets = np.floor(values * bet.fraction.decimal / grid.scale).astype(np.int64)
         return bets[None, :], stay, tuple(notes)
-    if plan.kind in ("martingale", "paroli"):
+    if plan.kind in PROGRESSIONS:
         base = _units(plan, plan.amount, grid)
         levels = plan.series
         bets = np.array([[base * 2**level] * width for level in range(levels)], dtype=np.int64).reshape(levels, width)
