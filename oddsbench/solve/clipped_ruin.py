@@ -182,11 +182,10 @@ def _solve_levels(problem: _Problem, bases: list[Any], kind: str, arithmetic: st
         else:
             rhs[i] += (one if kind == "ruin" else zero) - particular(k)
     if exact:
-        from sympy.polys.matrices import DomainMatrix
+        from oddsbench.solve.linear import factor_exact
 
-        matrix = DomainMatrix([list(row) for row in rows], (size, size), ur.QQ)
-        vector = DomainMatrix([[value] for value in rhs], (size, 1), ur.QQ)
-        solution = [row[0] for row in matrix.lu_solve(vector).to_list()]
+        dict_rows = [{j: value for j, value in enumerate(row) if value != 0} for row in rows]
+        solution = factor_exact(dict_rows, method="dense").solve(rhs)
     else:
         from flint import acb_mat
 
@@ -460,7 +459,7 @@ def _with_consistency(check: TruncationCheck, ball, gap, digits: int) -> Truncat
 
 def ruin_before_goal_levels(problem: _Problem, level: int, goal: int) -> Rational:
     """Exact P(ruin before reaching >= goal) with the level-dependent laws (first-step analysis)."""
-    from oddsbench.solve.exact_linear import ExactSparseLU
+    from oddsbench.solve.linear import factor_exact
 
     if level <= 0:
         return QQ(1)
@@ -479,13 +478,14 @@ def ruin_before_goal_levels(problem: _Problem, level: int, goal: int) -> Rationa
                 row[target - 1] = row.get(target - 1, QQ(0)) - chance
         rows.append(row)
         rhs.append(ruin_now)
-    return ExactSparseLU(rows, should_stop=ur._SHOULD_STOP.get()).solve(rhs)[level - 1]
+    return factor_exact(rows, should_stop=ur._SHOULD_STOP.get()).solve(rhs)[level - 1]
 
 
 def ruin_before_goal_levels_float(problem: _Problem, level: int, goal: int) -> float:
     import numpy as np
     from scipy.sparse import csc_matrix
-    from scipy.sparse.linalg import spsolve
+
+    from oddsbench.solve.linear import factor_float
 
     size = goal - 1
     rows, cols, vals = list(range(size)), list(range(size)), [1.0] * size
@@ -498,4 +498,4 @@ def ruin_before_goal_levels_float(problem: _Problem, level: int, goal: int) -> f
             elif target < goal:
                 rows.append(k - 1), cols.append(target - 1), vals.append(-float(chance))
     matrix = csc_matrix((vals, (rows, cols)), shape=(size, size))
-    return float(spsolve(matrix, rhs)[level - 1])
+    return float(factor_float(matrix).solve(rhs)[level - 1])

@@ -51,7 +51,7 @@ class ModulatedRuin:
 
 def stationary_drift(states: int, moves_top: Sequence[Sequence[Move]]) -> Rational:
     """Exact long-run expected result per round: pi P = pi, sum pi = 1, drift = sum pi_j m_j."""
-    from sympy.polys.matrices import DomainMatrix
+    from oddsbench.solve.linear import factor_exact
 
     matrix = [[QQ(0)] * states for _ in range(states)]
     means = [QQ(0)] * states
@@ -62,9 +62,9 @@ def stationary_drift(states: int, moves_top: Sequence[Sequence[Move]]) -> Ration
     # rows of (P^T - I) with the last equation replaced by sum pi = 1
     system = [[matrix[c][r] - (QQ(1) if r == c else QQ(0)) for c in range(states)] for r in range(states)]
     system[-1] = [QQ(1)] * states
-    rhs = [[QQ(0)] for _ in range(states - 1)] + [[QQ(1)]]
-    pi = DomainMatrix(system, (states, states), QQ).lu_solve(DomainMatrix(rhs, (states, 1), QQ)).to_list()
-    return sum((pi[j][0] * means[j] for j in range(states)), QQ(0))
+    rows = [{c: value for c, value in enumerate(row) if value != 0} for row in system]
+    pi = factor_exact(rows, method="dense").solve([QQ(0)] * (states - 1) + [QQ(1)])
+    return sum((pi[j] * means[j] for j in range(states)), QQ(0))
 
 
 def _tilted(moves_top, states: int, rate: float):
@@ -225,17 +225,18 @@ def _rows(states: int, moves_at, goal: int, exact: bool):
 
 
 def _ruin_before_goal_exact(states, moves_at, level, start_state, goal, should_stop=None) -> Rational:
-    from oddsbench.solve.exact_linear import ExactSparseLU
+    from oddsbench.solve.linear import factor_exact
 
     rows, rhs = _rows(states, moves_at, goal, exact=True)
     rows = [{c: QQ(v) for c, v in row.items()} for row in rows]
-    return ExactSparseLU(rows, should_stop=should_stop).solve(rhs)[(level - 1) * states + start_state]
+    return factor_exact(rows, should_stop=should_stop).solve(rhs)[(level - 1) * states + start_state]
 
 
 def _ruin_before_goal_float(states, moves_at, level, start_state, goal) -> float:
     import numpy as np
     from scipy.sparse import csc_matrix
-    from scipy.sparse.linalg import spsolve
+
+    from oddsbench.solve.linear import factor_float
 
     rows, rhs = _rows(states, moves_at, goal, exact=False)
     r, c, v = [], [], []
@@ -243,7 +244,7 @@ def _ruin_before_goal_float(states, moves_at, level, start_state, goal) -> float
         for j, value in row.items():
             r.append(i), c.append(j), v.append(value)
     size = len(rows)
-    solution = spsolve(csc_matrix((v, (r, c)), shape=(size, size)), np.array(rhs))
+    solution = factor_float(csc_matrix((v, (r, c)), shape=(size, size))).solve(np.array(rhs))
     return float(solution[(level - 1) * states + start_state])
 
 

@@ -19,8 +19,16 @@ from oddsbench.model.defaults import DEFAULT_EXACT_BITS, ROUND_EXACT_LIMIT
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.figure import Figure
 from oddsbench.model.numbers import QQ, Rational, log10_abs, to_float
-from oddsbench.solve.decimal_linear import DecimalSparseLU, FloatSingular, q_matrix_from_rows
-from oddsbench.solve.exact_linear import ExactSparseLU, ExactTooLarge, identity_minus
+from oddsbench.solve.cancel import SolveCancelled
+from oddsbench.solve.linear import (
+    ExactTooLarge,
+    FloatSingular,
+    factor_exact,
+    factor_float,
+    identity_minus,
+    identity_minus_float,
+    sparse_from_rows,
+)
 
 DEFAULT_EXACT_LIMIT = ROUND_EXACT_LIMIT
 DEFAULT_STEP_BUDGET = 20_000_000
@@ -167,7 +175,7 @@ def _exact_moments(
     n = chain.transient_count
     if n == 0:
         return _Moments([QQ(1)], QQ(0), QQ(0), QQ(0), QQ(0), QQ(0))
-    lu = ExactSparseLU(identity_minus(chain.q_rows()), should_stop, max_bits)
+    lu = factor_exact(identity_minus(chain.q_rows()), should_stop=should_stop, max_bits=max_bits)
     end = [lu.solve(column)[0] for column in chain.end_columns()]
     net = lu.solve(_one_step(chain, lambda e: e.pay))
     extra = lu.solve(_one_step(chain, lambda e: e.stake))
@@ -186,7 +194,7 @@ def _decimal_moments(chain: RoundChain) -> _Moments:
     if n == 0:
         return _Moments([1.0], 0.0, 0.0, 0.0, 0.0, 0.0)
     rows = [{j: to_float(v) for j, v in row.items()} for row in chain.q_rows()]
-    lu = DecimalSparseLU(q_matrix_from_rows(rows, n))
+    lu = factor_float(identity_minus_float(sparse_from_rows(rows, n)))
     source = np.fromiter((e.source for e in chain.edges), dtype=np.int64)
     target = np.fromiter((e.target for e in chain.edges), dtype=np.int64)
     prob = np.fromiter((to_float(e.prob) for e in chain.edges), dtype=float)
@@ -330,8 +338,6 @@ def _by_step(
     values[0] = QQ(1)
     for step in range(rounds):
         if should_stop is not None and step % 64 == 0 and should_stop():
-            from oddsbench.solve.exact_linear import SolveCancelled
-
             raise SolveCancelled
         moved = np.zeros(size)
         moved[n:] = floats[n:]

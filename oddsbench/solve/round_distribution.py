@@ -16,7 +16,7 @@ from oddsbench.chain.round_chain import RoundChain
 from oddsbench.chain.round_distribution import RoundDistribution, RoundOutcome, make_distribution
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.numbers import QQ
-from oddsbench.solve.exact_linear import ExactSparseLU, identity_minus
+from oddsbench.solve.linear import factor_exact, identity_minus
 
 PRODUCT_LIMIT = 20_000
 
@@ -60,7 +60,7 @@ def round_distribution(chain: RoundChain, limit: int = PRODUCT_LIMIT) -> RoundDi
             if target in position:
                 row[position[target]] = row.get(position[target], QQ(0)) + prob
         q_rows.append(row)
-    lu = ExactSparseLU(identity_minus(q_rows))
+    lu = factor_exact(identity_minus(q_rows))
     unit = [QQ(0)] * len(transient)
     unit[0] = QQ(1)
     visits = lu.solve_transposed(unit)

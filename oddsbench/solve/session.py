@@ -19,7 +19,8 @@ import numpy as np
 
 from oddsbench.chain.bankroll import FLOOR, GOAL, KIND_NAMES, RUIN, BankrollChain
 from oddsbench.model.numbers import QQ, Rational, to_float
-from oddsbench.solve.exact_linear import ExactSparseLU, SolveCancelled, identity_minus
+from oddsbench.solve.cancel import SolveCancelled
+from oddsbench.solve.linear import factor_exact, factor_float, identity_minus, identity_minus_float
 from oddsbench.solve.round import Figure
 
 DEFAULT_EXACT_LIMIT = 3_000
@@ -129,51 +130,10 @@ def exact_work(chain: BankrollChain) -> int:
     Exact values carry about as many digits as there are states, so the rational work grows like
     fill x size. The fill is read from a float factorisation in the same (natural) order.
     """
-    from scipy.sparse import identity
-    from scipy.sparse.linalg import splu
-
     n = chain.size
     if n == 0:
         return 0
-    lu = splu((identity(n, format="csc") - chain.q_matrix()).tocsc(), permc_spec="NATURAL", diag_pivot_thresh=0)
-    return int(lu.L.nnz + lu.U.nnz) * n
-
-
-BANDED_FILL_LIMIT = 250_000_000
-
-
-def chain_bandwidth(chain: BankrollChain) -> int:
-    """Largest index distance of a transient-to-transient step."""
-    if chain.size == 0:
-        return 0
-    rows = np.arange(chain.size)[:, None]
-    inside = chain.target >= 0
-    return int(np.abs(np.where(inside, chain.target - rows, 0)).max())
-
-
-class BandAwareLU:
-    """SuperLU on I - Q, ordered for a bankroll chain.
-
-    A flat-style plan gives a banded system whose losses step down by a few states and wins up by
-    many: eliminating from the top of the bankroll range (reversed natural order, no pivoting, safe
-    for the M-matrix I - Q) keeps fill inside the band and is several times faster than a fill-
-    reducing ordering. Plans with far jumps (bold play) use SuperLU's COLAMD ordering instead.
-    """
-
-    def __init__(self, system, bandwidth: int) -> None:
-        from scipy.sparse.linalg import splu
-
-        n = system.shape[0]
-        self.reversed = bandwidth * n <= BANDED_FILL_LIMIT
-        if self.reversed:
-            self._lu = splu(system[::-1, ::-1].tocsc(), permc_spec="NATURAL", diag_pivot_thresh=0)
-        else:
-            self._lu = splu(system)
-
-    def solve(self, rhs: np.ndarray, trans: str = "N") -> np.ndarray:
-        if not self.reversed:
-            return self._lu.solve(rhs, trans=trans)
-        return self._lu.solve(np.ascontiguousarray(rhs[::-1]), trans=trans)[::-1]
+    return factor_float(identity_minus_float(chain.q_matrix()), order="natural").stored * n
 
 
 def _rhs_columns(chain: BankrollChain):
@@ -185,15 +145,14 @@ def _rhs_columns(chain: BankrollChain):
 
 
 def _absorbing_decimal(chain: BankrollChain) -> dict:
-    from scipy.sparse import identity
-
     n = chain.size
     goal_columns, staked_unit = _rhs_columns(chain)
     r = chain.r_matrix()
     values = chain.absorbing_values.astype(float) * to_float(chain.grid.step)
     if n == 0:
         return {"absorbed": np.zeros(len(values)), "start_absorbed": True, "series": np.zeros(0)}
-    lu = BandAwareLU((identity(n, format="csc") - chain.q_matrix()).tocsc(), chain_bandwidth(chain))
+    # value-major bankroll levels: eliminated from the top while the band's fill fits
+    lu = factor_float(identity_minus_float(chain.q_matrix()), order="from-top")
     r_goal = np.asarray(r[:, goal_columns].sum(axis=1)).ravel()
     staked = chain.bets.astype(float) * to_float(staked_unit)
     solved = lu.solve(np.column_stack([r_goal, np.ones(n), staked]))
@@ -202,7 +161,7 @@ def _absorbing_decimal(chain: BankrollChain) -> dict:
     second = lu.solve(2 * t - 1)
     e = np.zeros(n)
     e[start] = 1.0
-    visits = lu.solve(e, trans="T")
+    visits = lu.solve_transposed(e)
     absorbed = r.T @ visits
     return {
         "absorbed": absorbed,
@@ -221,7 +180,7 @@ def _absorbing_exact(chain: BankrollChain, should_stop) -> dict | None:
     q_rows, r_rows = chain.exact_rows()
     if n == 0:
         return None
-    lu = ExactSparseLU(identity_minus(q_rows), should_stop)
+    lu = factor_exact(identity_minus(q_rows), should_stop=should_stop)
     goal_set = set(np.flatnonzero(goal_columns).tolist())
     r_goal = [sum((p for a, p in row.items() if a in goal_set), QQ(0)) for row in r_rows]
     h = lu.solve(r_goal)

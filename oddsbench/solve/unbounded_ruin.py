@@ -39,6 +39,7 @@ from typing import Any
 
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.numbers import QQ, Rational, denominator, numerator, text
+from oddsbench.solve.cancel import stop_if_asked
 
 DEFAULT_DIGITS = 30
 MAX_DIGITS = 2000
@@ -266,10 +267,7 @@ def _with_retries(compute: Callable[[], Any], digits: int, level: int, check: Ca
     bits = _bits_for(digits, level)
     stop = _SHOULD_STOP.get()
     for _ in range(6):
-        if stop is not None and stop():
-            from oddsbench.solve.exact_linear import SolveCancelled
-
-            raise SolveCancelled
+        stop_if_asked(stop)
         with _precision(bits):
             result = compute()
             if check(result):
@@ -451,7 +449,7 @@ def _favourable_by_roots(law, largest_loss: int, level: int, digits: int):
 
 def ruin_before_goal(law: tuple[tuple[int, Rational], ...], level: int, goal: int) -> Rational:
     """Exact P(the walk from ``level`` hits <= 0 before >= ``goal``): first-step analysis."""
-    from oddsbench.solve.exact_linear import ExactSparseLU
+    from oddsbench.solve.linear import factor_exact
 
     if level <= 0:
         return QQ(1)
@@ -471,15 +469,16 @@ def ruin_before_goal(law: tuple[tuple[int, Rational], ...], level: int, goal: in
                 row[target - 1] = row.get(target - 1, QQ(0)) - chance
         rows.append(row)
         rhs.append(ruin_now)
-    solution = ExactSparseLU(rows, should_stop=_SHOULD_STOP.get()).solve(rhs)
+    solution = factor_exact(rows, should_stop=_SHOULD_STOP.get()).solve(rhs)
     assert len(solution) == size
     return solution[level - 1]
 
 
 def ruin_before_goal_float(law: tuple[tuple[int, Rational], ...], level: int, goal: int) -> float:
-    """The same chance in floating point: one banded solve (scipy), for systems too big for rationals."""
+    """The same chance in floating point: one banded solve (LAPACK), for systems too big for rationals."""
     import numpy as np
-    from scipy.linalg import solve_banded
+
+    from oddsbench.solve.linear import BandMatrix, factor_float
 
     if level <= 0:
         return 1.0
@@ -488,8 +487,8 @@ def ruin_before_goal_float(law: tuple[tuple[int, Rational], ...], level: int, go
     size = goal - 1
     below = -min(0, law[0][0])
     above = max(0, law[-1][0])
-    bands = np.zeros((below + above + 1, size))
-    bands[above, :] = 1.0
+    system = BandMatrix.zeros(below, above, size)
+    system.bands[above, :] = 1.0
     rhs = np.zeros(size)
     for jump, chance in law:
         p = float(chance)
@@ -499,8 +498,8 @@ def ruin_before_goal_float(law: tuple[tuple[int, Rational], ...], level: int, go
         rhs[ruin_rows] += p
         inside = (targets >= 1) & (targets < goal)
         rows, cols = for_rows[inside] - 1, targets[inside] - 1
-        bands[above + rows - cols, cols] -= p
-    solution = solve_banded((below, above), bands, rhs)
+        system.bands[above + rows - cols, cols] -= p
+    solution = factor_float(system).solve(rhs)
     return float(solution[level - 1])
 
 

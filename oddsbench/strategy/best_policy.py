@@ -26,7 +26,7 @@ from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.numbers import QQ, Rational, text, to_float
 from oddsbench.model.ruleset import Ruleset
 from oddsbench.model.validate import reachable_from, successor_graph
-from oddsbench.solve.exact_linear import ExactSparseLU, identity_minus
+from oddsbench.solve.linear import factor_exact, factor_float, identity_minus, identity_minus_float
 from oddsbench.solve.round import Figure, RoundFigures, solve_round
 from oddsbench.strategy.goals import Goal, goal_named
 
@@ -200,13 +200,11 @@ class _Process:
                     row[k] = row.get(k, QQ(0)) + step.prob
             rows.append(row)
             rhs.append(total)
-        values = ExactSparseLU(identity_minus(rows), should_stop).solve(rhs) if members else []
+        values = factor_exact(identity_minus(rows), should_stop=should_stop).solve(rhs) if members else []
         return {i: values[k] for k, i in enumerate(members)}
 
     def evaluate_decimal(self, policy: list[int], members: list[int]) -> dict[int, float]:
         from scipy.sparse import csc_matrix
-
-        from oddsbench.solve.decimal_linear import DecimalSparseLU
 
         position = {state: k for k, state in enumerate(members)}
         data, rows, cols = [], [], []
@@ -219,7 +217,7 @@ class _Process:
                     cols.append(position[step.target])
                     data.append(step.prob_float)
         q = csc_matrix((data, (rows, cols)), shape=(len(members), len(members)))
-        values = DecimalSparseLU(q).solve(rhs) if members else np.zeros(0)
+        values = factor_float(identity_minus_float(q)).solve(rhs) if members else np.zeros(0)
         return {i: float(values[k]) for k, i in enumerate(members)}
 
     def q_value(self, i: int, a: int, values: dict, zero) -> object | None:

@@ -59,8 +59,9 @@ def _limits(grid: BankrollGrid) -> tuple[np.ndarray, np.ndarray]:
 
 def _evaluate(grid, steps, probs, values, bets) -> np.ndarray:
     """Goal chance of a stationary policy from every playing state (one sparse solve)."""
-    from scipy.sparse import csc_matrix, identity
-    from scipy.sparse.linalg import splu
+    from scipy.sparse import csc_matrix
+
+    from oddsbench.solve.linear import factor_float, identity_minus_float
 
     n = len(values)
     landing = values[:, None] + bets[:, None] * steps[None, :]
@@ -69,7 +70,7 @@ def _evaluate(grid, steps, probs, values, bets) -> np.ndarray:
     weight = np.broadcast_to(probs, landing.shape)
     q = csc_matrix((weight[inside], (rows[inside], landing[inside] - grid.low)), shape=(n, n))
     r_goal = (weight * (landing >= grid.goal)).sum(axis=1)
-    return splu((identity(n, format="csc") - q).tocsc()).solve(r_goal)
+    return factor_float(identity_minus_float(q)).solve(r_goal)
 
 
 def _extended(grid: BankrollGrid, h: np.ndarray):
@@ -129,7 +130,7 @@ def optimise_bets(distribution: RoundDistribution, grid: BankrollGrid, start_bet
 
 def _exact_certificate(distribution, grid, steps, values, cap, bets):
     """Evaluate exactly and check every single bet change; take exact improvements until none."""
-    from oddsbench.solve.exact_linear import ExactSparseLU, identity_minus
+    from oddsbench.solve.linear import factor_exact, identity_minus
 
     probs = [o.prob for o in distribution.outcomes]
     low, goal = grid.low, grid.goal
@@ -147,7 +148,7 @@ def _exact_certificate(distribution, grid, steps, values, cap, bets):
                     row[y - low] = row.get(y - low, QQ(0)) + p
             q_rows.append(row)
             r_goal.append(reach)
-        h = ExactSparseLU(identity_minus(q_rows)).solve(r_goal)
+        h = factor_exact(identity_minus(q_rows)).solve(r_goal)
 
         def value(y: int, h=h):
             return QQ(1) if y >= goal else (h[y - low] if y >= low else QQ(0))

@@ -6,8 +6,8 @@ Run on demand (not part of the test run):
     python tests/benchmarks/bench_round_solvers.py --quick    # smaller sizes
 
 The chain: a +1/-1 walk with p = 18/37 on transient states 1..N-1 (absorbing at 0 and N),
-built as the RoundChain the solver uses. Ours: the exact sparse LU (solve/exact_linear.py) and
-the decimal SuperLU path (solve/decimal_linear.py). Baselines: dense numpy.linalg.solve and sympy
+built as the RoundChain the solver uses. Ours: the exact sparse LU and
+the decimal SuperLU path, both through the front door solve/linear/. Baselines: dense numpy.linalg.solve and sympy
 Matrix.LUsolve, each as far as it is feasible; the ratio column is baseline time / our time.
 """
 
@@ -20,8 +20,7 @@ import numpy as np
 
 import oddsbench  # noqa: F401  (sets FLINT ground types before sympy loads)
 from oddsbench.model.numbers import QQ, to_float
-from oddsbench.solve.decimal_linear import DecimalSparseLU
-from oddsbench.solve.exact_linear import ExactSparseLU, identity_minus, solve_with_domain_matrix
+from oddsbench.solve.linear import factor_exact, factor_float, identity_minus, identity_minus_float
 
 P = QQ(18, 37)
 
@@ -48,14 +47,14 @@ def exact_ours(size: int):
     rows = identity_minus(walk_rows(size))
     rhs = [QQ(0)] * size
     rhs[-1] = P
-    return ExactSparseLU(rows).solve(rhs)
+    return factor_exact(rows).solve(rhs)
 
 
 def exact_sympy_solve_den(size: int):
     rows = identity_minus(walk_rows(size))
     rhs = [QQ(0)] * size
     rhs[-1] = P
-    return solve_with_domain_matrix(rows, rhs)
+    return factor_exact(rows, method="fraction-free").solve(rhs)
 
 
 def exact_sympy_matrix(size: int):
@@ -85,7 +84,7 @@ def decimal_ours(size: int):
     q = csc_matrix((data, (rows, cols)), shape=(size, size))
     rhs = np.zeros(size)
     rhs[-1] = p
-    return DecimalSparseLU(q).solve(rhs)
+    return factor_float(identity_minus_float(q)).solve(rhs)
 
 
 def decimal_dense(size: int):

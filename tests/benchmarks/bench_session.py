@@ -134,11 +134,11 @@ def main(quick: bool) -> None:
             f"P(goal) {result.figures['goal_probability'].decimal:.6g}",
             f"exact: {result.exact}",
         )
-    from oddsbench.solve.exact_linear import ExactSparseLU, identity_minus
+    from oddsbench.solve.linear import factor_exact, identity_minus
 
     chain = q_system(wheel, 2001)
     q_rows, _ = chain.exact_rows()
-    seconds, _ = timed(lambda: ExactSparseLU(identity_minus(q_rows)).solve([QQ(1)] * chain.size))
+    seconds, _ = timed(lambda: factor_exact(identity_minus(q_rows)).solve([QQ(1)] * chain.size))
     row("ours, ExactSparseLU one solve, 2,000 states", seconds, "E[rounds]")
     import sympy
 
@@ -151,7 +151,7 @@ def main(quick: bool) -> None:
             matrix[i, j] = sympy.Rational(int(value.numerator), int(value.denominator))
     seconds, _ = timed(lambda: matrix.LUsolve(sympy.ones(n, 1)))
     row(f"sympy Matrix.LUsolve, {n} states", seconds, "E[rounds]")
-    seconds, _ = timed(lambda: ExactSparseLU(identity_minus(q_rows)).solve([QQ(1)] * n))
+    seconds, _ = timed(lambda: factor_exact(identity_minus(q_rows)).solve([QQ(1)] * n))
     row(f"ours, ExactSparseLU one solve, {n} states", seconds, "E[rounds]")
 
     print()

@@ -11,7 +11,8 @@ import pytest
 @pytest.hookimpl(tryfirst=True)
 def pytest_pyfunc_call(pyfuncitem):
     if inspect.iscoroutinefunction(pyfuncitem.obj):
-        arguments = {name: pyfuncitem.funcargs[name] for name in pyfuncitem._fixtureinfo.argnames}
-        asyncio.run(pyfuncitem.obj(**arguments))
+        # The test's own parameters, read from its signature (public API, unlike pytest's fixture info).
+        wanted = inspect.signature(pyfuncitem.obj).parameters
+        asyncio.run(pyfuncitem.obj(**{name: pyfuncitem.funcargs[name] for name in wanted}))
         return True
     return None

@@ -12,7 +12,7 @@ from oddsbench.simulate.intervals import wilson_interval
 from oddsbench.simulate.round_sim import simulate_round
 from oddsbench.solve.round import solve_round
 
-RULESETS = Path(__file__).parent.parent / "rulesets"
+RULESETS = Path(__file__).resolve().parents[2] / "rulesets"
 PASS_LINE = RULESETS / "pass-line.toml"
 WHEEL = RULESETS / "single-zero-wheel.toml"
 

@@ -6,7 +6,7 @@ from pathlib import Path
 from oddsbench.cli.main import main
 from oddsbench.report.cautions import CAUTIONS
 
-PASS_LINE = str(Path(__file__).parent.parent / "rulesets" / "pass-line.toml")
+PASS_LINE = str(Path(__file__).resolve().parents[2] / "rulesets" / "pass-line.toml")
 
 
 def test_simulate_prints_the_estimate_its_interval_and_7_495(capsys):

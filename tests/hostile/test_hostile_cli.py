@@ -1,6 +1,6 @@
 """Hostile and broken rulesets through the real command line, one subprocess each.
 
-Every file in ``tests/hostile/`` states in its header what must happen (``# expect-exit:`` and
+Every file in ``tests/hostile/cases/`` states in its header what must happen (``# expect-exit:`` and
 ``# expect:`` lines); further cases that cannot live in the repository (huge, not UTF-8, nested
 past the TOML reader's depth) are written into a temporary folder. For each, ``check`` and
 ``solve`` must finish within a time bound, exit 2 (or 0 for warning-only files), print one line
@@ -19,8 +19,8 @@ import pytest
 
 from oddsbench.model.load import MAX_FILE_BYTES, read_ruleset_file
 
-ROOT = Path(__file__).resolve().parent.parent
-HOSTILE = Path(__file__).resolve().parent / "hostile"
+ROOT = Path(__file__).resolve().parents[2]
+HOSTILE = Path(__file__).resolve().parent / "cases"
 CANARY = "canary-created"
 TIME_BOUND = 60  # seconds per command: generous for a loaded 2-core machine; a hang fails
 

@@ -1,25 +1,28 @@
-"""Exact sparse LU for first-step systems (I - Q) x = b over the rationals.
+"""The exact representations behind the exact front door: rational elimination and sympy's solvers.
 
-I - Q of an absorbing chain (every transient state can reach an end) is a nonsingular
-M-matrix, and so is each of its leading principal blocks: elimination in the given order
-needs no pivoting. Rows are kept as dicts, so fill-in stays inside a chain's band (a bankroll
-walk stays tridiagonal, a 35-to-1 bet keeps a band of 36), which is what makes exact solves of
-thousands of states take a fraction of a second.
+* ``elimination``: ``ExactSparseLU``, elimination without pivoting on dict rows. I - Q of an
+  absorbing chain (every transient state can reach an end) is a nonsingular M-matrix, and so is
+  each of its leading principal blocks: elimination in the given order needs no pivoting. Fill-in
+  stays inside a chain's band (a bankroll walk stays tridiagonal, a 35-to-1 bet keeps a band of
+  36), which is what makes exact solves of thousands of states take a fraction of a second.
+* ``dense``: sympy's ``DomainMatrix`` over QQ (python-flint's ``fmpq_mat`` underneath), with
+  pivoting: for small general systems that are not I - Q (a root fit, a stationary law).
+* ``fraction-free``: sympy's sparse fraction-free ``solve_den`` over ZZ after clearing
+  denominators: an independent method for cross-checks and benchmarks.
 """
 
 from __future__ import annotations
 
 import heapq
-from collections.abc import Callable, Sequence
+from collections.abc import Callable, Mapping, Sequence
+from math import lcm
 
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.numbers import QQ, ZZ, Rational
+from oddsbench.solve.cancel import SolveCancelled
 
 Row = dict[int, Rational]
-
-
-class SolveCancelled(Exception):
-    """Raised inside a solve when its cancel check says stop."""
+EXACT_METHODS = ("elimination", "dense", "fraction-free")
 
 
 class ExactTooLarge(OddsbenchError):
@@ -32,6 +35,8 @@ def _bits(value: Rational) -> int:
 
 class ExactSparseLU:
     """Factor once, then solve for as many right-hand sides as needed."""
+
+    method = "elimination"
 
     def __init__(
         self, rows: Sequence[Row], should_stop: Callable[[], bool] | None = None, max_bits: int | None = None
@@ -118,6 +123,80 @@ class ExactSparseLU:
         return z
 
 
+class DenseExactSolver:
+    """sympy's dense ``DomainMatrix`` over QQ (flint underneath), with pivoting, for general systems."""
+
+    method = "dense"
+
+    def __init__(self, rows: Sequence[Mapping[int, Rational]]) -> None:
+        from sympy.polys.matrices import DomainMatrix
+
+        self.size = len(rows)
+        dense = [[QQ(0)] * self.size for _ in range(self.size)]
+        for i, row in enumerate(rows):
+            for j, value in row.items():
+                dense[i][j] += value
+        self._matrix = DomainMatrix(dense, (self.size, self.size), QQ)
+
+    def solve(self, rhs: Sequence[Rational]) -> list[Rational]:
+        from sympy.polys.matrices import DomainMatrix
+
+        column = DomainMatrix([[QQ(value)] for value in rhs], (self.size, 1), QQ)
+        return [row[0] for row in self._matrix.lu_solve(column).to_list()]
+
+    def solve_transposed(self, rhs: Sequence[Rational]) -> list[Rational]:
+        from sympy.polys.matrices import DomainMatrix
+
+        column = DomainMatrix([[QQ(value)] for value in rhs], (self.size, 1), QQ)
+        return [row[0] for row in self._matrix.transpose().lu_solve(column).to_list()]
+
+
+class FractionFreeSolver:
+    """sympy's sparse fraction-free ``solve_den`` over ZZ: a second, independent exact method.
+
+    Each row is scaled by the common denominator of its entries and its right-hand side, so the
+    system is integral; ``solve_den`` returns numerators over one common denominator.
+    """
+
+    method = "fraction-free"
+
+    def __init__(self, rows: Sequence[Mapping[int, Rational]]) -> None:
+        self.size = len(rows)
+        self._rows = [dict(row) for row in rows]
+
+    def solve(self, rhs: Sequence[Rational]) -> list[Rational]:
+        return self._solve(self._rows, rhs)
+
+    def solve_transposed(self, rhs: Sequence[Rational]) -> list[Rational]:
+        columns: list[dict[int, Rational]] = [{} for _ in range(self.size)]
+        for i, row in enumerate(self._rows):
+            for j, value in row.items():
+                columns[j][i] = value
+        return self._solve(columns, rhs)
+
+    def _solve(self, rows: Sequence[Mapping[int, Rational]], rhs: Sequence[Rational]) -> list[Rational]:
+        from sympy.polys.matrices import DomainMatrix
+
+        size = self.size
+        scaled: dict[int, dict[int, object]] = {}
+        rhs_scaled: dict[int, dict[int, object]] = {}
+        for i, row in enumerate(rows):
+            common = 1
+            for value in [*row.values(), rhs[i]]:
+                common = lcm(common, int(QQ.denom(value)))
+            entries = {j: ZZ(int(QQ.numer(v * common))) for j, v in row.items() if v != 0}
+            if entries:
+                scaled[i] = entries
+            top = rhs[i] * common
+            if top != 0:
+                rhs_scaled[i] = {0: ZZ(int(QQ.numer(top)))}
+        matrix = DomainMatrix(scaled, (size, size), ZZ)
+        vector = DomainMatrix(rhs_scaled, (size, 1), ZZ)
+        numerators, denominator = matrix.solve_den(vector)
+        dense = numerators.to_dense().to_list()
+        return [QQ(int(dense[i][0]), int(denominator)) for i in range(size)]
+
+
 def identity_minus(q_rows: Sequence[Row]) -> list[Row]:
     """I - Q, row by row."""
     system = []
@@ -126,38 +205,3 @@ def identity_minus(q_rows: Sequence[Row]) -> list[Row]:
         entries[i] = entries.get(i, QQ(0)) + 1
         system.append(entries)
     return system
-
-
-def solve_with_domain_matrix(rows: Sequence[Row], rhs: Sequence[Rational]) -> list[Rational]:
-    """The same system through sympy's sparse fraction-free ``solve_den`` over ZZ.
-
-    A second, independent exact method: tests compare it with ExactSparseLU, and the benchmark
-    times it.
-    """
-    from sympy.polys.matrices import DomainMatrix
-
-    size = len(rows)
-    scaled: dict[int, dict[int, object]] = {}
-    rhs_scaled: dict[int, dict[int, object]] = {}
-    for i, row in enumerate(rows):
-        values = list(row.values()) + [rhs[i]]
-        common = 1
-        for value in values:
-            common = _lcm(common, int(QQ.denom(value)))
-        entries = {j: ZZ(int(QQ.numer(v * common))) for j, v in row.items() if v != 0}
-        if entries:
-            scaled[i] = entries
-        top = rhs[i] * common
-        if top != 0:
-            rhs_scaled[i] = {0: ZZ(int(QQ.numer(top)))}
-    matrix = DomainMatrix(scaled, (size, size), ZZ)
-    vector = DomainMatrix(rhs_scaled, (size, 1), ZZ)
-    numerators, denominator = matrix.solve_den(vector)
-    dense = numerators.to_dense().to_list()
-    return [QQ(int(dense[i][0]), int(denominator)) for i in range(size)]
-
-
-def _lcm(a: int, b: int) -> int:
-    from math import gcd
-
-    return a // gcd(a, b) * b

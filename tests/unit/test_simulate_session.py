@@ -13,7 +13,7 @@ from oddsbench.simulate.session_sim import simulate_session
 from oddsbench.solve.round_distribution import round_distribution
 from oddsbench.strategy.session import SessionSettings, analyse_session, session_chain
 
-RULESETS = Path(__file__).parent.parent / "rulesets"
+RULESETS = Path(__file__).resolve().parents[2] / "rulesets"
 
 
 def checks_for(name, settings, plan, trials=40_000, seed=1, truth_settings=None):

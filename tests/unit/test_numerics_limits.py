@@ -19,7 +19,8 @@ from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.load import load_ruleset_text
 from oddsbench.model.numbers import QQ
 from oddsbench.model.ruleset import Outcome, Ruleset, State
-from oddsbench.solve.exact_linear import ExactSparseLU, ExactTooLarge, SolveCancelled, identity_minus
+from oddsbench.solve.cancel import SolveCancelled
+from oddsbench.solve.linear import ExactTooLarge, factor_exact, identity_minus
 from oddsbench.solve.round import solve_round
 
 
@@ -99,7 +100,7 @@ def test_the_exact_size_limit_stops_exact_arithmetic_with_the_figures():
 def test_the_factorisation_raises_too_large_before_finishing():
     rows = identity_minus(build_round_chain(walk(300, 150, QQ(18, 37))).q_rows())
     with pytest.raises(ExactTooLarge, match=r"at state [0-9,]+ of 299"):
-        ExactSparseLU(rows, max_bits=5_000)
+        factor_exact(rows, max_bits=5_000)
 
 
 def test_the_state_limit_names_the_count_and_the_limit():

@@ -10,7 +10,7 @@ from oddsbench.simulate import round_sim
 def test_simulating_a_sticky_chain_stops_at_the_step_budget_with_exit_2(monkeypatch, capsys):
     monkeypatch.setattr(round_sim, "STEP_BUDGET", 2_000_000)
     code, _, err = run_cli(
-        capsys, "simulate", ROOT / "tests/hostile/numeric-sticky.toml", "--trials", "100000", "--seed", "1"
+        capsys, "simulate", ROOT / "tests/hostile/cases/numeric-sticky.toml", "--trials", "100000", "--seed", "1"
     )
     assert code == 2
     assert err.strip().startswith("oddsbench: simulation stopped: over 2,000,000 simulated steps in all")

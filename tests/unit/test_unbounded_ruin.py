@@ -389,7 +389,7 @@ def test_subfair_expected_rounds_agree_with_a_long_truncated_walk(weights, bets,
 
 
 def test_a_cancel_check_stops_the_solve():
-    from oddsbench.solve.exact_linear import SolveCancelled
+    from oddsbench.solve.cancel import SolveCancelled
 
     with pytest.raises(SolveCancelled):
         solve_unbounded_ruin(SKIP_FREE, 3, should_stop=lambda: True)

@@ -17,7 +17,7 @@ from pathlib import Path
 
 import pytest
 
-ROOT = Path(__file__).resolve().parent.parent
+ROOT = Path(__file__).resolve().parents[2]
 PASS_LINE = ROOT / "rulesets" / "pass-line.toml"
 OLD_REPORT = "# an earlier report\n" + "a line the user wants to keep\n" * 2000
 

@@ -14,7 +14,7 @@ from oddsbench.report.sweep_report import sweep_json
 from oddsbench.sweep.runners import run_sweep
 from oddsbench.sweep.spec import read_sweep_spec
 
-ROOT = Path(__file__).parent.parent
+ROOT = Path(__file__).resolve().parents[2]
 EXAMPLE = ROOT / "examples" / "wheel-payout-sweep.toml"
 WHEEL = ROOT / "rulesets" / "single-zero-wheel.toml"
 

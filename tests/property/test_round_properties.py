@@ -10,7 +10,7 @@ from hypothesis import strategies as st
 from oddsbench.chain.round_chain import build_round_chain
 from oddsbench.model.load import load_ruleset_text
 from oddsbench.model.numbers import QQ, to_float
-from oddsbench.solve.exact_linear import ExactSparseLU, identity_minus, solve_with_domain_matrix
+from oddsbench.solve.linear import factor_exact, identity_minus
 from oddsbench.solve.round import _decimal_moments, solve_round
 
 
@@ -94,7 +94,7 @@ def test_sparse_lu_matches_sympy_fraction_free_solve(text):
     chain = build_round_chain(load_ruleset_text(text))
     rows = identity_minus(chain.q_rows())
     rhs = [QQ(1)] * chain.transient_count
-    assert ExactSparseLU(rows).solve(rhs) == solve_with_domain_matrix(rows, rhs)
+    assert factor_exact(rows).solve(rhs) == factor_exact(rows, method="fraction-free").solve(rhs)
 
 
 def test_net_variance_matches_enumeration_for_two_step_round():

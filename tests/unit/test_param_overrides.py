@@ -10,7 +10,7 @@ from oddsbench.model.load import load_ruleset, load_ruleset_text, read_ruleset_f
 from oddsbench.model.numbers import QQ
 from oddsbench.solve.round import solve_round
 
-WHEEL = Path(__file__).parent.parent / "rulesets" / "single-zero-wheel.toml"
+WHEEL = Path(__file__).resolve().parents[2] / "rulesets" / "single-zero-wheel.toml"
 
 
 def house_edge(ruleset):

@@ -8,7 +8,7 @@ from pathlib import Path
 from oddsbench.cli.main import main
 from oddsbench.report.cautions import CAUTIONS
 
-RULESETS = Path(__file__).parent.parent / "rulesets"
+RULESETS = Path(__file__).resolve().parents[2] / "rulesets"
 PASS_LINE = str(RULESETS / "pass-line.toml")
 WHEEL = str(RULESETS / "single-zero-wheel.toml")
 

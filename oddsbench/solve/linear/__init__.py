@@ -1,0 +1,103 @@
+"""The one way to solve a linear system: a float front door and an exact one.
+
+Like sympy's ``DomainMatrix.lu_solve``, which hands the work to whichever representation the
+matrix has (dense, sparse, flint), each door factors once and returns factors with ``solve(rhs)``
+and ``solve_transposed(rhs)`` for as many right-hand sides as needed; the caller never picks a
+library routine.
+
+Float: ``factor_float(system, order=...)``.
+
+* A ``BandMatrix`` (band storage, built by walks over levels) goes to LAPACK's banded LU
+  (``gbtrf``/``gbtrs``; ``gttrf``/``gttrs`` when tridiagonal).
+* A scipy sparse matrix goes to SuperLU. ``order`` says what the caller knows of the state
+  order: ``"fill-reducing"`` (irregular chains: COLAMD), ``"from-top"`` (states are bankroll
+  levels, value-major: eliminate from the top without pivoting while the band's fill fits,
+  ``Structure.band_fits``, else COLAMD), ``"natural"`` (the exact engine's order, for its fill).
+
+Exact: ``factor_exact(rows, method=...)`` over dict rows of rationals: ``"elimination"``
+(``ExactSparseLU``, no pivoting: I - Q of an absorbing chain), ``"dense"`` (sympy
+``DomainMatrix`` over QQ with pivoting, for small general systems), ``"fraction-free"`` (sympy's
+sparse ``solve_den`` over ZZ, an independent method for cross-checks).
+
+A new engine (a structure-aware one: a skip-free recursion, a tridiagonal solve in log space)
+is one class with ``solve``/``solve_transposed``/``method`` and one rule in ``_float_engine``.
+Heavy libraries (scipy, sympy) are imported only when a system is factored.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Callable, Sequence
+
+from oddsbench.solve.linear.banded import BandFactors, BandMatrix
+from oddsbench.solve.linear.exact import (
+    EXACT_METHODS,
+    DenseExactSolver,
+    ExactSparseLU,
+    ExactTooLarge,
+    FractionFreeSolver,
+    Row,
+    identity_minus,
+)
+from oddsbench.solve.linear.sparse import ORDERS, FloatSingular, SuperLUFactors, sparse_from_rows
+from oddsbench.solve.linear.structure import BANDED_FILL_LIMIT, Structure, structure_of
+
+__all__ = [
+    "BANDED_FILL_LIMIT",
+    "EXACT_METHODS",
+    "ORDERS",
+    "BandFactors",
+    "BandMatrix",
+    "DenseExactSolver",
+    "ExactSparseLU",
+    "ExactTooLarge",
+    "FloatSingular",
+    "FractionFreeSolver",
+    "Row",
+    "Structure",
+    "SuperLUFactors",
+    "factor_exact",
+    "factor_float",
+    "identity_minus",
+    "identity_minus_float",
+    "sparse_from_rows",
+    "structure_of",
+]
+
+
+def factor_float(system, order: str = "fill-reducing") -> BandFactors | SuperLUFactors:
+    """Factor a square float system once (see the module text for how the engine is chosen)."""
+    return _float_engine(system, order)
+
+
+def _float_engine(system, order: str) -> BandFactors | SuperLUFactors:
+    if isinstance(system, BandMatrix):
+        return BandFactors(system)
+    if order == "from-top" and not structure_of(system).band_fits:
+        order = "fill-reducing"
+    return SuperLUFactors(system, order)
+
+
+def identity_minus_float(q_matrix):
+    """I - Q as a scipy CSC matrix, from a sparse Q of floats."""
+    from scipy.sparse import identity
+
+    return (identity(q_matrix.shape[0], format="csc") - q_matrix).tocsc()
+
+
+def factor_exact(
+    rows: Sequence[Row],
+    method: str = "elimination",
+    should_stop: Callable[[], bool] | None = None,
+    max_bits: int | None = None,
+) -> ExactSparseLU | DenseExactSolver | FractionFreeSolver:
+    """Factor a square system of exact rationals given as dict rows (see the module text).
+
+    ``should_stop`` and ``max_bits`` bound the elimination (``SolveCancelled``, ``ExactTooLarge``).
+    """
+    if method == "elimination":
+        return ExactSparseLU(rows, should_stop, max_bits)
+    if method == "dense":
+        return DenseExactSolver(rows)
+    if method == "fraction-free":
+        return FractionFreeSolver(rows)
+    raise ValueError(f"unknown exact method {method!r} (known: {', '.join(EXACT_METHODS)})")

@@ -1,0 +1,51 @@
+"""What the float front door looks at before it chooses a representation: size and band.
+
+A first-step system A = I - Q of an absorbing chain is a nonsingular M-matrix, and so is every
+principal block of it, so Gaussian elimination needs no pivoting in any order. What decides the
+fastest faithful factorisation is where the non-zeros sit: a walk over bankroll levels is
+banded (lower and upper bandwidths), a round of a game is irregular.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+
+# A band of this many stored entries (bandwidth x size) still factors faster in the given order
+# than with a fill-reducing reordering (measured on bankroll walks up to 10^6 states).
+BANDED_FILL_LIMIT = 250_000_000
+
+
+@dataclass(frozen=True)
+class Structure:
+    """Shape facts of a square system: ``lower``/``upper`` are the bandwidths below/above the diagonal."""
+
+    size: int
+    lower: int
+    upper: int
+    stored: int
+
+    @property
+    def bandwidth(self) -> int:
+        """The farthest non-zero from the diagonal, on either side."""
+        return max(self.lower, self.upper)
+
+    @property
+    def band_fits(self) -> bool:
+        """Elimination in the given order keeps its fill inside a band small enough to store."""
+        return self.bandwidth * self.size <= BANDED_FILL_LIMIT
+
+    @property
+    def tridiagonal(self) -> bool:
+        return self.lower <= 1 and self.upper <= 1
+
+
+def structure_of(matrix) -> Structure:
+    """The structure of a scipy sparse matrix (any format)."""
+    coo = matrix.tocoo()
+    size = matrix.shape[0]
+    if coo.nnz == 0:
+        return Structure(size, 0, 0, 0)
+    offset = coo.col.astype(np.int64) - coo.row.astype(np.int64)
+    return Structure(size, int(max(-offset.min(), 0)), int(max(offset.max(), 0)), int(coo.nnz))
