@@ -108,16 +108,11 @@ def wants_session(args: argparse.Namespace) -> bool:
 
 def session_request_of(args: argparse.Namespace):
     """The session options as the core's ``SessionRequest`` (amounts read exactly; one line when bad)."""
-    from oddsbench.core.settings import MONEY_FIELDS, SessionRequest, money
-    from oddsbench.model.defaults import NO_GOAL, NO_GOAL_DIGITS
-    from oddsbench.strategy.session import is_no_goal
+    from oddsbench.core.settings import MONEY_FIELDS, session_request
+    from oddsbench.model.defaults import NO_GOAL_DIGITS
 
-    amounts = {}
-    for name in MONEY_FIELDS:
-        raw = getattr(args, name, None)
-        amounts[name] = NO_GOAL if name == "goal" and is_no_goal(raw) else money(raw, name)
-    return SessionRequest(
-        **amounts,
+    return session_request(
+        **{name: getattr(args, name, None) for name in MONEY_FIELDS},
         max_rounds=args.max_rounds,
         plans=tuple(args.plan or ()),
         digits=getattr(args, "digits", NO_GOAL_DIGITS),

@@ -12,7 +12,7 @@ from oddsbench.cli.options import add_exact_limit, add_session_options, positive
 
 
 def _plans_help() -> str:
-    from oddsbench.strategy.plans import PLAN_HELP
+    from oddsbench.core.plans import PLAN_HELP
 
     return "\n".join(f"  {name:<16} {about}" for name, about in PLAN_HELP)
 

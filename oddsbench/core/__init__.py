@@ -15,43 +15,47 @@ Entry points:
 - ``report_figures(game, settings, work) -> ReportFigures``
 """
 
-from oddsbench.core.game import Game, game_from_text, inline_round, load_game
-from oddsbench.core.reports import ReportFigures, report_figures
-from oddsbench.core.rounds import BestResults, best_play, check_strategy, round_figures
-from oddsbench.core.sessions import PlanResult, SessionResults, session_settings, sessions
-from oddsbench.core.settings import DEFAULTS, SessionRequest, Settings, make_settings, money, session_request
-from oddsbench.core.simulation import Simulation, simulate
-from oddsbench.core.sweeps import read_spec, solve_point, solve_task, sweep
-from oddsbench.core.work import NO_WORK, Cancelled, Work
+import importlib as _importlib
 
-__all__ = [
-    "DEFAULTS",
-    "NO_WORK",
-    "BestResults",
-    "Cancelled",
-    "Game",
-    "PlanResult",
-    "ReportFigures",
-    "SessionRequest",
-    "SessionResults",
-    "Settings",
-    "Simulation",
-    "Work",
-    "best_play",
-    "check_strategy",
-    "game_from_text",
-    "inline_round",
-    "load_game",
-    "make_settings",
-    "money",
-    "read_spec",
-    "report_figures",
-    "round_figures",
-    "session_request",
-    "session_settings",
-    "sessions",
-    "simulate",
-    "solve_point",
-    "solve_task",
-    "sweep",
-]
+# Loaded on first use (``from oddsbench.core import sessions`` works as usual): the command line
+# reads the plan help from ``oddsbench.core.plans`` at start-up without loading any engine.
+_WHERE = {
+    "Game": "game",
+    "game_from_text": "game",
+    "inline_round": "game",
+    "load_game": "game",
+    "check_size": "game",
+    "ReportFigures": "reports",
+    "report_figures": "reports",
+    "BestResults": "rounds",
+    "best_play": "rounds",
+    "check_strategy": "rounds",
+    "round_figures": "rounds",
+    "PlanResult": "session",
+    "SessionResults": "session",
+    "session_settings": "session",
+    "sessions": "session",
+    "DEFAULTS": "settings",
+    "SessionRequest": "settings",
+    "Settings": "settings",
+    "make_settings": "settings",
+    "money": "settings",
+    "session_request": "settings",
+    "Simulation": "simulation",
+    "simulate": "simulation",
+    "read_spec": "sweeps",
+    "solve_point": "sweeps",
+    "solve_task": "sweeps",
+    "sweep": "sweeps",
+    "NO_WORK": "work",
+    "Cancelled": "work",
+    "Work": "work",
+}
+
+__all__ = sorted(_WHERE)
+
+
+def __getattr__(name: str):
+    if name in _WHERE:
+        return getattr(_importlib.import_module(f"oddsbench.core.{_WHERE[name]}"), name)
+    raise AttributeError(f"module 'oddsbench.core' has no attribute {name!r}")

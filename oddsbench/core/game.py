@@ -85,3 +85,10 @@ def _exact(params: Mapping[str, object] | None) -> dict | None:
     from oddsbench.core.settings import money
 
     return {name: money(value, f"param {name}") for name, value in params.items()}
+
+
+def check_size(ruleset: Ruleset, max_states: int) -> None:
+    """Refuse a ruleset with more states than ``max_states`` (one line, as the chain builder words it)."""
+    from oddsbench.chain.round_chain import check_state_count
+
+    check_state_count(len(ruleset.states), max_states, ruleset.source, "the ruleset has")

@@ -9,7 +9,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 from oddsbench.core.game import Game
-from oddsbench.core.sessions import SessionResults
+from oddsbench.core.session import SessionResults
 from oddsbench.core.settings import DEFAULTS, Settings
 from oddsbench.core.work import NO_WORK, Work
 from oddsbench.strategy.compare import RoundResults
@@ -37,7 +37,7 @@ def report_figures(game: Game, settings: Settings = DEFAULTS, work: Work = NO_WO
     )
     if settings.session is None:
         return ReportFigures(game, rounds)
-    from oddsbench.core.sessions import session_settings, solve_plans
+    from oddsbench.core.session import session_settings, solve_plans
 
     first = rounds.columns[0]
     distribution = round_distribution_of(ruleset, first.policy)

@@ -4,7 +4,7 @@ import them from here, never from the engines (so an engine can move without tou
 from oddsbench.chain.round_distribution import RoundDistribution, RoundOutcome
 from oddsbench.core.reports import ReportFigures
 from oddsbench.core.rounds import BestResults
-from oddsbench.core.sessions import PlanResult, SessionResults
+from oddsbench.core.session import PlanResult, SessionResults
 from oddsbench.core.simulation import SessionRun, Simulation
 from oddsbench.model.figure import Figure
 from oddsbench.simulate.checks import Check

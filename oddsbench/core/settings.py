@@ -20,6 +20,7 @@ from oddsbench.model.defaults import (
     NO_GOAL_DIGITS,
     ROUND_EXACT_LIMIT,
     SESSION_EXACT_LIMIT,
+    is_no_goal,
 )
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.numbers import Rational
@@ -127,7 +128,7 @@ def session_request(**given: Any) -> SessionRequest:
         raise OddsbenchError(f"unknown session setting(s): {', '.join(unknown)} (known: {', '.join(sorted(known))})")
     values = dict(given)
     for name in MONEY_FIELDS:
-        if name == "goal" and isinstance(values.get(name), str) and values[name].strip().lower() == NO_GOAL:
+        if name == "goal" and is_no_goal(values.get(name)):
             values[name] = NO_GOAL
         elif name in values:
             values[name] = money(values[name], name)

@@ -80,7 +80,7 @@ def simulate(game: Game, settings: Settings = DEFAULTS, work: Work = NO_WORK) ->
 
 
 def _sessions(game: Game, chain, seed: int, play: str | None, settings: Settings, work: Work) -> Simulation:
-    from oddsbench.core.sessions import session_settings
+    from oddsbench.core.session import session_settings
     from oddsbench.simulate.checks import session_checks
     from oddsbench.simulate.round_sim import RoundPlayer
     from oddsbench.simulate.session_sim import simulate_session

@@ -11,7 +11,7 @@ from __future__ import annotations
 from collections.abc import Callable
 from dataclasses import dataclass
 
-from oddsbench.solve.exact_linear import SolveCancelled as Cancelled
+from oddsbench.solve.cancel import SolveCancelled as Cancelled
 
 __all__ = ["Cancelled", "Work", "NO_WORK"]
 

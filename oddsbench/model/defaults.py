@@ -38,3 +38,8 @@ SESSION_SETTING_NAMES = ("bankroll", "goal", "floor", "min_bet", "max_bet", "uni
 
 # The goals of best play (``oddsbench best --goal``), as ``strategy/goals.py`` defines them.
 BEST_GOALS = ("max-return", "max-win", "min-loss", "min-steps")
+
+
+def is_no_goal(goal: object) -> bool:
+    """``goal = "none"`` in a [session] table, or ``--goal none``: play until ruin, no target."""
+    return isinstance(goal, str) and goal.strip().lower() in NO_GOAL_WORDS

@@ -23,19 +23,20 @@ same line by every command: the table minimum is a session setting, ``--min-bet`
 
 Every bet is then raised to the table minimum and cut to the table maximum and to what the
 bankroll can cover for the round's worst case; a bankroll that cannot cover the minimum is ruin.
+This module is the grammar only (light to import); ``strategy/plan_bets.py`` turns a plan into
+the bets of a bankroll chain.
 """
 
 from __future__ import annotations
 
 from collections.abc import Iterable
 from dataclasses import dataclass
+from typing import TYPE_CHECKING
 
-import numpy as np
-
-from oddsbench.chain.bankroll import BankrollGrid
-from oddsbench.chain.round_distribution import RoundDistribution
 from oddsbench.model.errors import OddsbenchError
-from oddsbench.model.numbers import QQ, Rational, denominator, is_integer, numerator, text, to_int
+
+if TYPE_CHECKING:  # the grammar stays light: the command line reads PLAN_HELP for its --help
+    from oddsbench.model.numbers import Rational
 
 PLAN_HELP = (
     ("flat:B", "the same bet B every round"),
@@ -86,6 +87,7 @@ def parse_plan(spelling: str, no_goal: bool = False) -> Plan:
     whose bet grows with the bankroll (or that aim at a goal) are refused in one line.
     """
     from oddsbench.model.expr import ExpressionError, evaluate_text
+    from oddsbench.model.numbers import QQ, is_integer, text, to_int
 
     parts = [part.strip() for part in spelling.strip().split(":")]
     kind, args = parts[0].lower(), parts[1:]
@@ -146,77 +148,3 @@ def parse_plans(spellings: str | Iterable[str], no_goal: bool = False) -> tuple[
     if isinstance(spellings, str):
         spellings = spellings.replace(";", ",").split(",")
     return tuple(parse_plan(part.strip(), no_goal) for part in spellings if part.strip())
-
-
-def _units(plan: Plan, amount: Rational, grid: BankrollGrid) -> int:
-    count = amount / grid.unit
-    if not is_integer(count):
-        raise OddsbenchError(
-            f"--plan {plan.spelling!r}: bet {text(amount)} is not a whole number of betting units of {text(grid.unit)}"
-        )
-    return to_int(count)
-
-
-def _floor_times(values: np.ndarray, fraction: Rational, grid: BankrollGrid) -> np.ndarray:
-    """floor(fraction * bankroll / unit) in betting units, in exact integer arithmetic."""
-    top = numerator(fraction)
-    bottom = denominator(fraction) * grid.scale
-    if top * int(values.max(initial=0)) < 2**62:
-        return (values * top) // bottom
-    return np.array([v * top // bottom for v in values.tolist()], dtype=np.int64)
-
-
-def planned_bets(
-    plan: Plan, distribution: RoundDistribution, grid: BankrollGrid
-) -> tuple[np.ndarray, np.ndarray, tuple[str, ...]]:
-    """(bets[level, value - low] in betting units, next_level[level, outcome], notes) of a plan."""
-    width = grid.width
-    values = np.arange(grid.low, grid.low + width, dtype=np.int64)
-    outcomes = len(distribution.outcomes)
-    stay = np.zeros((1, outcomes), dtype=np.int64)
-    notes: list[str] = []
-    if plan.kind == "flat":
-        return np.full((1, width), _units(plan, plan.amount, grid)), stay, ()
-    if plan.kind == "timid":
-        return np.full((1, width), grid.min_bet), stay, ()
-    if plan.kind == "bold":
-        best = distribution.best_net * grid.scale
-        if best <= 0:
-            notes.append(f"{plan.spelling}: no outcome wins, so no bet reaches the goal; bold play stakes everything")
-            return np.full((1, width), np.iinfo(np.int64).max // 4), stay, tuple(notes)
-        need = grid.goal - values
-        top, bottom = numerator(best), denominator(best)
-        return np.array([-((-need * bottom) // top)]), stay, ()
-    if plan.kind == "fraction":
-        return _floor_times(values, plan.amount, grid)[None, :], stay, ()
-    if plan.kind == "kelly":
-        from oddsbench.strategy.kelly import kelly_bet
-
-        bet = kelly_bet(distribution, plan.amount)
-        if bet.fraction.decimal <= 0:
-            notes.append(
-                f"{plan.spelling}: the game has no positive expectation, so Kelly bets nothing; "
-                "the plan bets the table minimum instead"
-            )
-        if bet.fraction.exact is not None:
-            bets = _floor_times(values, bet.fraction.exact, grid)
-        else:
-            bets = np.floor(values * bet.fraction.decimal / grid.scale).astype(np.int64)
-        return bets[None, :], stay, tuple(notes)
-    if plan.kind in PROGRESSIONS:
-        base = _units(plan, plan.amount, grid)
-        levels = plan.series
-        bets = np.array([[base * 2**level] * width for level in range(levels)], dtype=np.int64).reshape(levels, width)
-        nets = [o.net for o in distribution.outcomes]
-        step = np.zeros((levels, outcomes), dtype=np.int64)
-        for level in range(levels):
-            for k, net in enumerate(nets):
-                raising = net < 0 if plan.kind == "martingale" else net > 0
-                if net == 0:
-                    step[level, k] = level
-                elif raising:
-                    step[level, k] = level + 1 if level + 1 < levels else 0
-                else:
-                    step[level, k] = 0
-        return bets, step, ()
-    raise OddsbenchError(f"plan {plan.spelling!r} is chosen by the optimiser, not by a rule")

@@ -16,20 +16,16 @@ import numpy as np
 
 from oddsbench.chain.bankroll import BankrollChain, BankrollGrid, build_bankroll_chain, make_grid
 from oddsbench.chain.round_distribution import RoundDistribution
-from oddsbench.model.defaults import NO_GOAL, NO_GOAL_WORDS, SESSION_EXACT_LIMIT, SESSION_SETTING_NAMES
+from oddsbench.model.defaults import NO_GOAL, SESSION_EXACT_LIMIT, SESSION_SETTING_NAMES, is_no_goal
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.figure import Figure
 from oddsbench.model.numbers import QQ, Rational, is_integer, text, to_float, to_int
 from oddsbench.solve.session import FinalValue, solve_session
-from oddsbench.strategy.plans import Plan, parse_plan, planned_bets
+from oddsbench.strategy.plan_bets import planned_bets
+from oddsbench.strategy.plans import Plan, parse_plan
 
 SETTING_NAMES = SESSION_SETTING_NAMES
 MONEY_NAMES = ("bankroll", "goal", "floor", "min_bet", "max_bet", "unit")
-
-
-def is_no_goal(goal: object) -> bool:
-    """``goal = "none"`` in a [session] table, or ``--goal none``: play until ruin, no target."""
-    return isinstance(goal, str) and goal.strip().lower() in NO_GOAL_WORDS
 
 
 @dataclass(frozen=True)

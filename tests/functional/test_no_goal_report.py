@@ -5,12 +5,12 @@ from __future__ import annotations
 import pytest
 
 from oddsbench.core import inline_round, make_settings, sessions
+from oddsbench.model.defaults import is_no_goal
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.numbers import QQ
 from oddsbench.report.cautions import CAUTIONS
 from oddsbench.report.session_report import session_json, session_text
 from oddsbench.strategy.plans import parse_plan
-from oddsbench.strategy.session import is_no_goal
 
 EVEN_51 = "1:51/100,-1:49/100"
 

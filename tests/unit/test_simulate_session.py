@@ -85,8 +85,9 @@ def test_simulate_sessions_as_json_lists_each_plan(capsys):
     wheel = str(RULESETS / "single-zero-wheel.toml")
     assert main(["simulate", wheel, "--session", "--plan", "bold", "--trials", "5000", "--seed", "1", "--json"]) == 0
     body = json.loads(capsys.readouterr().out)
-    (plan,) = body["plans"]
-    assert plan["plan"] == "bold" and plan["outside"] == [] and body["session"]["bankroll"] == "100"
+    (plan,) = body["sessions"]["plans"]
+    assert plan["plan"] == "bold" and plan["outside"] == [] and body["sessions"]["settings"]["bankroll"] == "100"
+    assert body["rounds"] is None and body["outside"] == []
 
 
 def test_sessions_need_a_bankroll_and_a_goal(capsys, tmp_path):

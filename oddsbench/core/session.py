@@ -9,6 +9,7 @@ walk (only plans whose bet stays bounded). Each plan's result says which.
 
 from __future__ import annotations
 
+from collections.abc import Sequence
 from dataclasses import dataclass
 
 from oddsbench.chain.round_distribution import RoundDistribution
@@ -160,3 +161,20 @@ def _no_goal(
     else:  # timid: always the table minimum
         bet = session.min_bet or session.unit or 1
     return solve_endless_play(outcomes, bet, session.bankroll, check=request.check, **common)
+
+
+def still_playing(results: SessionResults, plan: str, rounds: Sequence[int], work: Work = NO_WORK) -> tuple[float, ...]:
+    """The chance that a plan's session is still going after each number of rounds (decimals: for a chart).
+
+    Each is the session solved in floating point with a horizon of n rounds (``within_playing_probability``).
+    """
+    from oddsbench.strategy.session import analyse_session
+
+    if results.no_goal:
+        raise OddsbenchError(f"{results.source}: with no goal a session only ends at ruin: no length distribution")
+    chances = []
+    for n in rounds:
+        work.check()
+        figures = analyse_session(results.distribution, results.settings, plan, 0, n, work.should_stop)
+        chances.append(figures.figures["within_playing_probability"].decimal)
+    return tuple(chances)
