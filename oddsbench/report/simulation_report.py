@@ -182,7 +182,9 @@ def simulate_json(simulation: Simulation) -> dict[str, Any]:
                     "notes": session_notes(sample) + list(run.figures.notes),
                 }
             )
-        sessions = {"settings": settings_shown(simulation.session), "plans": plans}
+        from oddsbench.report.session_report import settings_json
+
+        sessions = {"settings": settings_json(simulation.session), "plans": plans}
     return envelope(
         "simulate",
         {
