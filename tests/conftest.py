@@ -82,3 +82,34 @@ def choice_game(tmp_path):
     path = tmp_path / "coin.toml"
     path.write_text(CHOICE_GAME)
     return path
+
+
+# ----- walks for the ruin engines (unit and property tests of endless play) -----
+
+
+def scaled(law, units):
+    """A law of whole-unit jumps, each jump times ``units`` (a bet of ``units`` units)."""
+    return {jump * units: chance for jump, chance in law.items()}
+
+
+def levels_problem(tail, bottom, bankroll):
+    """The cut-bet walk as the clipped-ruin engine states it: its own law at each low level, ``tail`` above."""
+    from oddsbench.solve import unbounded_ruin as ur
+    from oddsbench.solve.clipped_ruin import _Problem
+
+    return _Problem(ur._normalise(tail), tuple(ur._normalise(law) for law in bottom), bankroll)
+
+
+def expected_rounds_by_truncation(problem, bankroll, size=4_000):
+    """Expected rounds to ruin by first-step analysis on levels 1..size (float, scipy sparse LU)."""
+    import numpy as np
+    import scipy.sparse as sp
+    from scipy.sparse.linalg import spsolve
+
+    rows, cols, vals = [], [], []
+    for k in range(1, size + 1):
+        rows.append(k - 1), cols.append(k - 1), vals.append(1.0)
+        for jump, chance in problem.law_at(k):
+            if 1 <= k + jump <= size:
+                rows.append(k - 1), cols.append(k + jump - 1), vals.append(-float(chance))
+    return spsolve(sp.csc_matrix((vals, (rows, cols)), shape=(size, size)), np.ones(size))[bankroll - 1]

@@ -168,15 +168,15 @@ def check_ruleset_text(text: str) -> None:
     assert (result.ruleset is None) == bool(result.errors)
     if result.ruleset is None:
         event("refused with problems")
-        return
-    try:
-        figures = solve_round(build_round_chain(result.ruleset))
-    except OddsbenchError as error:
-        event("valid, but the chain was refused")
-        assert_one_line(str(error))
     else:
-        event("valid and solved")
-        assert sum(figure.exact for figure in figures.end_probability.values()) == 1
+        try:
+            figures = solve_round(build_round_chain(result.ruleset))
+        except OddsbenchError as error:
+            event("valid, but the chain was refused")
+            assert_one_line(str(error))
+        else:
+            event("valid and solved")
+            assert sum(figure.exact for figure in figures.end_probability.values()) == 1
 
 
 def toml_text(document: dict) -> str:

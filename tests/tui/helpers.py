@@ -41,10 +41,15 @@ def figure(app: WorkbenchApp, quantity: str) -> tuple[str, str]:
 
 
 async def go_to_state(pilot, name: str) -> None:
+    await go_to_entry(pilot, "state:" + name)
+
+
+async def go_to_entry(pilot, entry: str) -> None:
+    """Highlight one entry of the list on the left (``setup:``, ``params:``, ``session:``, ``state:NAME``)."""
     navigator = pilot.app.workbench.query_one("#navigator")
     navigator.focus()
     ids = [navigator.get_option_at_index(i).id for i in range(navigator.option_count)]
-    navigator.highlighted = ids.index("state:" + name)
+    navigator.highlighted = ids.index(entry)
     await settle(pilot)
 
 

@@ -10,6 +10,7 @@ import sys
 import time
 
 import pytest
+from textual.notifications import Notify
 
 from oddsbench.model.recovery import copy_path, find_recovery
 from oddsbench.tui.screens.dialogs import AskName, Choose
@@ -90,7 +91,7 @@ async def test_keeping_the_copy_opens_the_saved_file_and_offers_it_again_next_ti
         assert not app.workbench.session.dirty
         await pilot.press("ctrl+q")
         await pilot.pause()
-        assert app._exit
+        assert app.return_code is not None  # the app was told to exit
     assert find_recovery(path, path.read_text()).copy.text == edited
 
 
@@ -111,10 +112,15 @@ async def test_a_broken_copy_is_ignored_and_said_so(tmp_path):
     target.parent.mkdir(parents=True, exist_ok=True)
     target.write_text("{ not json")
     app = app_on(path, tmp_path)
-    async with app.run_test(size=(100, 30)) as pilot:
+    messages = []  # every notification the app posts, seen through Textual's public message hook
+
+    def hook(message) -> None:
+        if isinstance(message, Notify):
+            messages.append(str(message.notification.message))
+
+    async with app.run_test(size=(100, 30), message_hook=hook) as pilot:
         await settle(pilot)
         assert not isinstance(app.screen, Choose)
-        messages = [str(n.message) for n in app._notifications]
         assert any(m.startswith(f"recovery copy {target} ignored: it is broken") for m in messages)
         assert figure(app, "house edge")[0] == PASS_LINE_EDGE
 
@@ -139,7 +145,7 @@ async def test_discarding_at_quit_removes_the_recovery_copy(tmp_path):
         await pilot.pause()
         await pilot.press("d")
         await pilot.pause()
-        assert app._exit
+        assert app.return_code is not None  # the app was told to exit
     assert not copy_path(path).exists()
 
 

@@ -85,12 +85,12 @@ async def test_quitting_with_unsaved_changes_asks_first(tmp_path):
         assert isinstance(app.screen, Choose)
         await pilot.press("c")
         await pilot.pause()
-        assert not app._exit and not isinstance(app.screen, Choose)
+        assert app.return_code is None and not isinstance(app.screen, Choose)
         await pilot.press("ctrl+q")
         await pilot.pause()
         await pilot.press("d")
         await pilot.pause()
-        assert app._exit
+        assert app.return_code is not None  # the app was told to exit
     assert "four again" not in path.read_text()
 
 
@@ -100,7 +100,7 @@ async def test_quitting_without_changes_does_not_ask(tmp_path):
         await settle(pilot)
         await pilot.press("ctrl+q")
         await pilot.pause()
-        assert app._exit
+        assert app.return_code is not None  # the app was told to exit
 
 
 async def test_undo_restores_the_text_and_the_figures_and_redo_reapplies(tmp_path):
@@ -254,6 +254,9 @@ async def test_session_settings_are_edited_in_the_file(tmp_path):
         assert "to goal 150" in app.workbench.sessions_result.heading
 
 
+HANG_GUARD = 120  # seconds: only a guard against a hang on a loaded machine, never the thing tested
+
+
 def long_walk(states: int) -> str:
     """An invented subfair walk, long enough that its exact solve takes seconds."""
     lines = ["[ruleset]", 'title = "Long walk"', f'start = "s{states // 2}"', "[states.s0]", 'result = "loss"']
@@ -264,24 +267,52 @@ def long_walk(states: int) -> str:
     return "\n".join(lines) + "\n"
 
 
-async def test_escape_cancels_a_long_solve_and_keeps_the_workbench_responsive(tmp_path):
+async def test_escape_cancels_a_long_solve_and_keeps_the_workbench_responsive(tmp_path, monkeypatch):
     import asyncio
-    import time
+    import threading
 
+    from oddsbench.solve.cancel import SolveCancelled
+    from oddsbench.tui import analysis
+
+    asked, released, ended, outcome = threading.Event(), threading.Event(), threading.Event(), []
+    solve = analysis.solve_round_text
+
+    def held_solve(ruleset, strategy, should_stop=None):
+        """The workbench's round solve, held at the engine's first cancellation check until Esc is pressed,
+        recording whether it stopped by cancellation or ran to its end."""
+
+        def held_check() -> bool:
+            asked.set()
+            released.wait(HANG_GUARD)
+            return should_stop()
+
+        try:
+            result = solve(ruleset, strategy, should_stop=held_check)
+        except SolveCancelled:
+            outcome.append("cancelled")
+            raise
+        finally:
+            ended.set()
+        outcome.append("finished")
+        return result
+
+    monkeypatch.setattr(analysis, "solve_round_text", held_solve)
     path = tmp_path / "walk.toml"
     path.write_text(long_walk(3000))  # an exact solve of many seconds, even on a fast machine
     app = app_on(path, tmp_path)
     async with app.run_test(size=(100, 30)) as pilot:
-        deadline = time.monotonic() + 60  # reading the file first may be slow on a loaded machine
-        while not app.workbench.solving and time.monotonic() < deadline:
-            await pilot.pause()
-            await asyncio.sleep(0.02)
+        assert await asyncio.to_thread(asked.wait, HANG_GUARD)  # the engine is inside the solve
+        await pilot.pause()
         assert app.workbench.solving
         await pilot.press("escape")
-        started = time.monotonic()
+        released.set()
+        assert await asyncio.to_thread(ended.wait, HANG_GUARD)
         await app.workers.wait_for_complete()
         await pilot.pause()
-        assert time.monotonic() - started < 5
+        assert outcome == ["cancelled"]  # the engine stopped at its check, not at the end of the solve
         assert not app.workbench.solving
         assert "cancelled" in app.workbench.status_note
         assert app.workbench.result is None  # nothing half-solved is shown
+        await pilot.press("f3")  # the workbench answers the next key
+        await pilot.pause()
+        assert app.workbench.query_one("#views").current == "round" and app.return_code is None

@@ -1,22 +1,20 @@
-"""Endless play (no goal): risk of ruin on the unbounded bankroll walk (sources beside each check)."""
+"""Endless play (no goal): risk of ruin on the unbounded bankroll walk (sources beside each check).
+
+Random walks (hypothesis) are in tests/property/test_ruin_properties.py."""
 
 from __future__ import annotations
 
 import math
-import os
 
 import mpmath
 import numpy as np
 import pytest
-from hypothesis import given, settings
-from hypothesis import strategies as st
+from conftest import expected_rounds_by_truncation, levels_problem, scaled
 
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.numbers import QQ, denominator, numerator
 from oddsbench.solve.unbounded_ruin import ruin_before_goal, solve_unbounded_ruin
 from oddsbench.strategy.endless_play import endless_flat_walk, solve_endless_play
-
-EXAMPLES = int(os.environ.get("ODDSBENCH_HEAVY_EXAMPLES", "20"))
 
 
 def even_money(p):
@@ -120,37 +118,6 @@ def test_skip_free_ruin_agrees_with_a_seeded_simulation():
     estimate = ruined.mean()
     sigma = math.sqrt(ruin.ruin.value * (1 - ruin.ruin.value) / walks)
     assert abs(estimate - ruin.ruin.value) < 4 * sigma
-
-
-LAWS = st.builds(
-    lambda losses, wins: (losses, wins),
-    st.lists(st.integers(1, 12), min_size=1, max_size=3),
-    st.lists(st.integers(1, 12), min_size=1, max_size=3),
-)
-
-
-def favourable_law(losses, wins):
-    """Losses on -1..-len(losses), wins on 1..len(wins), weights given; None if not favourable."""
-    weights = {-(i + 1): w for i, w in enumerate(losses)} | {i + 1: w for i, w in enumerate(wins)}
-    total = sum(weights.values())
-    law = {jump: QQ(w, total) for jump, w in weights.items()}
-    mean = sum(QQ(j) * p for j, p in law.items())
-    return law if mean > 0 else None
-
-
-# Lundberg's inequality psi(u) <= exp(-R u) (Asmussen and Albrecher, Ruin Probabilities, 2nd ed.,
-# ch. I and ch. IV, from memory); for a walk whose only loss is one unit it holds with equality.
-@settings(max_examples=EXAMPLES, deadline=None)
-@given(LAWS, st.integers(1, 40))
-def test_lundberg_bound_is_never_below_the_exact_value(weights, bankroll):
-    law = favourable_law(*weights)
-    if law is None:
-        return
-    ruin = solve_unbounded_ruin(law, bankroll, digits=20, check=False)
-    mpmath.mp.dps = 40
-    assert value(ruin.ruin) <= value(ruin.lundberg) * (1 + mpmath.mpf(10) ** -18)
-    if ruin.is_skip_free:
-        assert ruin.ruin.text == ruin.lundberg.text
 
 
 def test_several_unit_losses_root_method_agrees_with_exact_truncation():
@@ -269,17 +236,6 @@ def test_large_systems_are_checked_in_floating_point():
     assert any("floating point" in note for note in ruin.notes)
 
 
-def _levels_problem(tail, bottom, bankroll):
-    from oddsbench.solve import unbounded_ruin as ur
-    from oddsbench.solve.clipped_ruin import _Problem
-
-    return _Problem(ur._normalise(tail), tuple(ur._normalise(law) for law in bottom), bankroll)
-
-
-def _scaled(law, units):
-    return {jump * units: chance for jump, chance in law.items()}
-
-
 @pytest.mark.parametrize(
     "law",
     [SKIP_FREE, {-2: QQ(1, 5), -1: QQ(1, 10), 1: QQ(3, 5), 2: QQ(1, 10)}],
@@ -288,10 +244,10 @@ def _scaled(law, units):
 def test_cut_bets_with_irrational_roots_match_exact_truncation(law):
     from oddsbench.solve.clipped_ruin import ruin_before_goal_levels, solve_clipped_ruin
 
-    tail, bottom = _scaled(law, 3), [_scaled(law, 1), _scaled(law, 2)]
+    tail, bottom = scaled(law, 3), [scaled(law, 1), scaled(law, 2)]
     ruin = solve_clipped_ruin(tail, bottom, 10)
     assert ruin.truncation.consistent
-    lower = ruin_before_goal_levels(_levels_problem(tail, bottom, 10), 10, 500)
+    lower = ruin_before_goal_levels(levels_problem(tail, bottom, 10), 10, 500)
     assert abs(ruin.ruin.value - float(lower)) < 1e-12
     assert ruin.ruin.value <= ruin.lundberg.value
 
@@ -304,19 +260,8 @@ def test_cut_bets_subfair_expected_rounds_match_a_long_truncated_walk():
     ruin = solve_clipped_ruin(tail, bottom, 20)
     assert ruin.verdict == "certain" and ruin.rounds_to_ruin.exact is not None
     # E[rounds] by first-step analysis on levels 1..3000 (reaching 3000 from 20 is negligible)
-    import scipy.sparse as sp
-    from scipy.sparse.linalg import spsolve
-
-    problem = _levels_problem(tail, bottom, 20)
-    size = 3_000
-    rows, cols, vals = [], [], []
-    for k in range(1, size + 1):
-        rows.append(k - 1), cols.append(k - 1), vals.append(1.0)
-        for jump, chance in problem.law_at(k):
-            if 1 <= k + jump <= size:
-                rows.append(k - 1), cols.append(k + jump - 1), vals.append(-float(chance))
-    durations = spsolve(sp.csc_matrix((vals, (rows, cols)), shape=(size, size)), np.ones(size))
-    assert abs(float(ruin.rounds_to_ruin.exact) - durations[19]) < 1e-6
+    durations = expected_rounds_by_truncation(levels_problem(tail, bottom, 20), 20, size=3_000)
+    assert abs(float(ruin.rounds_to_ruin.exact) - durations) < 1e-6
 
 
 def test_pushes_do_not_change_the_ruin_chance_but_stretch_the_rounds():
@@ -326,66 +271,6 @@ def test_pushes_do_not_change_the_ruin_chance_but_stretch_the_rounds():
     assert with_pushes.rounds_to_ruin.exact == 2 * plain.rounds_to_ruin.exact
     favourable = solve_unbounded_ruin({1: QQ(3, 10), -1: QQ(1, 5), 0: QQ(1, 2)}, 7)
     assert favourable.ruin_exact == QQ(2**7, 3**7)
-
-
-BETS = st.tuples(st.integers(1, 3), st.integers(1, 3)).map(sorted)
-
-
-@settings(max_examples=EXAMPLES, deadline=None)
-@given(LAWS, BETS, st.integers(1, 12))
-def test_cut_bet_walks_agree_with_exact_truncation(weights, bets, bankroll):
-    from oddsbench.solve.clipped_ruin import ruin_before_goal_levels, solve_clipped_ruin
-
-    losses, wins = weights
-    total = sum(losses) + sum(wins)
-    law = {-(i + 1): QQ(w, total) for i, w in enumerate(losses)} | {i + 1: QQ(w, total) for i, w in enumerate(wins)}
-    small, full = bets
-    tail = _scaled(law, full)
-    bottom = [_scaled(law, small)] * (full * len(losses) - 1)
-    ruin = solve_clipped_ruin(tail, bottom, bankroll, digits=15, check=False)
-    problem = _levels_problem(tail, bottom, bankroll)
-    if ruin.verdict == "possible":
-        rate = float(ruin.adjustment_coefficient.value) * ruin.step
-        goal = bankroll + len(bottom) + 1 + ruin.step * (1 + math.ceil(7 * math.log(10) / rate))
-        if goal > 600:
-            return
-        lower = float(ruin_before_goal_levels(problem, bankroll, goal))
-        assert lower - 1e-12 <= ruin.ruin.value <= lower + 2e-7  # gap below rho^distance <= 1e-7
-    else:
-        assert ruin.ruin_exact == 1
-
-
-def _expected_rounds_by_truncation(problem, bankroll, size=4_000):
-    import scipy.sparse as sp
-    from scipy.sparse.linalg import spsolve
-
-    rows, cols, vals = [], [], []
-    for k in range(1, size + 1):
-        rows.append(k - 1), cols.append(k - 1), vals.append(1.0)
-        for jump, chance in problem.law_at(k):
-            if 1 <= k + jump <= size:
-                rows.append(k - 1), cols.append(k + jump - 1), vals.append(-float(chance))
-    return spsolve(sp.csc_matrix((vals, (rows, cols)), shape=(size, size)), np.ones(size))[bankroll - 1]
-
-
-@settings(max_examples=max(EXAMPLES // 2, 5), deadline=None)
-@given(LAWS, BETS, st.integers(1, 12))
-def test_subfair_expected_rounds_agree_with_a_long_truncated_walk(weights, bets, bankroll):
-    from oddsbench.solve.clipped_ruin import solve_clipped_ruin
-
-    losses, wins = weights
-    total = sum(losses) + sum(wins)
-    law = {-(i + 1): QQ(w, total) for i, w in enumerate(losses)} | {i + 1: QQ(w, total) for i, w in enumerate(wins)}
-    mean = sum(QQ(j) * p for j, p in law.items())
-    if mean >= QQ(-1, 20):
-        return  # favourable, fair, or so close to fair that 4,000 levels are not far enough
-    small, full = bets
-    tail = _scaled(law, full)
-    bottom = [_scaled(law, small)] * (full * len(losses) - 1)
-    ruin = solve_clipped_ruin(tail, bottom, bankroll, digits=15)
-    truth = _expected_rounds_by_truncation(_levels_problem(tail, bottom, bankroll), bankroll)
-    shown = ruin.rounds_to_ruin.decimal
-    assert shown is not None and abs(shown.value - truth) < 1e-6 * max(1.0, truth)
 
 
 def test_a_cancel_check_stops_the_solve():

@@ -28,6 +28,7 @@ from oddsbench.tui.editing import EditSession
 from oddsbench.tui.screens.dialogs import AskName, Choose
 from oddsbench.tui.widgets.cautions import CautionsBar
 from oddsbench.tui.widgets.edits import EditRequested
+from oddsbench.tui.widgets.fields import Field
 from oddsbench.tui.widgets.figures import FiguresTable, SummaryLine
 from oddsbench.tui.widgets.navigator import PARAMS, SESSION, SETUP, STATE, Navigator
 from oddsbench.tui.widgets.problems import ProblemsPanel
@@ -625,12 +626,14 @@ class WorkbenchScreen(Screen):
                 self._sessions_cancelled(self.sessions_key)
             return
         if self.query_one("#views", ContentSwitcher).current == "edit":
-            focused = self.focused
-            if focused is not None and focused.has_class("-textual-compact") and focused.id != "navigator":
+            # Esc in a field goes back to the table of its editor, where it is shown (an end state has
+            # none), else to the list; the focus chain holds exactly the widgets that can take focus now.
+            if isinstance(self.focused, Field):
                 editor = self.query_one("#editors", ContentSwitcher).current
                 target = {"state-editor": "#outcomes", "params-editor": "#params-table"}.get(editor)
-                if target is not None and self.query_one(target).is_displayed:
-                    self.query_one(target).focus()
+                table = self.query_one(target) if target is not None else None
+                if table is not None and table in self.focus_chain:
+                    table.focus()
                     return
             self.query_one(Navigator).focus()
 
