@@ -11,18 +11,15 @@ from oddsbench.simulate.checks import Check
 from oddsbench.simulate.round_sim import RoundSample
 from oddsbench.simulate.session_sim import SessionSample
 from oddsbench.solve.round import RoundFigures
+from oddsbench.solve.ruin import Certified, NoGoalRuin, RoundsToRuin
 from oddsbench.solve.session import FinalValue
-from oddsbench.solve.unbounded_ruin import Certified, RoundsToRuin, UnboundedRuin
 from oddsbench.strategy.best_policy import BestPolicy, Certificate, Improvement, StrategyCheck, Tie
 from oddsbench.strategy.compare import RoundColumn, RoundResults
-from oddsbench.strategy.endless_play import EndlessPlayFigures, EndlessWalk
+from oddsbench.strategy.no_goal_play import NoGoalFigures, NoGoalWalk
 from oddsbench.strategy.session import SessionFigures, SessionSettings
 from oddsbench.sweep.points import Point, PointResult
 from oddsbench.sweep.runners import SweepResult
 from oddsbench.sweep.spec import Axis, SweepSpec
-
-NoGoalFigures = EndlessPlayFigures  # play with no goal: the walk and its ruin figures
-NoGoalRuin = UnboundedRuin
 
 __all__ = [
     "Axis",
@@ -31,12 +28,12 @@ __all__ = [
     "Certificate",
     "Certified",
     "Check",
-    "EndlessWalk",
-    "Figure",
+        "Figure",
     "FinalValue",
     "Improvement",
     "NoGoalFigures",
     "NoGoalRuin",
+    "NoGoalWalk",
     "PlanResult",
     "Point",
     "PointResult",

@@ -3,7 +3,7 @@
 ``sessions(game, settings, work) -> SessionResults``. The round is the game's inline round or the
 ruleset's round under a named strategy; the session settings are ``settings.session`` over the
 ruleset's ``[session]`` table. With a goal each plan's bankroll chain is solved
-(``strategy.session``); with ``goal = "none"`` each plan is played until ruin on the unbounded
+(``strategy.session``); with ``goal = "none"`` each plan is played until ruin on the bankroll
 walk (only plans whose bet stays bounded). Each plan's result says which.
 """
 
@@ -18,7 +18,7 @@ from oddsbench.core.settings import DEFAULTS, SessionRequest, Settings
 from oddsbench.core.work import NO_WORK, Work
 from oddsbench.model.defaults import DEFAULT_PLANS, NO_GOAL_DEFAULT_PLANS
 from oddsbench.model.errors import OddsbenchError
-from oddsbench.strategy.endless_play import EndlessPlayFigures
+from oddsbench.strategy.no_goal_play import NoGoalFigures
 from oddsbench.strategy.plans import PROGRESSIONS, Plan, parse_plan
 from oddsbench.strategy.session import SessionFigures, SessionSettings, merge_settings, settings_from_table
 
@@ -32,7 +32,7 @@ class PlanResult:
 
     plan: str
     bounded: SessionFigures | None = None
-    no_goal: EndlessPlayFigures | None = None
+    no_goal: NoGoalFigures | None = None
 
     @property
     def goal(self) -> str:
@@ -140,9 +140,9 @@ def solve_plans(
 
 def _no_goal(
     distribution: RoundDistribution, session: SessionSettings, plan: Plan, request: SessionRequest, work: Work
-) -> EndlessPlayFigures:
+) -> NoGoalFigures:
     """One plan played until ruin, with the session rules (cut bets, the ruin level, table limits)."""
-    from oddsbench.strategy.endless_play import solve_endless_play, solve_endless_progression
+    from oddsbench.strategy.no_goal_play import solve_no_goal_play, solve_no_goal_progression
 
     outcomes = [(o.net, o.prob) for o in distribution.outcomes]
     common = dict(
@@ -155,12 +155,12 @@ def _no_goal(
         should_stop=work.should_stop,
     )
     if plan.kind in PROGRESSIONS:
-        return solve_endless_progression(outcomes, plan.kind, plan.amount, plan.series, session.bankroll, **common)
+        return solve_no_goal_progression(outcomes, plan.kind, plan.amount, plan.series, session.bankroll, **common)
     if plan.kind == "flat":
         bet = plan.amount
     else:  # timid: always the table minimum
         bet = session.min_bet or session.unit or 1
-    return solve_endless_play(outcomes, bet, session.bankroll, check=request.check, **common)
+    return solve_no_goal_play(outcomes, bet, session.bankroll, check=request.check, **common)
 
 
 def still_playing(results: SessionResults, plan: str, rounds: Sequence[int], work: Work = NO_WORK) -> tuple[float, ...]:

@@ -112,7 +112,7 @@ def no_goal_explanations(figures: NoGoalFigures) -> list[str]:
     if ruin.diffusion is not None:
         lines.append(f"Diffusion figure: {ruin.diffusion_text}: an {APPROXIMATION_LABEL}.")
     else:
-        lines.append(f"Diffusion figure: {ruin.diffusion_text}.")
+        lines.append(f"Diffusion figure: {ruin.why_absent('diffusion')}.")
     comparison = _comparison(ruin)
     if comparison:
         lines.append(comparison)

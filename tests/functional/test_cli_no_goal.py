@@ -79,7 +79,7 @@ def test_no_goal_is_the_limit_of_bounded_sessions_as_the_goal_grows():
     # same rules as bounded sessions (cut bets near the bottom): goal 600 is already within 1e-5
     from oddsbench.chain.round_distribution import parse_round_text
     from oddsbench.model.numbers import QQ
-    from oddsbench.strategy.endless_play import solve_endless_play
+    from oddsbench.strategy.no_goal_play import solve_no_goal_play
     from oddsbench.strategy.session import SessionSettings, analyse_session
 
     for spelled, bet, bankroll in (
@@ -96,8 +96,8 @@ def test_no_goal_is_the_limit_of_bounded_sessions_as_the_goal_grows():
             .decimal
             for goal in (100, 600)
         ]
-        endless = solve_endless_play(
+        no_goal = solve_no_goal_play(
             [(o.net, o.prob) for o in distribution.outcomes], bet, bankroll, cover=distribution.cover, check=False
         ).ruin.ruin.value
-        assert bounded[0] <= bounded[1] <= endless + 1e-12
-        assert endless - bounded[1] < 1e-5
+        assert bounded[0] <= bounded[1] <= no_goal + 1e-12
+        assert no_goal - bounded[1] < 1e-5

@@ -1,4 +1,4 @@
-"""Endless play with a flat bet: the round's results turned into a walk in grid steps.
+"""Play with no goal: a plan's bets turned into a walk in grid steps, then the ruin engines on it.
 
 A session without a goal only stops at ruin (or at a stop-loss floor). With a flat bet (timid
 play is the flat bet of the minimum) every round moves the bankroll by one law once the bankroll
@@ -9,27 +9,25 @@ the limit of theirs as the goal goes to infinity.
 
 Grid: one step is the betting unit divided by the common denominator of the net results, so
 every bet of whole units moves the bankroll by whole steps. Levels count steps above the ruin
-line (level = bankroll - lowest playing bankroll + 1); ``solve.clipped_ruin`` solves the walk.
+line (level = bankroll - lowest playing bankroll + 1); ``solve.ruin`` solves the walk (its
+``cut_bets`` module for flat bets, ``progressions`` for martingale and paroli).
 """
 
 from __future__ import annotations
 
 import math
 from collections.abc import Iterable
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 
 from oddsbench.chain.bankroll import grid_steps
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.numbers import QQ, Rational, denominator, is_integer, numerator, text, to_int
-from oddsbench.solve.clipped_ruin import solve_clipped_ruin
-from oddsbench.solve.unbounded_ruin import DEFAULT_DIGITS, UnboundedRuin
-
-Law = tuple[tuple[int, Rational], ...]
+from oddsbench.solve.ruin import DEFAULT_DIGITS, Law, NoGoalRuin, solve_cut_bet_ruin, solve_progression_ruin
 
 
 @dataclass(frozen=True)
-class EndlessWalk:
-    """The bankroll walk of endless flat betting, in grid steps (exact)."""
+class NoGoalWalk:
+    """The bankroll walk of a flat bet played with no goal, in grid steps (exact)."""
 
     bet: Rational  # the plan's bet, money
     bankroll: Rational  # money
@@ -56,11 +54,11 @@ class EndlessWalk:
 
 
 @dataclass(frozen=True)
-class EndlessPlayFigures:
+class NoGoalFigures:
     """The walk and its ruin figures: what the report and the TUI show."""
 
-    walk: EndlessWalk
-    ruin: UnboundedRuin
+    walk: NoGoalWalk
+    ruin: NoGoalRuin
     round_text: str  # the round as "net:chance" pairs
     plan: str = ""  # the plan's spelling when it is not a flat bet (progressions)
 
@@ -73,7 +71,7 @@ class EndlessPlayFigures:
         steps = QQ(bankroll) / walk.grid
         level = numerator(steps) // denominator(steps) - walk.low + 1
         if walk.bottom:
-            figures = solve_clipped_ruin(
+            figures = solve_cut_bet_ruin(
                 dict(walk.jumps),
                 [dict(law) for _, law in walk.bottom],
                 max(level, 1),
@@ -91,7 +89,7 @@ def _whole_units(name: str, value: Rational, unit: Rational) -> int:
     return to_int(count)
 
 
-def endless_flat_walk(
+def no_goal_walk(
     outcomes: Iterable[tuple[Rational, Rational]],
     bet: Rational,
     bankroll: Rational,
@@ -100,7 +98,7 @@ def endless_flat_walk(
     min_bet: Rational | None = None,
     floor: Rational = 0,
     max_bet: Rational | None = None,
-) -> EndlessWalk:
+) -> NoGoalWalk:
     """The walk of a flat bet: ``outcomes`` are (net per unit bet, chance) pairs, exact."""
     pairs = [(QQ(net), QQ(chance)) for net, chance in outcomes]
     if not pairs:
@@ -160,7 +158,7 @@ def endless_flat_walk(
         cap = (value * denominator(cover)) // (numerator(cover) * scale)  # whole units the bankroll covers
         units = max(min(bet_units, cap), min_units)
         bottom.append((units * unit, law_of(units)))
-    return EndlessWalk(
+    return NoGoalWalk(
         bet=bet,
         bankroll=bankroll,
         unit=unit,
@@ -176,7 +174,7 @@ def endless_flat_walk(
     )
 
 
-def solve_endless_play(
+def solve_no_goal_play(
     outcomes: Iterable[tuple[Rational, Rational]],
     bet: Rational,
     bankroll: Rational,
@@ -188,11 +186,11 @@ def solve_endless_play(
     floor: Rational = 0,
     should_stop=None,
     max_bet: Rational | None = None,
-) -> EndlessPlayFigures:
-    """Ruin figures of endless flat betting: the walk, then the unbounded-walk engine on it."""
+) -> NoGoalFigures:
+    """Ruin figures of a flat bet played with no goal: the walk, then the cut-bet ruin engine on it."""
     pairs = [(QQ(net), QQ(chance)) for net, chance in outcomes]
-    walk = endless_flat_walk(pairs, bet, bankroll, cover, unit=unit, min_bet=min_bet, floor=floor, max_bet=max_bet)
-    ruin = solve_clipped_ruin(
+    walk = no_goal_walk(pairs, bet, bankroll, cover, unit=unit, min_bet=min_bet, floor=floor, max_bet=max_bet)
+    ruin = solve_cut_bet_ruin(
         dict(walk.jumps),
         [dict(law) for _, law in walk.bottom],
         walk.level,
@@ -202,13 +200,13 @@ def solve_endless_play(
         should_stop=should_stop,
     )
     shown = ", ".join(f"{text(net)}:{text(chance)}" for net, chance in sorted(pairs, reverse=True))
-    return EndlessPlayFigures(walk, ruin, shown)
+    return NoGoalFigures(walk, ruin, shown)
 
 
 PROGRESSIONS = ("martingale", "paroli")
 
 
-def solve_endless_progression(
+def solve_no_goal_progression(
     outcomes: Iterable[tuple[Rational, Rational]],
     kind: str,
     base: Rational,
@@ -221,17 +219,14 @@ def solve_endless_progression(
     floor: Rational = 0,
     max_bet: Rational | None = None,
     should_stop=None,
-) -> EndlessPlayFigures:
-    """Endless martingale:B:K or paroli:B:K (the session rules: double after a loss / a win, at
+) -> NoGoalFigures:
+    """martingale:B:K or paroli:B:K with no goal (the session rules: double after a loss / a win, at
     most K bets in a series; pushes keep the bet), solved as a modulated walk."""
-    from oddsbench.solve.modulated_ruin import solve_modulated_ruin
-    from oddsbench.solve.unbounded_ruin import RoundsToRuin, _certified_exact
-
     if kind not in PROGRESSIONS:
         raise OddsbenchError(f"unknown progression {kind!r}")
     pairs = [(QQ(net), QQ(chance)) for net, chance in outcomes]
     top_bet = QQ(base) * 2 ** (series - 1)
-    walk = endless_flat_walk(pairs, top_bet, bankroll, cover, unit=unit, min_bet=min_bet, floor=floor, max_bet=max_bet)
+    walk = no_goal_walk(pairs, top_bet, bankroll, cover, unit=unit, min_bet=min_bet, floor=floor, max_bet=max_bet)
     scale = numerator(walk.unit / walk.grid)
     base_units = _whole_units("the base bet", QQ(base), walk.unit)
     min_units = to_int(walk.min_bet / walk.unit)
@@ -260,82 +255,19 @@ def solve_endless_progression(
             moves.append((to_int(net * scale * units), chance, nxt))
         return tuple(moves)
 
-    top = len(walk.bottom) + 1
-    answer = solve_modulated_ruin(series, moves_at, top, walk.level, 0, digits=min(digits, 15), should_stop=should_stop)
-    grid_mean = answer.drift
-    if answer.verdict == "certain":
-        rounds = RoundsToRuin(
-            "finite" if grid_mean < 0 else "infinite",
-            None,
-            None,
-            None,
-            None,
-            "finite for a losing progression (not computed for progressions)"
-            if grid_mean < 0
-            else "fair progression: ruin is certain but its expected time is infinite",
-        )
-    else:
-        rounds = RoundsToRuin(
-            "not defined", None, None, None, None, "ruin is not certain: the plain expected time to ruin is infinite"
-        )
-    lundberg_text = (
-        "h(start) / min h x exp(-R x (bankroll - levels with cut bets)), R and h verified for the modulated "
-        "walk: an upper bound"
-        if answer.lundberg is not None
-        else "not applicable"
-    )
-    ruin = UnboundedRuin(
-        bankroll=walk.level,
-        jumps=walk.jumps,
-        step=1,
-        steps_bankroll=walk.level,
-        mean=grid_mean,
-        variance=QQ(0),
-        largest_loss=max(1, -walk.jumps[0][0]),
-        verdict=answer.verdict,
-        reason=answer.reason.replace("grid steps", "grid step(s) of " + text(walk.grid)),
-        ruin=answer.ruin,
-        ruin_exact=QQ(1) if answer.verdict == "certain" else None,
-        ruin_closed_form=QQ(1) if answer.verdict == "certain" else None,
-        ruin_exact_text="1" if answer.verdict == "certain" else "interval (truncation)",
-        method=answer.method,
-        error_bound="none: exact"
-        if answer.verdict == "certain"
-        else f"at most {answer.ruin.radius} (truncation gap {answer.gap_bound.text}, proved)",
-        theta=None,
-        adjustment_coefficient=None
-        if answer.adjustment_coefficient is None
-        else _certified_exact(QQ(int(answer.adjustment_coefficient * 2**40), 2**40), 10),
-        lundberg=answer.lundberg,
-        lundberg_text=lundberg_text,
-        lundberg_exact_text="h(j)/min h x exp(-R d)" if answer.lundberg is not None else "-",
-        diffusion=None,
-        diffusion_text="not given for progressions",
-        diffusion_exponent=None,
-        diffusion_ratio=None,
-        adjustment_text="verified R (dyadic)" if answer.lundberg is not None else "-",
-        rounds_to_ruin=rounds,
-        rounds_if_ruined=None,
-        truncation=None,
+    ruin = solve_progression_ruin(
+        series,
+        moves_at,
+        len(walk.bottom) + 1,
+        walk.level,
+        walk.jumps,
+        digits=digits,
+        unit_name="grid step(s) of " + text(walk.grid),
         notes=(
             f"{kind}: base {text(QQ(base))}, at most {series} bets in a series; the plan's place in the series "
             "is part of the state (a modulated walk)",
         ),
-        digits=min(digits, 15),
+        should_stop=should_stop,
     )
     shown = ", ".join(f"{text(net)}:{text(chance)}" for net, chance in sorted(pairs, reverse=True))
-    flat_like = EndlessWalk(
-        bet=QQ(base),
-        bankroll=walk.bankroll,
-        unit=walk.unit,
-        min_bet=walk.min_bet,
-        cover=walk.cover,
-        floor=walk.floor,
-        grid=walk.grid,
-        jumps=walk.jumps,
-        bottom=walk.bottom,
-        bankroll_grid=walk.bankroll_grid,
-        low=walk.low,
-        level=walk.level,
-    )
-    return EndlessPlayFigures(flat_like, ruin, shown, f"{kind}:{text(QQ(base))}:{series}")
+    return NoGoalFigures(replace(walk, bet=QQ(base)), ruin, shown, f"{kind}:{text(QQ(base))}:{series}")
