@@ -28,7 +28,7 @@ __all__ = [
     "Certificate",
     "Certified",
     "Check",
-        "Figure",
+    "Figure",
     "FinalValue",
     "Improvement",
     "NoGoalFigures",
