@@ -1,14 +1,13 @@
-"""Figures of endless play (``--goal none``): rows for tables and the TUI, text, and JSON."""
+"""Figures of play with no goal (``--goal none``): rows for tables and the workbench, text, and JSON."""
 
 from __future__ import annotations
 
 from typing import Any
 
+from oddsbench.core.results import Certified, NoGoalFigures, NoGoalRuin, RoundsToRuin
 from oddsbench.model.numbers import text
-from oddsbench.report.cautions import CAUTIONS, caution_block
+from oddsbench.report.cautions import caution_block
 from oddsbench.report.numbers_text import render_table
-from oddsbench.solve.ruin import Certified, NoGoalRuin, RoundsToRuin
-from oddsbench.strategy.no_goal_play import NoGoalFigures
 
 WRITTEN_OUT_WIDTH = 90
 APPROXIMATION_LABEL = "approximation, not a bound (common practice, no source)"
@@ -58,7 +57,7 @@ def _rounds_cells(rounds: RoundsToRuin) -> tuple[str, str]:
 
 
 def no_goal_rows(figures: NoGoalFigures) -> list[tuple[str, str, str]]:
-    """quantity | exact | decimal rows of endless play."""
+    """quantity | exact | decimal rows of play with no goal."""
     ruin = figures.ruin
     rows: list[tuple[str, str, str]] = [("ruin chance (play never stops)", ruin.ruin_exact_text, ruin.ruin.text)]
     root = ruin.theta
@@ -135,7 +134,7 @@ def no_goal_text(figures: NoGoalFigures, title: str = "round", cautions: bool = 
     """The human output of ``oddsbench session ... --goal none``."""
     walk, ruin = figures.walk, figures.ruin
     heading = (
-        f"{title}: endless play, no goal. Round {figures.round_text}; "
+        f"{title}: play with no goal, until ruin. Round {figures.round_text}; "
         f"{'plan ' + figures.plan if figures.plan else 'flat bet ' + text(walk.bet)}; "
         f"bankroll {text(walk.bankroll)}. Ruin: the bankroll can no longer cover the minimum bet "
         f"(it needs {text(walk.low * walk.grid)})."
@@ -194,15 +193,13 @@ def _rounds_json(rounds: RoundsToRuin | None) -> dict[str, Any] | None:
     }
 
 
-def no_goal_json(figures: NoGoalFigures, title: str = "round") -> dict[str, Any]:
-    """The ``--json`` object of ``--goal none``."""
+def no_goal_json(figures: NoGoalFigures) -> dict[str, Any]:
+    """One plan played with no goal, as an object of ``session --json``'s ``plans`` (``goal``: "none")."""
     walk, ruin = figures.walk, figures.ruin
     root = ruin.theta
     check = ruin.truncation
     return {
-        "title": title,
         "goal": "none",
-        "round": figures.round_text,
         "bet": text(walk.bet),
         "bankroll": text(walk.bankroll),
         "grid_unit": text(walk.grid),
@@ -248,5 +245,4 @@ def no_goal_json(figures: NoGoalFigures, title: str = "round") -> dict[str, Any]
             "consistent": check.consistent,
         },
         "notes": list(ruin.notes),
-        "cautions": list(CAUTIONS),
     }

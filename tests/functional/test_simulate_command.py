@@ -20,8 +20,9 @@ def test_simulate_prints_the_estimate_its_interval_and_7_495(capsys):
 def test_simulate_json_names_the_seed_and_no_value_outside(capsys):
     assert main(["simulate", PASS_LINE, "--trials", "50000", "--seed", "9", "--json"]) == 0
     body = json.loads(capsys.readouterr().out)
-    assert body["seed"] == 9 and body["trials"] == 50_000 and body["outside"] == []
-    edge = next(item for item in body["estimates"] if item["name"] == "house_edge")
+    assert body["command"] == "simulate" and body["sessions"] is None
+    assert body["seed"] == 9 and body["rounds"]["trials"] == 50_000 and body["outside"] == []
+    edge = next(item for item in body["rounds"]["estimates"] if item["name"] == "house_edge")
     assert edge["exact"] == "7/495" and edge["interval"][0] < edge["exact_decimal"] < edge["interval"][1]
     assert body["cautions"] == list(CAUTIONS)
 
@@ -54,7 +55,7 @@ def test_the_best_play_for_a_goal_is_simulated_against_its_exact_figures(capsys,
     pig = str(rulesets_dir / "pig-turn.toml")
     assert main(["simulate", pig, "--trials", "50000", "--seed", "2", "--best", "max-return", "--json"]) == 0
     body = json.loads(capsys.readouterr().out)
-    assert body["outside"] == [] and body["policy"]
-    names = {item["name"] for item in body["estimates"]}
+    assert body["outside"] == [] and body["rounds"]["policy"]
+    names = {item["name"] for item in body["rounds"]["estimates"]}
     # a turn of Pig stakes nothing, so there is no house edge to estimate (as in `solve`)
     assert "house_edge" not in names and "expected_net" in names

@@ -9,9 +9,9 @@ from oddsbench.model.load import load_ruleset
 from oddsbench.model.numbers import QQ
 from oddsbench.simulate.checks import session_checks
 from oddsbench.simulate.round_sim import RoundPlayer
-from oddsbench.simulate.session_sim import session_chain, simulate_session
+from oddsbench.simulate.session_sim import simulate_session
 from oddsbench.solve.round_distribution import round_distribution
-from oddsbench.strategy.session import SessionSettings, analyse_session
+from oddsbench.strategy.session import SessionSettings, analyse_session, session_chain
 
 RULESETS = Path(__file__).resolve().parents[2] / "rulesets"
 
@@ -20,7 +20,7 @@ def checks_for(name, settings, plan, trials=40_000, seed=1, truth_settings=None)
     round_chain = build_round_chain(load_ruleset(RULESETS / name))
     distribution = round_distribution(round_chain)
     figures = analyse_session(distribution, truth_settings or settings, plan)
-    chain = session_chain(distribution, settings, plan, 5_000)
+    chain = session_chain(distribution, settings, plan, 5_000).chain
     sample = simulate_session(chain, trials, seed, RoundPlayer.of(round_chain), settings.max_rounds, plan=plan)
     return sample, session_checks(sample, figures)
 
@@ -85,8 +85,9 @@ def test_simulate_sessions_as_json_lists_each_plan(capsys):
     wheel = str(RULESETS / "single-zero-wheel.toml")
     assert main(["simulate", wheel, "--session", "--plan", "bold", "--trials", "5000", "--seed", "1", "--json"]) == 0
     body = json.loads(capsys.readouterr().out)
-    (plan,) = body["plans"]
-    assert plan["plan"] == "bold" and plan["outside"] == [] and body["session"]["bankroll"] == "100"
+    (plan,) = body["sessions"]["plans"]
+    assert plan["plan"] == "bold" and plan["outside"] == [] and body["sessions"]["settings"]["bankroll"] == "100"
+    assert body["rounds"] is None and body["outside"] == []
 
 
 def test_sessions_need_a_bankroll_and_a_goal(capsys, tmp_path):

@@ -249,7 +249,7 @@ class WorkbenchScreen(Screen):
 
     @work(thread=True, exclusive=True, group="analysis")
     def _analyse(self, text: str, source: str, strategy: str | None, generation: int) -> None:
-        from oddsbench.solve.cancel import SolveCancelled
+        from oddsbench.core.work import Cancelled as SolveCancelled
 
         worker = get_current_worker()
         reading = analysis.read(text, source)
@@ -364,7 +364,7 @@ class WorkbenchScreen(Screen):
 
     @work(thread=True, exclusive=True, group="strategies")
     def _compare(self, ruleset, goal: str, key: tuple) -> None:
-        from oddsbench.solve.cancel import SolveCancelled
+        from oddsbench.core.work import Cancelled as SolveCancelled
 
         worker = get_current_worker()
         try:
@@ -419,7 +419,7 @@ class WorkbenchScreen(Screen):
 
     @work(thread=True, exclusive=True, group="sessions")
     def _sessions(self, ruleset, strategy, plans, key: tuple) -> None:
-        from oddsbench.solve.cancel import SolveCancelled
+        from oddsbench.core.work import Cancelled as SolveCancelled
 
         worker = get_current_worker()
         try:
