@@ -86,7 +86,7 @@ def choice_game(tmp_path):
     return path
 
 
-# ----- walks for the ruin engines (unit and property tests of endless play) -----
+# ----- walks for the ruin engines (unit and property tests of play with no goal) -----
 
 
 def scaled(law, units):
@@ -95,11 +95,11 @@ def scaled(law, units):
 
 
 def levels_problem(tail, bottom, bankroll):
-    """The cut-bet walk as the clipped-ruin engine states it: its own law at each low level, ``tail`` above."""
-    from oddsbench.solve import unbounded_ruin as ur
-    from oddsbench.solve.clipped_ruin import _Problem
+    """The cut-bet walk as the cut-bet ruin engine states it: its own law at each low level, ``tail`` above."""
+    from oddsbench.solve.ruin import CutBetWalk
+    from oddsbench.solve.ruin.law import normalise_law
 
-    return _Problem(ur._normalise(tail), tuple(ur._normalise(law) for law in bottom), bankroll)
+    return CutBetWalk(normalise_law(tail), tuple(normalise_law(law) for law in bottom), bankroll)
 
 
 def expected_rounds_by_truncation(problem, bankroll, size=4_000):

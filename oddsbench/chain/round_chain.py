@@ -5,8 +5,8 @@ from __future__ import annotations
 from collections.abc import Mapping
 from dataclasses import dataclass
 
+from oddsbench.model.defaults import DEFAULT_MAX_STATES
 from oddsbench.model.errors import OddsbenchError
-from oddsbench.model.limits import DEFAULT_MAX_STATES
 from oddsbench.model.numbers import QQ, Rational
 from oddsbench.model.ruleset import Outcome, Ruleset, State
 from oddsbench.model.validate import reachable_from, reaching, trapped_sets

@@ -3,12 +3,11 @@
 from __future__ import annotations
 
 import argparse
-import json
 
 from oddsbench.cli.options import add_exact_limit
+from oddsbench.model.defaults import BEST_GOALS, DEFAULT_BEST_GOAL, ROUND_EXACT_LIMIT
 
-DEFAULT_EXACT_LIMIT = 5_000
-GOAL_NAMES = ("max-return", "max-win", "min-loss", "min-steps")
+GOAL_NAMES = BEST_GOALS
 
 
 def register(commands) -> None:
@@ -25,7 +24,7 @@ def register(commands) -> None:
     )
     parser.add_argument("file", help="ruleset file (TOML)")
     parser.add_argument(
-        "--goal", choices=GOAL_NAMES, default="max-return", help="what to optimise (default max-return)"
+        "--goal", choices=GOAL_NAMES, default=DEFAULT_BEST_GOAL, help=f"what to optimise (default {DEFAULT_BEST_GOAL})"
     )
     parser.add_argument("--check-strategy", metavar="NAME", help="check a named strategy against the goal")
     parser.add_argument("--from", dest="start", metavar="STATE", help="start the round in STATE instead")
@@ -33,21 +32,22 @@ def register(commands) -> None:
         "--every-state", action="store_true", help="one line per decision state instead of runs of equal actions"
     )
     parser.add_argument("--json", action="store_true", help="print one JSON object")
-    add_exact_limit(parser, DEFAULT_EXACT_LIMIT)
+    add_exact_limit(parser, ROUND_EXACT_LIMIT)
     parser.set_defaults(run=run)
 
 
 def run(args: argparse.Namespace) -> int:
-    from oddsbench.cli.options import load_with_warnings
-    from oddsbench.report.strategy_report import best_json, best_text, check_json, check_text
-    from oddsbench.strategy.best_policy import best_policy, check_strategy
-    from oddsbench.strategy.compare import starting_at
+    from oddsbench.cli.options import load_game, settings_of
+    from oddsbench.core import best_play, check_strategy
+    from oddsbench.report.json_output import dumps
+    from oddsbench.report.strategy_report import best_json, best_text, check_text
 
-    ruleset = starting_at(load_with_warnings(args.file), args.start)
+    game = load_game(args.file)
+    settings = settings_of(args, best_goal=args.goal)
     if args.check_strategy is not None:
-        check = check_strategy(ruleset, args.check_strategy, args.goal, args.exact_limit)
-        print(json.dumps(check_json(check), indent=2) if args.json else check_text(check))
+        results = check_strategy(game, args.check_strategy, settings)
+        print(dumps(best_json(results)) if args.json else check_text(results.checks[0]))
         return 0
-    best = best_policy(ruleset, args.goal, args.exact_limit)
-    print(json.dumps(best_json(best), indent=2) if args.json else best_text(best, args.every_state))
+    results = best_play(game, settings)
+    print(dumps(best_json(results)) if args.json else best_text(results.best, args.every_state))
     return 0

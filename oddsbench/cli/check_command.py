@@ -29,9 +29,9 @@ def run(args: argparse.Namespace) -> int:
     if result.ruleset is None:
         return 2
     ruleset = result.ruleset
-    from oddsbench.chain.round_chain import check_state_count
+    from oddsbench.core.game import check_size
 
-    check_state_count(len(ruleset.states), args.max_states, ruleset.source, "the ruleset has")
+    check_size(ruleset, args.max_states)
     ends = sum(1 for state in ruleset.states if state.is_end)
     decisions = sum(1 for state in ruleset.states if state.is_decision)
     summary = f"{ruleset.source}: valid: {len(ruleset.states)} states, {ends} end states"

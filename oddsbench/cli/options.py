@@ -26,7 +26,7 @@ def non_negative_int(text: str) -> int:
 
 
 def add_max_states(parser: argparse.ArgumentParser) -> None:
-    from oddsbench.model.limits import DEFAULT_MAX_STATES
+    from oddsbench.model.defaults import DEFAULT_MAX_STATES
 
     parser.add_argument(
         "--max-states",
@@ -38,7 +38,7 @@ def add_max_states(parser: argparse.ArgumentParser) -> None:
 
 
 def add_exact_bits(parser: argparse.ArgumentParser) -> None:
-    from oddsbench.model.limits import DEFAULT_EXACT_BITS
+    from oddsbench.model.defaults import DEFAULT_EXACT_BITS
 
     parser.add_argument(
         "--exact-bits",
@@ -50,28 +50,103 @@ def add_exact_bits(parser: argparse.ArgumentParser) -> None:
     )
 
 
-def add_exact_limit(parser: argparse.ArgumentParser, default: int) -> None:
+def add_exact_limit(parser: argparse.ArgumentParser, default: int | None) -> None:
+    """``--exact-limit``; ``default`` None leaves the question's own default (shown in the help)."""
+    from oddsbench.model.defaults import SESSION_EXACT_LIMIT
+
+    shown = default if default is not None else SESSION_EXACT_LIMIT
     parser.add_argument(
         "--exact-limit",
         type=non_negative_int,
         default=default,
         metavar="STATES",
-        help=f"largest chain (transient states) solved in exact arithmetic (default {default:,}); "
+        help=f"largest chain (transient states) solved in exact arithmetic (default {shown:,}); "
         "larger chains get decimals only, with a note",
     )
 
 
-def load_with_warnings(path: str, params=None):
-    """Read a ruleset for a command: warnings go to stderr one line each, errors raise
-    RulesetError (exit 2), so no command silently drops what the reader found."""
+def add_session_options(
+    parser: argparse.ArgumentParser, with_goal_help: str | None = None, switch: bool = False
+) -> None:
+    """The session settings of ``session``, ``simulate`` and ``report`` (names as in a [session] table);
+    ``switch`` adds ``--session`` (the file's [session] as it is)."""
+    group = parser.add_argument_group(
+        "sessions", "repeat the round from a bankroll under betting plans (defaults from the file's [session])"
+    )
+    if switch:
+        group.add_argument("--session", action="store_true", help="sessions with the file's [session] settings")
+    group.add_argument("--bankroll", metavar="MONEY", help="starting bankroll")
+    group.add_argument(
+        "--goal", metavar="MONEY", help=with_goal_help or "stop once the bankroll reaches or passes this"
+    )
+    group.add_argument("--floor", metavar="MONEY", help="stop-loss: stop once the bankroll is at or below (default 0)")
+    group.add_argument("--min-bet", metavar="MONEY", help="table minimum (default: the betting unit)")
+    group.add_argument("--max-bet", metavar="MONEY", help="table maximum (default: none)")
+    group.add_argument(
+        "--unit",
+        metavar="MONEY",
+        help="betting unit: bets are whole multiples (default 1, or a fractional min bet, refined to a plan's own "
+        "amounts such as flat:1/2)",
+    )
+    group.add_argument("--max-rounds", type=positive_int, metavar="N", help="time cap: stop after N rounds")
+    group.add_argument(
+        "--plan", action="append", metavar="PLAN", help="betting plan, repeatable (default: timid and bold)"
+    )
+
+
+def wants_session(args: argparse.Namespace) -> bool:
+    """Whether ``simulate`` or ``report`` was asked for sessions (``--session`` or any session option)."""
+    from oddsbench.core.settings import MONEY_FIELDS
+
+    return bool(
+        getattr(args, "session", False)
+        or args.plan
+        or args.max_rounds is not None
+        or any(getattr(args, name) is not None for name in MONEY_FIELDS)
+    )
+
+
+def session_request_of(args: argparse.Namespace):
+    """The session options as the core's ``SessionRequest`` (amounts read exactly; one line when bad)."""
+    from oddsbench.core.settings import MONEY_FIELDS, session_request
+    from oddsbench.model.defaults import NO_GOAL_DIGITS
+
+    return session_request(
+        **{name: getattr(args, name, None) for name in MONEY_FIELDS},
+        max_rounds=args.max_rounds,
+        plans=tuple(args.plan or ()),
+        digits=getattr(args, "digits", NO_GOAL_DIGITS),
+        check=not getattr(args, "no_check", False),
+    )
+
+
+def settings_of(args: argparse.Namespace, sessions: bool = False, **fixed):
+    """The core's one ``Settings`` from a command's options (those it does not have keep their defaults)."""
+    from oddsbench.core.settings import Settings
+
+    values = {}
+    for name in ("exact_limit", "exact_bits", "max_states", "rounds", "trials", "seed", "confidence", "max_steps"):
+        if getattr(args, name, None) is not None:
+            values[name] = getattr(args, name)
+    if getattr(args, "start", None) is not None:
+        values["starts"] = args.start
+    strategy = getattr(args, "strategy", None)
+    if strategy:
+        values["strategies"] = tuple(strategy) if isinstance(strategy, list) else (strategy,)
+    if sessions:
+        values["session"] = session_request_of(args)
+    values.update(fixed)
+    return Settings(**values)
+
+
+def load_game(path: str):
+    """Read a ruleset for a command: warnings go to stderr one line each, errors raise RulesetError
+    (exit 2), so no command silently drops what the reader found."""
     import sys
 
-    from oddsbench.model.errors import RulesetError
-    from oddsbench.model.load import read_ruleset_file
+    from oddsbench.core.game import load_game as read
 
-    loaded = read_ruleset_file(path, params)
-    if loaded.ruleset is None:
-        raise RulesetError(loaded.problems)
-    for warning in loaded.warnings:
+    game = read(path)
+    for warning in game.warnings:
         print(warning, file=sys.stderr)
-    return loaded.ruleset
+    return game

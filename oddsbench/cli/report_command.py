@@ -6,10 +6,9 @@ import argparse
 import sys
 from pathlib import Path
 
-from oddsbench.cli.options import add_exact_limit, positive_int
-from oddsbench.cli.session_options import add_session_options
+from oddsbench.cli.options import add_exact_limit, add_session_options, positive_int
+from oddsbench.model.defaults import ROUND_EXACT_LIMIT
 
-DEFAULT_EXACT_LIMIT = 5_000
 FORMATS = ("md", "csv", "json")
 SUFFIXES = {".md": "md", ".markdown": "md", ".csv": "csv", ".json": "json"}
 
@@ -37,8 +36,8 @@ def register(commands) -> None:
         help="report this named strategy (repeat for several; default: every strategy in the file)",
     )
     parser.add_argument("--rounds", type=positive_int, metavar="N", help="also the chances of having ended by step N")
-    add_exact_limit(parser, DEFAULT_EXACT_LIMIT)
-    add_session_options(parser)
+    add_exact_limit(parser, ROUND_EXACT_LIMIT)
+    add_session_options(parser, switch=True)
     parser.set_defaults(run=run)
 
 
@@ -51,19 +50,16 @@ def chosen_format(requested: str | None, output: str | None) -> str:
 
 
 def run(args: argparse.Namespace) -> int:
-    from oddsbench.cli.options import load_with_warnings
-    from oddsbench.cli.session_options import wants_session
+    from oddsbench.cli.options import load_game, settings_of, wants_session
+    from oddsbench.core import report_figures
     from oddsbench.model.atomic_write import write_atomically
     from oddsbench.report.document import build_report
     from oddsbench.report.render_csv import render_csv
     from oddsbench.report.render_json import render_json
     from oddsbench.report.render_markdown import render_markdown
 
-    ruleset = load_with_warnings(args.file)
-    content = Path(args.file).read_text(encoding="utf-8")
-    document = build_report(ruleset, content, args.strategy, args.rounds, args.exact_limit)
-    if wants_session(args):
-        document = _with_sessions(document, ruleset, args)
+    settings = settings_of(args, sessions=wants_session(args), strategies=tuple(args.strategy))
+    document = build_report(report_figures(load_game(args.file), settings))
     fmt = chosen_format(args.format, args.output)
     rendered = {"md": render_markdown, "csv": render_csv, "json": render_json}[fmt](document)
     if args.output is None:
@@ -72,21 +68,3 @@ def run(args: argparse.Namespace) -> int:
     path = write_atomically(args.output, rendered, force=args.force)
     print(f"wrote {path} ({fmt}, {len(rendered.encode('utf-8')):,} bytes)")
     return 0
-
-
-def _with_sessions(document, ruleset, args: argparse.Namespace):
-    """Add the session comparison: every plan, with each round played as the first reported play."""
-    import dataclasses
-
-    from oddsbench.cli.session_options import session_plans, session_settings
-    from oddsbench.report.method_sources import SESSION_SOURCES
-    from oddsbench.report.session_section import session_section
-
-    first = document.rounds[0]
-    settings = session_settings(args, ruleset)
-    section = session_section(ruleset, first.policy, first.strategy, settings, session_plans(args), args.exact_limit)
-    return dataclasses.replace(
-        document,
-        extra_sections=document.extra_sections + (section,),
-        sources=document.sources + SESSION_SOURCES,
-    )

@@ -8,7 +8,6 @@ import sys
 from oddsbench.cli.options import positive_int
 
 DEFAULT_SHOWN = 200
-QUICK_SECONDS = 2.0
 
 
 def register(commands) -> None:
@@ -44,40 +43,24 @@ def register(commands) -> None:
 
 
 def run(args: argparse.Namespace) -> int:
-    import time
     from pathlib import Path
 
+    from oddsbench.core import read_spec
+    from oddsbench.core.sweeps import point_settings
     from oddsbench.model.atomic_write import write_atomically
     from oddsbench.model.errors import OddsbenchError
     from oddsbench.report.cautions import caution_block
     from oddsbench.report.sweep_report import render_sweep_csv, render_sweep_json, sweep_table
-    from oddsbench.sweep.points import grid_points, solve_point
-    from oddsbench.sweep.spec import read_sweep_spec
 
-    spec = read_sweep_spec(args.spec)
+    spec = read_spec(args.spec)
     for target in (args.csv, args.json):
         if target and Path(target).exists() and not args.force:
             raise OddsbenchError(f"{target}: already exists and was not overwritten (add --force to replace it)")
-    points = grid_points(spec)
-    first = points[0]
-    trial = solve_point(spec.ruleset_text, spec.ruleset_path.name, spec.exact_limit, first)
-    began = time.perf_counter()  # timed on the last point, after the first has warmed everything up
-    solve_point(spec.ruleset_text, spec.ruleset_path.name, spec.exact_limit, points[-1])
-    if args.workers is None and args.cluster is None and (time.perf_counter() - began) * spec.size < QUICK_SECONDS:
-        args.workers = 1  # starting processes would cost more than the whole sweep
-    if trial.error is not None:
-        raise OddsbenchError(f"{spec.source}: point 0 ({_settings(first)}): {trial.error}")
-    known = [name for name, _, _ in trial.figures]
-    unknown = [name for name in spec.figures if name not in known]
-    if unknown:
-        raise OddsbenchError(
-            f"{spec.source}: [sweep], figures: unknown {', '.join(map(repr, unknown))} (known: {', '.join(known)})"
-        )
     result = _run(spec, args)
     if result.errors:
         for solved in result.errors:
             point = result.points[solved.index]
-            print(f"{spec.source}: point {point.index} ({_settings(point)}): {solved.error}", file=sys.stderr)
+            print(f"{spec.source}: point {point.index} ({point_settings(point)}): {solved.error}", file=sys.stderr)
         print(
             f"oddsbench: {len(result.errors)} of {len(result.points)} points failed; no files written", file=sys.stderr
         )
@@ -99,24 +82,16 @@ def run(args: argparse.Namespace) -> int:
     return 0
 
 
-def _settings(point) -> str:
-    return ", ".join(f"{label}={value}" for label, value in point.settings) or "no axes"
-
-
 def _run(spec, args):
-    from oddsbench.sweep.runners import run_sweep
+    from oddsbench.core import Work, sweep
 
     if args.no_progress:
-        return run_sweep(spec, workers=args.workers, cluster=args.cluster)
+        return sweep(spec, workers=args.workers, cluster=args.cluster)
     from rich.console import Console
     from rich.progress import BarColumn, MofNCompleteColumn, Progress, TextColumn, TimeElapsedColumn
 
     columns = (TextColumn("solving"), BarColumn(), MofNCompleteColumn(), TimeElapsedColumn())
     with Progress(*columns, console=Console(stderr=True), transient=True) as progress:
         bar = progress.add_task("sweep", total=spec.size)
-        return run_sweep(
-            spec,
-            workers=args.workers,
-            cluster=args.cluster,
-            progress=lambda done, total: progress.update(bar, completed=done),
-        )
+        work = Work(progress=lambda done, total: progress.update(bar, completed=done))
+        return sweep(spec, workers=args.workers, cluster=args.cluster, work=work)

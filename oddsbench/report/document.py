@@ -1,28 +1,20 @@
-"""A report's content, gathered once and rendered to Markdown, CSV or JSON by the renderers."""
+"""A report's content, taken from the core's results and rendered to Markdown, CSV or JSON.
+
+Nothing here solves: ``build_report(figures)`` arranges what ``core.report_figures`` solved.
+"""
 
 from __future__ import annotations
 
-from collections.abc import Sequence
 from dataclasses import dataclass, field
 from typing import Any
 
 from oddsbench import __version__
-from oddsbench.chain.round_chain import build_round_chain
-from oddsbench.model.errors import OddsbenchError
+from oddsbench.core.results import ReportFigures, RoundColumn
 from oddsbench.model.ruleset import Ruleset
 from oddsbench.report.cautions import CAUTIONS
-from oddsbench.report.method_sources import ROUND_SOURCES, MethodSource
-from oddsbench.solve.round import RoundFigures, solve_round
-from oddsbench.strategy.compare import named_strategy, strategy_policy
+from oddsbench.report.method_sources import ROUND_SOURCES, SESSION_SOURCES, MethodSource
 
-
-@dataclass(frozen=True)
-class RoundSection:
-    """One round's figures under one way of playing (``strategy`` None: no decisions)."""
-
-    strategy: str | None
-    policy: dict[str, str]
-    figures: RoundFigures
+RoundSection = RoundColumn  # one round's figures under one way of playing (``strategy`` None: no decisions)
 
 
 @dataclass(frozen=True)
@@ -40,32 +32,18 @@ class ReportDocument:
         return len(self.rounds) > 1
 
 
-def round_sections(
-    ruleset: Ruleset, strategies: Sequence[str] = (), rounds: int | None = None, exact_limit: int = 5_000
-) -> tuple[RoundSection, ...]:
-    """The round under each requested strategy; all of the file's when none is named."""
-    names: list[str | None] = list(strategies)
-    if not names:
-        if ruleset.has_decisions:
-            names = [s.name for s in ruleset.strategies]
-            if not names:
-                raise OddsbenchError(f"{ruleset.source}: has decision states but no strategies to report on")
-        else:
-            names = [None]
-    sections = []
-    for name in names:
-        policy = strategy_policy(ruleset, named_strategy(ruleset, name)) if name is not None else {}
-        figures = solve_round(build_round_chain(ruleset, policy), rounds=rounds, exact_limit=exact_limit)
-        sections.append(RoundSection(name, policy, figures))
-    return tuple(sections)
+def build_report(figures: ReportFigures) -> ReportDocument:
+    """Everything a report shows: the rounds, and the sessions compared when they were asked for."""
+    from oddsbench.report.session_section import SessionSection
 
-
-def build_report(
-    ruleset: Ruleset,
-    content: str,
-    strategies: Sequence[str] = (),
-    rounds: int | None = None,
-    exact_limit: int = 5_000,
-) -> ReportDocument:
-    """Everything a round report shows, solved now."""
-    return ReportDocument(ruleset, content, round_sections(ruleset, strategies, rounds, exact_limit))
+    game = figures.game
+    document = ReportDocument(game.ruleset, game.text or "", figures.rounds.columns)
+    if figures.sessions is None:
+        return document
+    return ReportDocument(
+        document.ruleset,
+        document.content,
+        document.rounds,
+        sources=document.sources + SESSION_SOURCES,
+        extra_sections=(SessionSection(figures.sessions),),
+    )

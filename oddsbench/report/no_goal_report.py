@@ -1,14 +1,13 @@
-"""Figures of endless play (``--goal none``): rows for tables and the TUI, text, and JSON."""
+"""Figures of play with no goal (``--goal none``): rows for tables and the workbench, text, and JSON."""
 
 from __future__ import annotations
 
 from typing import Any
 
+from oddsbench.core.results import Certified, NoGoalFigures, NoGoalRuin, RoundsToRuin
 from oddsbench.model.numbers import text
-from oddsbench.report.cautions import CAUTIONS, caution_block
+from oddsbench.report.cautions import caution_block
 from oddsbench.report.numbers_text import render_table
-from oddsbench.solve.unbounded_ruin import Certified, RoundsToRuin, UnboundedRuin
-from oddsbench.strategy.endless_play import EndlessPlayFigures
 
 WRITTEN_OUT_WIDTH = 90
 APPROXIMATION_LABEL = "approximation, not a bound (common practice, no source)"
@@ -57,8 +56,8 @@ def _rounds_cells(rounds: RoundsToRuin) -> tuple[str, str]:
     return "not defined", "ruin is not certain"
 
 
-def no_goal_rows(figures: EndlessPlayFigures) -> list[tuple[str, str, str]]:
-    """quantity | exact | decimal rows of endless play."""
+def no_goal_rows(figures: NoGoalFigures) -> list[tuple[str, str, str]]:
+    """quantity | exact | decimal rows of play with no goal."""
     ruin = figures.ruin
     rows: list[tuple[str, str, str]] = [("ruin chance (play never stops)", ruin.ruin_exact_text, ruin.ruin.text)]
     root = ruin.theta
@@ -94,13 +93,13 @@ def no_goal_rows(figures: EndlessPlayFigures) -> list[tuple[str, str, str]]:
     return rows
 
 
-def _goal_text(figures: EndlessPlayFigures) -> str:
+def _goal_text(figures: NoGoalFigures) -> str:
     walk, ruin = figures.walk, figures.ruin
     goal_level = ruin.truncation.goal_level if ruin.truncation else 0
     return _cell((goal_level + walk.low - 1) * walk.grid)
 
 
-def no_goal_explanations(figures: EndlessPlayFigures) -> list[str]:
+def no_goal_explanations(figures: NoGoalFigures) -> list[str]:
     """The sentences under the table: method, error bound, bound, approximation, check."""
     ruin = figures.ruin
     lines: list[str] = []
@@ -113,7 +112,7 @@ def no_goal_explanations(figures: EndlessPlayFigures) -> list[str]:
     if ruin.diffusion is not None:
         lines.append(f"Diffusion figure: {ruin.diffusion_text}: an {APPROXIMATION_LABEL}.")
     else:
-        lines.append(f"Diffusion figure: {ruin.diffusion_text}.")
+        lines.append(f"Diffusion figure: {ruin.why_absent('diffusion')}.")
     comparison = _comparison(ruin)
     if comparison:
         lines.append(comparison)
@@ -131,11 +130,11 @@ def no_goal_explanations(figures: EndlessPlayFigures) -> list[str]:
     return lines
 
 
-def no_goal_text(figures: EndlessPlayFigures, title: str = "round", cautions: bool = True) -> str:
+def no_goal_text(figures: NoGoalFigures, title: str = "round", cautions: bool = True) -> str:
     """The human output of ``oddsbench session ... --goal none``."""
     walk, ruin = figures.walk, figures.ruin
     heading = (
-        f"{title}: endless play, no goal. Round {figures.round_text}; "
+        f"{title}: play with no goal, until ruin. Round {figures.round_text}; "
         f"{'plan ' + figures.plan if figures.plan else 'flat bet ' + text(walk.bet)}; "
         f"bankroll {text(walk.bankroll)}. Ruin: the bankroll can no longer cover the minimum bet "
         f"(it needs {text(walk.low * walk.grid)})."
@@ -165,7 +164,7 @@ def no_goal_text(figures: EndlessPlayFigures, title: str = "round", cautions: bo
     return "\n".join(parts)
 
 
-def _comparison(ruin: UnboundedRuin) -> str:
+def _comparison(ruin: NoGoalRuin) -> str:
     """How far the players' rule of thumb is from the exact figure, in words."""
     ratio = ruin.diffusion_ratio
     if ratio is None:
@@ -194,15 +193,13 @@ def _rounds_json(rounds: RoundsToRuin | None) -> dict[str, Any] | None:
     }
 
 
-def no_goal_json(figures: EndlessPlayFigures, title: str = "round") -> dict[str, Any]:
-    """The ``--json`` object of ``--goal none``."""
+def no_goal_json(figures: NoGoalFigures) -> dict[str, Any]:
+    """One plan played with no goal, as an object of ``session --json``'s ``plans`` (``goal``: "none")."""
     walk, ruin = figures.walk, figures.ruin
     root = ruin.theta
     check = ruin.truncation
     return {
-        "title": title,
         "goal": "none",
-        "round": figures.round_text,
         "bet": text(walk.bet),
         "bankroll": text(walk.bankroll),
         "grid_unit": text(walk.grid),
@@ -248,5 +245,4 @@ def no_goal_json(figures: EndlessPlayFigures, title: str = "round") -> dict[str,
             "consistent": check.consistent,
         },
         "notes": list(ruin.notes),
-        "cautions": list(CAUTIONS),
     }

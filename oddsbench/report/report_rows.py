@@ -2,11 +2,11 @@
 
 from __future__ import annotations
 
+from oddsbench.model.figure import Figure
 from oddsbench.model.numbers import text, to_float
 from oddsbench.report.document import ReportDocument, RoundSection
 from oddsbench.report.numbers_text import decimal_text, exact_text
 from oddsbench.report.round_report import PERCENT_FIGURES, figure_label
-from oddsbench.solve.round import Figure
 
 
 def strategy_label(section: RoundSection) -> str:

@@ -4,10 +4,11 @@ from __future__ import annotations
 
 from typing import Any
 
+from oddsbench.core.results import Figure, RoundFigures, RoundResults
 from oddsbench.model.numbers import text
-from oddsbench.report.cautions import CAUTIONS, caution_block
+from oddsbench.report.cautions import caution_block
+from oddsbench.report.json_output import envelope
 from oddsbench.report.numbers_text import decimal_text, exact_text, render_table
-from oddsbench.solve.round import Figure, RoundFigures
 
 LABELS = {
     "expected_net": "expected net",
@@ -63,23 +64,40 @@ def figure_json(figure: Figure) -> dict[str, Any]:
     return {"exact": None if figure.exact is None else text(figure.exact), "decimal": figure.decimal}
 
 
-def round_json(figures: RoundFigures, ruleset_title: str | None = None) -> dict[str, Any]:
-    """The documented ``--json`` object of ``oddsbench solve``."""
+def round_result_json(figures: RoundFigures, strategy: str | None = None) -> dict[str, Any]:
+    """One round's object: where it starts, the strategy played, every figure (exact text, decimal), notes."""
     body: dict[str, Any] = {name: figure_json(figure) for name, figure in figures.figures.items()}
     body["end_probability"] = {name: figure_json(f) for name, f in figures.end_probability.items()}
     body["result_probability"] = {name: figure_json(f) for name, f in figures.result_probability.items()}
     if figures.rounds is not None:
         body["end_probability_by_step"] = {name: figure_json(f) for name, f in figures.end_probability_by_step.items()}
-    out: dict[str, Any] = {
-        "ruleset": ruleset_title or figures.title,
+    return {
         "start": figures.start,
+        "strategy": strategy,
         "states": figures.states,
+        "rounds": figures.rounds,
         "figures": body,
+        "policy": dict(figures.actions),
         "notes": list(figures.notes),
-        "cautions": list(CAUTIONS),
     }
-    if figures.rounds is not None:
-        out["rounds"] = figures.rounds
-    if figures.actions:
-        out["policy"] = dict(figures.actions)
-    return out
+
+
+def solve_json(results: RoundResults) -> dict[str, Any]:
+    """The ``--json`` object of ``oddsbench solve``: one shape for one round, strategies or start states."""
+    return envelope(
+        "solve",
+        {
+            "ruleset": results.title,
+            "compared": results.compared,
+            "results": [round_result_json(column.figures, column.strategy) for column in results.columns],
+        },
+    )
+
+
+def solve_text(results: RoundResults, cells: str = "both") -> str:
+    """The human output of ``oddsbench solve``: one table, or one column per strategy or start state."""
+    if results.compared is None:
+        return round_text(results.columns[0].figures, results.columns[0].strategy)
+    from oddsbench.report.strategy_report import comparison_text
+
+    return comparison_text(results, cells)

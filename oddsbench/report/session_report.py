@@ -4,13 +4,12 @@ from __future__ import annotations
 
 from typing import Any
 
-from oddsbench.chain.round_distribution import RoundDistribution
+from oddsbench.core.results import Figure, RoundDistribution, SessionFigures, SessionResults, SessionSettings
 from oddsbench.model.numbers import Rational, text, to_float
-from oddsbench.report.cautions import CAUTIONS, caution_block
+from oddsbench.report.cautions import caution_block
+from oddsbench.report.json_output import envelope
 from oddsbench.report.numbers_text import decimal_text, render_table
 from oddsbench.report.round_report import figure_json
-from oddsbench.solve.round import Figure
-from oddsbench.strategy.session import SessionFigures, SessionSettings
 
 EXACT_WIDTH = 24
 SHOWN_FINAL_VALUES = 8
@@ -94,7 +93,7 @@ def _round_line(distribution: RoundDistribution) -> str:
 
 
 def _settings_line(settings: SessionSettings) -> str:
-    parts = [f"bankroll {text(settings.bankroll)}", f"goal {text(settings.goal)}"]
+    parts = [f"bankroll {text(settings.bankroll)}", f"goal {'none' if settings.goal is None else text(settings.goal)}"]
     if settings.floor:
         parts.append(f"floor {text(settings.floor)}")
     if settings.min_bet is not None:
@@ -129,14 +128,26 @@ def series_sample(result: SessionFigures, points: int = SERIES_POINTS) -> list[t
     return [(result.step * k, result.goal_series[k]) for k in picks]
 
 
-def session_text(
+def session_text(results: SessionResults, notes: list[str] | None = None) -> str:
+    """The human output of ``oddsbench session``: plans side by side, or each plan played with no goal."""
+    if results.no_goal:
+        from oddsbench.report.no_goal_report import no_goal_text
+
+        bodies = [
+            no_goal_text(plan.no_goal, f"{results.title}, plan {plan.plan}", cautions=False) for plan in results.plans
+        ]
+        return "\n\n".join(bodies) + "\n\n" + caution_block()
+    return bounded_text(results.title, results.distribution, results.settings, results.bounded, notes)
+
+
+def bounded_text(
     title: str,
     distribution: RoundDistribution,
     settings: SessionSettings,
     results: list[SessionFigures],
     notes: list[str] | None = None,
 ) -> str:
-    """The human output of ``oddsbench session``."""
+    """Plans with a goal, one column each: the table, final bankrolls, the goal chance by bankroll, notes."""
     heading = f"{title}: bankroll session, {_settings_line(settings)}"
     headers = ["quantity"] + [r.plan for r in results]
     parts = [heading, _round_line(distribution), "", render_table(headers, session_rows(results))]
@@ -174,54 +185,76 @@ def _final_json(values) -> list[dict[str, Any]]:
     ]
 
 
-def session_json(
-    title: str,
-    distribution: RoundDistribution,
-    settings: SessionSettings,
-    results: list[SessionFigures],
-    notes: list[str] | None = None,
-    series: bool = False,
-) -> dict[str, Any]:
-    """The documented ``--json`` object of ``oddsbench session``."""
-    plans: dict[str, Any] = {}
-    for result in results:
-        body: dict[str, Any] = {name: figure_json(f) for name, f in result.figures.items()}
-        body["states"] = result.states
-        body["final_bankroll"] = _final_json(result.final)
-        if result.rounds is not None:
-            body["rounds"] = result.rounds
-            body["bankroll_after_rounds"] = _final_json(result.after_rounds)
-        if series:
-            exact = result.goal_series_exact
-            body["goal_probability_by_bankroll"] = [
-                {
-                    "bankroll": text(result.step * k),
-                    "exact": None if exact is None else text(exact[k]),
-                    "decimal": value,
-                }
-                for k, value in enumerate(result.goal_series)
-            ]
-        body["notes"] = list(result.notes)
-        plans[result.plan] = body
-    return {
-        "ruleset": title,
-        "round": [
-            {"net": text(o.net), "probability": text(o.prob), "extra_stake": text(o.extra)}
-            for o in distribution.outcomes
-        ],
-        "settings": {
-            "bankroll": text(settings.bankroll),
-            "goal": text(settings.goal),
-            "floor": text(settings.floor),
-            "min_bet": None if settings.min_bet is None else text(settings.min_bet),
-            "max_bet": None if settings.max_bet is None else text(settings.max_bet),
-            "unit": None if settings.unit is None else text(settings.unit),
-            "max_rounds": settings.max_rounds,
-        },
-        "plans": plans,
-        "notes": list(notes or []),
-        "cautions": list(CAUTIONS),
+def plan_json(result: SessionFigures, series: bool = False) -> dict[str, Any]:
+    """One bounded plan's object: every figure, the final bankroll's distribution, optionally the series."""
+    body: dict[str, Any] = {
+        "plan": result.plan,
+        "goal": "bounded",
+        "states": result.states,
+        "figures": {name: figure_json(f) for name, f in result.figures.items()},
+        "final_bankroll": _final_json(result.final),
+        "rounds": result.rounds,
+        "bankroll_after_rounds": _final_json(result.after_rounds) if result.rounds is not None else None,
+        "goal_probability_by_bankroll": None,
+        "notes": list(result.notes),
     }
+    if series:
+        exact = result.goal_series_exact
+        body["goal_probability_by_bankroll"] = [
+            {
+                "bankroll": text(result.step * k),
+                "exact": None if exact is None else text(exact[k]),
+                "decimal": value,
+            }
+            for k, value in enumerate(result.goal_series)
+        ]
+    return body
+
+
+def settings_json(settings: SessionSettings) -> dict[str, Any]:
+    return {
+        "bankroll": text(settings.bankroll),
+        "goal": "none" if settings.goal is None else text(settings.goal),
+        "floor": text(settings.floor),
+        "min_bet": None if settings.min_bet is None else text(settings.min_bet),
+        "max_bet": None if settings.max_bet is None else text(settings.max_bet),
+        "unit": None if settings.unit is None else text(settings.unit),
+        "max_rounds": settings.max_rounds,
+    }
+
+
+def round_outcomes_json(distribution: RoundDistribution) -> list[dict[str, str]]:
+    return [
+        {"net": text(o.net), "probability": text(o.prob), "extra_stake": text(o.extra)} for o in distribution.outcomes
+    ]
+
+
+def plans_json(results: SessionResults, series: bool = False) -> list[dict[str, Any]]:
+    """Every plan's object, in order: ``goal`` says whether it was solved with a goal ("bounded") or none."""
+    from oddsbench.report.no_goal_report import no_goal_json
+
+    plans = []
+    for plan in results.plans:
+        if plan.bounded is not None:
+            plans.append(plan_json(plan.bounded, series))
+        else:
+            plans.append({"plan": plan.plan, **no_goal_json(plan.no_goal)})
+    return plans
+
+
+def session_json(results: SessionResults, series: bool = False) -> dict[str, Any]:
+    """The ``--json`` object of ``oddsbench session``: the same top-level keys for one plan or several,
+    a goal or none; ``plans`` is a list in the order asked."""
+    return envelope(
+        "session",
+        {
+            "ruleset": results.title,
+            "round": round_outcomes_json(results.distribution),
+            "strategy": results.strategy,
+            "settings": settings_json(results.settings),
+            "plans": plans_json(results, series),
+        },
+    )
 
 
 def series_csv(results: list[SessionFigures]) -> str:

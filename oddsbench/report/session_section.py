@@ -1,10 +1,15 @@
-"""The session comparison of a report: each betting plan's figures side by side, exact and decimal."""
+"""The session comparison of a report: each betting plan's figures side by side, exact and decimal.
+
+With a goal, one table with a column pair per plan; with no goal, one table per plan (its ruin
+figures). The JSON is the ``session --json`` object without its envelope.
+"""
 
 from __future__ import annotations
 
 from dataclasses import dataclass
 from typing import Any
 
+from oddsbench.core.results import SessionResults
 from oddsbench.model.numbers import text
 from oddsbench.report.numbers_text import decimal_text, exact_text
 
@@ -21,20 +26,28 @@ def _setting_text(value: Any) -> str:
 
 @dataclass(frozen=True)
 class SessionSection:
-    """Plans solved with one set of session settings (``results``: one ``SessionFigures`` per plan)."""
+    """Every plan solved with one set of session settings, as the core returned them."""
 
-    settings: tuple[tuple[str, Any], ...]
-    results: tuple[Any, ...]
-    strategy: str | None = None
+    results: SessionResults
     json_key: str = "sessions"
 
     @property
+    def settings(self) -> tuple[tuple[str, Any], ...]:
+        shown = []
+        for name, value in vars(self.results.settings).items():
+            if name == "goal" and value is None:
+                shown.append((name, "none"))
+            elif value is not None:
+                shown.append((name, value))
+        return tuple(shown)
+
+    @property
     def plans(self) -> list[str]:
-        return [result.plan for result in self.results]
+        return [plan.plan for plan in self.results.plans]
 
     def names(self) -> list[str]:
         order: list[str] = []
-        for result in self.results:
+        for result in self.results.bounded:
             order += [name for name in result.figures if name not in order]
         return order
 
@@ -42,15 +55,18 @@ class SessionSection:
         from oddsbench.report.render_markdown import _table
 
         settings = ", ".join(f"{name} {_setting_text(value)}" for name, value in self.settings)
-        play = f" Each round is played with strategy `{self.strategy}`." if self.strategy else ""
+        strategy = self.results.strategy
+        play = f" Each round is played with strategy `{strategy}`." if strategy else ""
         lines = ["## Sessions compared", "", f"Settings: {settings}.{play}", ""]
+        if self.results.no_goal:
+            return lines + self._no_goal_markdown(_table)
         headers = ["quantity"]
         for plan in self.plans:
             headers += [f"{plan} exact", f"{plan} decimal"]
         rows = []
         for name in self.names():
             row = [_label(name)]
-            for result in self.results:
+            for result in self.results.bounded:
                 figure = result.figures.get(name)
                 if figure is None:
                     row += ["-", "-"]
@@ -58,53 +74,43 @@ class SessionSection:
                     row += [exact_text(figure.exact, MD_EXACT_WIDTH), decimal_text(figure.decimal, figure.exact)]
             rows.append(row)
         lines += _table(headers, rows)
-        notes = [f"- Note ({r.plan}): {note}" for r in self.results for note in r.notes]
+        notes = [f"- Note ({r.plan}): {note}" for r in self.results.plans for note in r.notes]
         return lines + ([""] + notes if notes else [])
+
+    def _no_goal_markdown(self, table) -> list[str]:
+        from oddsbench.report.no_goal_report import no_goal_rows
+
+        lines: list[str] = []
+        for plan in self.results.plans:
+            lines += [f"### Plan `{plan.plan}`: no goal, play until ruin", ""]
+            lines += table(["quantity", "exact", "decimal"], [list(row) for row in no_goal_rows(plan.no_goal)])
+            lines += [""] + [f"- Note: {note}" for note in plan.notes] + [""]
+        return lines
 
     def csv_rows(self) -> list[tuple[str, str, str, str, str, str]]:
         rows = [("session", "settings", name, _setting_text(value), "", "") for name, value in self.settings]
-        for result in self.results:
-            for name, figure in result.figures.items():
-                exact = "" if figure.exact is None else text(figure.exact)
-                rows.append(("session", result.plan, name, exact, repr(figure.decimal), ""))
-            rows += [("note", result.plan, "", "", "", note) for note in result.notes]
+        for plan in self.results.plans:
+            if plan.bounded is not None:
+                for name, figure in plan.bounded.figures.items():
+                    exact = "" if figure.exact is None else text(figure.exact)
+                    rows.append(("session", plan.plan, name, exact, repr(figure.decimal), ""))
+            else:
+                from oddsbench.report.no_goal_report import no_goal_rows
+
+                rows += [
+                    ("session", plan.plan, label, exact, decimal, "")
+                    for label, exact, decimal in no_goal_rows(plan.no_goal)
+                ]
+            rows += [("note", plan.plan, "", "", "", note) for note in plan.notes]
         return rows
 
     def json_value(self) -> dict[str, Any]:
+        from oddsbench.report.session_report import plans_json, round_outcomes_json, settings_json
+
+        results = self.results
         return {
-            "settings": {name: _setting_text(value) for name, value in self.settings},
-            "strategy": self.strategy,
-            "plans": [
-                {
-                    "plan": result.plan,
-                    "states": result.states,
-                    "figures": {
-                        name: {"exact": None if f.exact is None else text(f.exact), "decimal": f.decimal}
-                        for name, f in result.figures.items()
-                    },
-                    "final_bankroll": [
-                        {
-                            "money": text(v.money),
-                            "kind": v.kind,
-                            "exact": None if v.chance.exact is None else text(v.chance.exact),
-                            "decimal": v.chance.decimal,
-                        }
-                        for v in result.final
-                    ],
-                    "notes": list(result.notes),
-                }
-                for result in self.results
-            ],
+            "settings": settings_json(results.settings),
+            "strategy": results.strategy,
+            "round": round_outcomes_json(results.distribution),
+            "plans": plans_json(results),
         }
-
-
-def session_section(ruleset, policy: dict[str, str], strategy: str | None, settings, plans, exact_limit: int):
-    """Solve every plan with the session solver and wrap them for the report."""
-    from oddsbench.chain.round_chain import build_round_chain
-    from oddsbench.solve.round_distribution import round_distribution
-    from oddsbench.strategy.session import analyse_session
-
-    distribution = round_distribution(build_round_chain(ruleset, policy))
-    results = tuple(analyse_session(distribution, settings, plan, exact_limit) for plan in plans)
-    shown = tuple((name, value) for name, value in vars(settings).items() if value is not None)
-    return SessionSection(shown, results, strategy)

@@ -5,12 +5,12 @@ from __future__ import annotations
 import re
 from typing import Any
 
+from oddsbench.core.results import Check, RoundSample, SessionSettings, Simulation
 from oddsbench.model.numbers import text
-from oddsbench.report.cautions import CAUTIONS, caution_block
+from oddsbench.report.cautions import caution_block
+from oddsbench.report.json_output import envelope
 from oddsbench.report.numbers_text import decimal_text, exact_text, render_table
 from oddsbench.report.round_report import figure_label
-from oddsbench.simulate.checks import Check
-from oddsbench.simulate.round_sim import RoundSample
 
 INSIDE = "inside"
 OUTSIDE = "OUTSIDE <<"
@@ -124,24 +124,79 @@ def check_json(check: Check) -> dict[str, Any]:
     }
 
 
-def simulation_json(
-    sample: RoundSample, checks: list[Check], confidence: float, solver_notes: tuple[str, ...] = ()
-) -> dict[str, Any]:
+def simulate_text(simulation: Simulation) -> str:
+    """The human output of ``oddsbench simulate``: rounds, or one table per plan for sessions."""
+    if not simulation.of_sessions:
+        notes = simulation.figures.notes if simulation.figures is not None else ()
+        return simulation_text(simulation.sample, simulation.checks, simulation.confidence, simulation.play, notes)
+    shown = settings_shown(simulation.session)
+    line = f"{simulation.title}: sessions " + ", ".join(f"{k} {v}" for k, v in shown.items())
+    if simulation.play:
+        line += f"; each round playing {simulation.play!r}"
+    runs = [(run.sample, run.checks, run.figures) for run in simulation.runs]
+    return session_simulation_text(runs, simulation.confidence, line)
+
+
+def settings_shown(settings: SessionSettings) -> dict[str, Any]:
+    """The session settings that are set, as text (whole numbers as numbers)."""
     return {
-        "ruleset": sample.title,
-        "start": sample.start,
-        "trials": sample.trials,
-        "seed": sample.seed,
-        "confidence": confidence,
-        "seconds": sample.seconds,
-        "rounds_per_second": sample.rounds_per_second,
-        "unfinished": sample.unfinished,
-        "policy": dict(sample.actions),
-        "estimates": [check_json(check) for check in checks],
-        "outside": [check.name for check in checks if check.outside],
-        "notes": simulation_notes(sample) + list(solver_notes),
-        "cautions": list(CAUTIONS),
+        name: (text(value) if not isinstance(value, int) else value)
+        for name, value in vars(settings).items()
+        if value is not None
     }
+
+
+def simulate_json(simulation: Simulation) -> dict[str, Any]:
+    """The ``--json`` object of ``oddsbench simulate``: ``rounds`` (null for sessions) and ``sessions``
+    (null for rounds), with every estimate, its interval and the exact figure beside it."""
+    rounds = None
+    outside = [check.name for check in simulation.checks if check.outside]
+    if not simulation.of_sessions:
+        sample = simulation.sample
+        rounds = {
+            "start": sample.start,
+            "trials": sample.trials,
+            "seconds": sample.seconds,
+            "rounds_per_second": sample.rounds_per_second,
+            "unfinished": sample.unfinished,
+            "policy": dict(sample.actions),
+            "estimates": [check_json(check) for check in simulation.checks],
+            "notes": simulation_notes(sample) + list(simulation.figures.notes),
+        }
+    sessions = None
+    if simulation.of_sessions:
+        plans = []
+        for run in simulation.runs:
+            sample = run.sample
+            outside += [f"{sample.plan}: {check.name}" for check in run.checks if check.outside]
+            plans.append(
+                {
+                    "plan": sample.plan,
+                    "trials": sample.trials,
+                    "seconds": sample.seconds,
+                    "rounds_played": sample.rounds_played,
+                    "played_on_chain": sample.played_on_chain,
+                    "ends": dict(sample.ends),
+                    "estimates": [check_json(check) for check in run.checks],
+                    "outside": [check.name for check in run.checks if check.outside],
+                    "notes": session_notes(sample) + list(run.figures.notes),
+                }
+            )
+        from oddsbench.report.session_report import settings_json
+
+        sessions = {"settings": settings_json(simulation.session), "plans": plans}
+    return envelope(
+        "simulate",
+        {
+            "ruleset": simulation.title,
+            "seed": simulation.seed,
+            "confidence": simulation.confidence,
+            "play": simulation.play,
+            "rounds": rounds,
+            "sessions": sessions,
+            "outside": outside,
+        },
+    )
 
 
 def session_heading(sample) -> str:
@@ -176,23 +231,3 @@ def session_simulation_text(runs, confidence: float, settings_line: str, solver_
         parts += ["", "Notes:"] + [f"  - {note}" for note in notes]
     parts += ["", caution_block()]
     return "\n".join(parts)
-
-
-def session_simulation_json(runs, confidence: float, settings: dict[str, Any]) -> dict[str, Any]:
-    plans = []
-    for sample, checks, figures in runs:
-        plans.append(
-            {
-                "plan": sample.plan,
-                "trials": sample.trials,
-                "seed": sample.seed,
-                "seconds": sample.seconds,
-                "rounds_played": sample.rounds_played,
-                "played_on_chain": sample.played_on_chain,
-                "ends": dict(sample.ends),
-                "estimates": [check_json(check) for check in checks],
-                "outside": [check.name for check in checks if check.outside],
-                "notes": session_notes(sample) + list(figures.notes),
-            }
-        )
-    return {"session": settings, "confidence": confidence, "plans": plans, "cautions": list(CAUTIONS)}

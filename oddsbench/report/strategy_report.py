@@ -5,19 +5,18 @@ from __future__ import annotations
 import textwrap
 from typing import Any
 
-from oddsbench.report.cautions import CAUTIONS, caution_block
+from oddsbench.core.results import BestPolicy, BestResults, Figure, RoundResults, StrategyCheck
+from oddsbench.report.cautions import caution_block
+from oddsbench.report.json_output import envelope
 from oddsbench.report.numbers_text import render_table
 from oddsbench.report.round_report import (
     PERCENT_FIGURES,
     figure_cells,
     figure_json,
     figure_label,
-    round_json,
+    round_result_json,
     round_rows,
 )
-from oddsbench.solve.round import Figure
-from oddsbench.strategy.best_policy import BestPolicy, StrategyCheck
-from oddsbench.strategy.compare import StartComparison, StrategyComparison
 
 CELL_KINDS = ("both", "exact", "decimal")
 
@@ -50,10 +49,7 @@ def _compact(exact: str) -> str:
     return f"{top[:6]}.../{bottom[:5]}... ({digits}/{len(bottom)} digits)"
 
 
-Comparison = StrategyComparison | StartComparison
-
-
-def comparison_rows(comparison: Comparison, kind: str = "both") -> tuple[list[str], list[list[str]]]:
+def comparison_rows(comparison: RoundResults, kind: str = "both") -> tuple[list[str], list[list[str]]]:
     """quantity, then one ``exact | decimal`` column per strategy (or per start state)."""
     first = comparison.figures[0] if comparison.figures else None
     names: list[str] = []
@@ -77,7 +73,7 @@ def comparison_rows(comparison: Comparison, kind: str = "both") -> tuple[list[st
                 figure = Figure(_zero(), 0.0) if figures.exact else zero
             cells.append(cell(figure, percent=True, kind=kind))
         rows.append([label] + cells)
-    return ["quantity", *comparison.columns], rows
+    return ["quantity", *comparison.names], rows
 
 
 def _zero():
@@ -86,11 +82,11 @@ def _zero():
     return QQ(0)
 
 
-def comparison_text(comparison: Comparison, kind: str = "both") -> str:
+def comparison_text(comparison: RoundResults, kind: str = "both") -> str:
     """Side-by-side output of ``oddsbench solve``: per named strategy, or per start state (``--from``)."""
     count = len(comparison.columns)
     shown = {"both": "exact | decimal", "exact": "exact", "decimal": "decimal"}[kind]
-    if isinstance(comparison, StrategyComparison):
+    if comparison.compared != "starts":
         heading = (
             f"{comparison.title}: one round from {comparison.start!r} under each of {count} named "
             f"strateg{'y' if count == 1 else 'ies'} (cells: {shown})"
@@ -101,7 +97,7 @@ def comparison_text(comparison: Comparison, kind: str = "both") -> str:
     headers, rows = comparison_rows(comparison, kind)
     parts = [heading, "", render_table(headers, rows)]
     notes = []
-    for name, figures in zip(comparison.columns, comparison.figures):
+    for name, figures in zip(comparison.names, comparison.figures):
         for note in figures.notes:
             if all(note in other.notes for other in comparison.figures):
                 if f"every strategy: {note}" not in notes:
@@ -112,38 +108,6 @@ def comparison_text(comparison: Comparison, kind: str = "both") -> str:
         parts += ["", "Notes:"] + [f"  - {note}" for note in notes]
     parts += ["", caution_block()]
     return "\n".join(parts)
-
-
-def starts_json(comparison: StartComparison) -> dict[str, Any]:
-    """``{"ruleset", "starts": [...], "strategy", "by_start": {STATE: <solve JSON>}, "cautions"}``."""
-    by_start = {}
-    for name, figures in zip(comparison.starts, comparison.figures):
-        body = round_json(figures, comparison.title)
-        body.pop("cautions", None)
-        by_start[name] = body
-    return {
-        "ruleset": comparison.title,
-        "starts": list(comparison.starts),
-        "strategy": comparison.strategy,
-        "by_start": by_start,
-        "cautions": list(CAUTIONS),
-    }
-
-
-def comparison_json(comparison: StrategyComparison) -> dict[str, Any]:
-    """``{"ruleset", "start", "strategies": [...], "by_strategy": {NAME: <solve JSON>}, "cautions"}``."""
-    by_strategy = {}
-    for name, figures in zip(comparison.strategies, comparison.figures):
-        body = round_json(figures, comparison.title)
-        body.pop("cautions", None)
-        by_strategy[name] = body
-    return {
-        "ruleset": comparison.title,
-        "start": comparison.start,
-        "strategies": list(comparison.strategies),
-        "by_strategy": by_strategy,
-        "cautions": list(CAUTIONS),
-    }
 
 
 def policy_runs(policy: tuple[tuple[str, str], ...]) -> list[tuple[str, str, int, str]]:
@@ -207,13 +171,24 @@ def best_text(best: BestPolicy, every_state: bool = False) -> str:
     return "\n".join(parts)
 
 
-def best_json(best: BestPolicy) -> dict[str, Any]:
-    """``{"goal", "value": {"exact", "decimal"}, "policy": {STATE: ACTION}, "certified", "notes"}`` and more."""
+def best_json(results: BestResults) -> dict[str, Any]:
+    """The ``--json`` object of ``oddsbench best``: the best play (null when only strategies were checked)
+    and every strategy checked against it (an empty list when none was)."""
+    return envelope(
+        "best",
+        {
+            "ruleset": results.title,
+            "start": results.start,
+            "goal": results.goal,
+            "best": None if results.best is None else best_play_json(results.best),
+            "checks": [check_json(check) for check in results.checks],
+        },
+    )
+
+
+def best_play_json(best: BestPolicy) -> dict[str, Any]:
     certificate = best.certificate
     return {
-        "ruleset": best.title,
-        "start": best.start,
-        "goal": best.goal,
         "value_label": best.value_label,
         "value": figure_json(best.value),
         "policy": dict(best.policy),
@@ -231,9 +206,8 @@ def best_json(best: BestPolicy) -> dict[str, Any]:
         },
         "reached": list(best.reached),
         "iterations": best.iterations,
-        "figures": round_json(best.figures, best.title)["figures"] if best.figures is not None else None,
+        "figures": round_result_json(best.figures)["figures"] if best.figures is not None else None,
         "notes": list(best.notes),
-        "cautions": list(CAUTIONS),
     }
 
 
@@ -276,14 +250,13 @@ def check_text(check: StrategyCheck) -> str:
 
 def check_json(check: StrategyCheck) -> dict[str, Any]:
     return {
-        "ruleset": check.title,
         "strategy": check.strategy,
-        "goal": check.goal,
         "value_label": check.value_label,
         "value": figure_json(check.value),
         "best_value": figure_json(check.best_value),
         "optimal": check.optimal,
         "exact": check.exact,
+        "decision_states": check.decision_states,
         "improvements": [
             {
                 "state": i.state,
@@ -295,5 +268,4 @@ def check_json(check: StrategyCheck) -> dict[str, Any]:
             for i in check.improvements
         ],
         "notes": list(check.notes),
-        "cautions": list(CAUTIONS),
     }

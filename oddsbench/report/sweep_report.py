@@ -4,15 +4,15 @@ from __future__ import annotations
 
 import csv
 import io
-import json
 from typing import Any
 
+from oddsbench.core.results import SweepResult
 from oddsbench.model.numbers import parse_fraction
 from oddsbench.report.cautions import CAUTIONS
+from oddsbench.report.json_output import dumps, envelope
 from oddsbench.report.numbers_text import decimal_text, exact_text, render_table
 from oddsbench.report.round_report import figure_label
 from oddsbench.report.ruleset_echo import file_digest
-from oddsbench.sweep.runners import SweepResult
 
 EXACT_COLUMN_WIDTH = 30
 
@@ -35,25 +35,27 @@ def sweep_json(result: SweepResult) -> dict[str, Any]:
         entry["figures"] = {name: {"exact": exact, "decimal": decimal} for name, exact, decimal in solved.figures}
         entry["notes"] = list(solved.notes)
         points.append(entry)
-    return {
-        "sweep": {
-            "title": spec.title,
-            "spec": spec.source,
-            "ruleset": spec.ruleset_path.name,
-            "ruleset_sha256": file_digest(spec.ruleset_text),
-            "axes": [{"kind": a.kind, "name": a.name, "values": [a.shown(v) for v in a.values]} for a in spec.axes],
-            "figures": list(spec.figures),
-            "points": len(result.points),
-            "runner": result.runner,
-            "seconds": result.seconds,
+    return envelope(
+        "sweep",
+        {
+            "sweep": {
+                "title": spec.title,
+                "spec": spec.source,
+                "ruleset": spec.ruleset_path.name,
+                "ruleset_sha256": file_digest(spec.ruleset_text),
+                "axes": [{"kind": a.kind, "name": a.name, "values": [a.shown(v) for v in a.values]} for a in spec.axes],
+                "figures": list(spec.figures),
+                "points": len(result.points),
+                "runner": result.runner,
+                "seconds": result.seconds,
+            },
+            "points": points,
         },
-        "points": points,
-        "cautions": list(CAUTIONS),
-    }
+    )
 
 
 def render_sweep_json(result: SweepResult) -> str:
-    return json.dumps(sweep_json(result), indent=2, ensure_ascii=False) + "\n"
+    return dumps(sweep_json(result)) + "\n"
 
 
 def render_sweep_csv(result: SweepResult) -> str:

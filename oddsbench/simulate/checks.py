@@ -5,9 +5,10 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
+from oddsbench.model.figure import Figure
 from oddsbench.simulate.intervals import DEFAULT_CONFIDENCE, Interval, normal_interval, wilson_interval
 from oddsbench.simulate.round_sim import RoundSample
-from oddsbench.solve.round import Figure, RoundFigures
+from oddsbench.solve.round import RoundFigures
 
 WILSON = "Wilson"
 NORMAL = "normal"

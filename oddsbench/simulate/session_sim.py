@@ -195,24 +195,3 @@ def simulate_session(
         done += size
     sample.seconds = time.perf_counter() - began
     return sample
-
-
-def session_chain(distribution, settings, plan, exact_limit: int):
-    """The bankroll chain ``strategy.session.analyse_session`` solves for this plan (same bets)."""
-    from dataclasses import replace
-
-    from oddsbench.chain.bankroll import build_bankroll_chain
-    from oddsbench.strategy.plans import parse_plan, planned_bets
-
-    plan = parse_plan(plan) if isinstance(plan, str) else plan
-    grid = settings.grid(distribution)
-    if plan.kind == "best":
-        from oddsbench.strategy.bet_optimiser import optimise_bets
-
-        bold, _, _ = planned_bets(replace(plan, kind="bold"), distribution, grid)
-        bets, _ = optimise_bets(distribution, grid, bold[0], exact_limit)
-        planned = bets[None, :]
-        next_level = np.zeros((1, len(distribution.outcomes)), dtype=np.int64)
-    else:
-        planned, next_level, _ = planned_bets(plan, distribution, grid)
-    return build_bankroll_chain(distribution, grid, planned, next_level)

@@ -15,8 +15,9 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from oddsbench.chain.round_chain import RoundChain
+from oddsbench.model.defaults import DEFAULT_EXACT_BITS, ROUND_EXACT_LIMIT
 from oddsbench.model.errors import OddsbenchError
-from oddsbench.model.limits import DEFAULT_EXACT_BITS
+from oddsbench.model.figure import Figure
 from oddsbench.model.numbers import QQ, Rational, log10_abs, to_float
 from oddsbench.solve.cancel import SolveCancelled
 from oddsbench.solve.linear import (
@@ -29,7 +30,7 @@ from oddsbench.solve.linear import (
     sparse_from_rows,
 )
 
-DEFAULT_EXACT_LIMIT = 5_000
+DEFAULT_EXACT_LIMIT = ROUND_EXACT_LIMIT
 DEFAULT_STEP_BUDGET = 20_000_000
 RELATIVE_TOLERANCE = 1e-9
 ZERO_TOLERANCE = 1e-12
@@ -49,14 +50,6 @@ FIGURE_ORDER = (
 
 
 STAKE_RATIOS = frozenset({"house_edge", "return_to_player"})
-
-
-@dataclass(frozen=True)
-class Figure:
-    """One quantity: the exact rational (None where exact arithmetic was skipped) and its decimal."""
-
-    exact: Rational | None
-    decimal: float
 
 
 @dataclass(frozen=True)

@@ -1,49 +1,73 @@
-"""Named strategies of a ruleset solved side by side: every round figure under each."""
+"""One round under one or several ways of playing, side by side: named strategies or start states.
+
+``solve_rounds`` is the one loop: each column is a start state and a play (a named strategy, or
+none for a game without decisions), solved by the round solver with the same settings. The result
+says what is compared (strategies, start states, or nothing: one round), so every front end
+shows the same columns.
+"""
 
 from __future__ import annotations
 
 import dataclasses
-from collections.abc import Callable
+from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 
 from oddsbench.chain.round_chain import build_round_chain
+from oddsbench.model.defaults import DEFAULT_EXACT_BITS, DEFAULT_MAX_STATES, ROUND_EXACT_LIMIT
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.ruleset import Ruleset, Strategy
-from oddsbench.solve.round import DEFAULT_EXACT_LIMIT, RoundFigures, solve_round
+from oddsbench.solve.round import RoundFigures, solve_round
 
 
 @dataclass(frozen=True)
-class StrategyComparison:
-    """One ``RoundFigures`` per named strategy, in the file's order."""
+class RoundColumn:
+    """One round: where it starts, the strategy played (None: no decisions) and every figure."""
+
+    start: str
+    strategy: str | None
+    policy: dict[str, str]
+    figures: RoundFigures
+
+
+@dataclass(frozen=True)
+class RoundResults:
+    """Rounds side by side; ``compared`` is "strategies", "starts", or None for a single round."""
 
     title: str
-    start: str
-    strategies: tuple[str, ...]
-    figures: tuple[RoundFigures, ...]
+    columns: tuple[RoundColumn, ...]
+    compared: str | None = None
+
+    @property
+    def figures(self) -> tuple[RoundFigures, ...]:
+        return tuple(column.figures for column in self.columns)
+
+    @property
+    def names(self) -> tuple[str, ...]:
+        """Column headings: the strategy names, or the start states."""
+        if self.compared == "starts":
+            return tuple(column.start for column in self.columns)
+        return tuple(column.strategy or "as written" for column in self.columns)
+
+    @property
+    def start(self) -> str:
+        return self.columns[0].start
+
+    @property
+    def strategy(self) -> str | None:
+        """The one strategy every column plays (None when columns differ or there are no decisions)."""
+        played = {column.strategy for column in self.columns}
+        return played.pop() if len(played) == 1 else None
 
     def of(self, name: str) -> RoundFigures:
-        return self.figures[self.strategies.index(name)]
+        return self.columns[self.names.index(name)].figures
 
-    @property
-    def columns(self) -> tuple[str, ...]:
-        return self.strategies
-
-
-@dataclass(frozen=True)
-class StartComparison:
-    """One ``RoundFigures`` per start state (e.g. each upcard of the dealer), under one play."""
-
-    title: str
-    starts: tuple[str, ...]
-    figures: tuple[RoundFigures, ...]
-    strategy: str | None = None
-
-    def of(self, start: str) -> RoundFigures:
-        return self.figures[self.starts.index(start)]
-
-    @property
-    def columns(self) -> tuple[str, ...]:
-        return self.starts
+    def figure(self, name: str, column: int = 0):
+        """One figure of one column (``house_edge``, ``expected_steps``...), exact beside decimal."""
+        figures = self.columns[column].figures
+        if name in figures.figures:
+            return figures.figures[name]
+        known = ", ".join(figures.figures)
+        raise KeyError(f"no figure {name!r} in this round (figures: {known})")
 
 
 def strategy_policy(ruleset: Ruleset, strategy: Strategy) -> dict[str, str]:
@@ -59,6 +83,11 @@ def named_strategy(ruleset: Ruleset, name: str) -> Strategy:
         raise OddsbenchError(f"{ruleset.source}: unknown strategy {name!r} (known: {known})") from None
 
 
+def policy_of(ruleset: Ruleset, name: str | None) -> dict[str, str]:
+    """The actions of a named strategy (empty for None: a game without decisions plays as written)."""
+    return strategy_policy(ruleset, named_strategy(ruleset, name)) if name is not None else {}
+
+
 def starting_at(ruleset: Ruleset, state: str | None) -> Ruleset:
     """The same ruleset with the round starting in ``state`` (None keeps the file's start)."""
     if state is None or state == ruleset.start:
@@ -70,6 +99,11 @@ def starting_at(ruleset: Ruleset, state: str | None) -> Ruleset:
         hint = f" (did you mean {close[0]!r}?)" if close else ""
         raise OddsbenchError(f"{ruleset.source}: no state {state!r} to start from{hint}")
     return dataclasses.replace(ruleset, start=state)
+
+
+def names_several(starts: str | None) -> bool:
+    """Whether a ``--from`` text names several start states (a list or a pattern) rather than one."""
+    return starts is not None and ("," in starts or any(char in starts for char in "*?["))
 
 
 def matching_states(ruleset: Ruleset, pattern: str) -> tuple[str, ...]:
@@ -92,44 +126,62 @@ def matching_states(ruleset: Ruleset, pattern: str) -> tuple[str, ...]:
     return tuple(chosen)
 
 
-def compare_starts(
-    ruleset: Ruleset,
-    starts: tuple[str, ...],
-    strategy: str | None = None,
-    rounds: int | None = None,
-    exact_limit: int = DEFAULT_EXACT_LIMIT,
-    should_stop: Callable[[], bool] | None = None,
-) -> StartComparison:
-    """Solve one round from each of several start states, under a named strategy if decisions need one."""
-    policy = strategy_policy(ruleset, named_strategy(ruleset, strategy)) if strategy is not None else {}
-    if strategy is None and ruleset.has_decisions:
-        raise OddsbenchError(f"{ruleset.source}: has decision states: choose a strategy to compare start states")
-    solved = []
-    for start in starts:
-        chain = build_round_chain(starting_at(ruleset, start), policy)
-        solved.append(solve_round(chain, rounds=rounds, exact_limit=exact_limit, should_stop=should_stop))
-    return StartComparison(ruleset.title, tuple(starts), tuple(solved), strategy)
-
-
-def compare_strategies(
-    ruleset: Ruleset,
-    rounds: int | None = None,
-    exact_limit: int = DEFAULT_EXACT_LIMIT,
-    should_stop: Callable[[], bool] | None = None,
-) -> StrategyComparison:
-    """Solve one round under each named strategy of the ruleset."""
+def plays_to_compare(ruleset: Ruleset, strategies: Sequence[str] = ()) -> list[str | None]:
+    """The strategies to solve: those named, else every one of the file's (a game with decisions),
+    else None (a game without decisions plays as written)."""
+    if strategies:
+        return list(strategies)
+    if not ruleset.has_decisions:
+        return [None]
     if not ruleset.strategies:
         raise OddsbenchError(
             f"{ruleset.source}: has decision states but no [strategies] to compare "
             "(add one, or let `oddsbench best` find the best play)"
         )
-    solved = []
-    for strategy in ruleset.strategies:
-        chain = build_round_chain(ruleset, strategy_policy(ruleset, strategy))
-        solved.append(solve_round(chain, rounds=rounds, exact_limit=exact_limit, should_stop=should_stop))
-    return StrategyComparison(
-        title=ruleset.title,
-        start=ruleset.start,
-        strategies=tuple(s.name for s in ruleset.strategies),
-        figures=tuple(solved),
-    )
+    return [s.name for s in ruleset.strategies]
+
+
+def solve_rounds(
+    ruleset: Ruleset,
+    plays: Sequence[tuple[str, str | None]],
+    compared: str | None = None,
+    rounds: int | None = None,
+    exact_limit: int = ROUND_EXACT_LIMIT,
+    should_stop: Callable[[], bool] | None = None,
+    max_states: int = DEFAULT_MAX_STATES,
+    exact_bits: int | None = DEFAULT_EXACT_BITS,
+) -> RoundResults:
+    """Solve one round per (start state, strategy name or None), in order."""
+    columns = []
+    for start, strategy in plays:
+        policy = policy_of(ruleset, strategy)
+        chain = build_round_chain(starting_at(ruleset, start), policy, max_states)
+        figures = solve_round(chain, rounds, exact_limit, should_stop, exact_bits)
+        columns.append(RoundColumn(figures.start, strategy, policy, figures))
+    return RoundResults(ruleset.title, tuple(columns), compared)
+
+
+def compare_strategies(
+    ruleset: Ruleset,
+    rounds: int | None = None,
+    exact_limit: int = ROUND_EXACT_LIMIT,
+    should_stop: Callable[[], bool] | None = None,
+    strategies: Sequence[str] = (),
+) -> RoundResults:
+    """Solve one round under each named strategy of the ruleset (or those given)."""
+    plays = [(ruleset.start, name) for name in plays_to_compare(ruleset, strategies)]
+    return solve_rounds(ruleset, plays, "strategies", rounds, exact_limit, should_stop)
+
+
+def compare_starts(
+    ruleset: Ruleset,
+    starts: tuple[str, ...],
+    strategy: str | None = None,
+    rounds: int | None = None,
+    exact_limit: int = ROUND_EXACT_LIMIT,
+    should_stop: Callable[[], bool] | None = None,
+) -> RoundResults:
+    """Solve one round from each of several start states, under a named strategy if decisions need one."""
+    if strategy is None and ruleset.has_decisions:
+        raise OddsbenchError(f"{ruleset.source}: has decision states: choose a strategy to compare start states")
+    return solve_rounds(ruleset, [(start, strategy) for start in starts], "starts", rounds, exact_limit, should_stop)

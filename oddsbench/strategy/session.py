@@ -1,7 +1,9 @@
-"""One call for a whole session: a round's distribution, the session settings and a plan.
+"""One call for a whole bounded session: a round's distribution, the session settings and a plan.
 
-This is the entry point for the CLI, the TUI and the simulation helpers:
-``analyse_session(distribution, settings, plan) -> SessionFigures``.
+``analyse_session(distribution, settings, plan) -> SessionFigures`` solves it;
+``session_chain(distribution, settings, plan)`` is the one builder of the chain it solves (the
+simulation plays the same chain). The settings (``SessionSettings``) also say when there is no
+goal; the core sends those plans to the no-goal engines instead.
 """
 
 from __future__ import annotations
@@ -10,30 +12,42 @@ from collections.abc import Callable, Mapping
 from dataclasses import dataclass, field, replace
 from typing import Any
 
-from oddsbench.chain.bankroll import BankrollGrid, build_bankroll_chain, make_grid
-from oddsbench.chain.round_distribution import RoundDistribution
-from oddsbench.model.errors import OddsbenchError
-from oddsbench.model.numbers import QQ, Rational, is_integer, text, to_float, to_int
-from oddsbench.solve.round import Figure
-from oddsbench.solve.session import DEFAULT_EXACT_LIMIT, FinalValue, solve_session
-from oddsbench.strategy.plans import Plan, parse_plan, planned_bets
+import numpy as np
 
-SETTING_NAMES = ("bankroll", "goal", "floor", "min_bet", "max_bet", "unit", "max_rounds")
+from oddsbench.chain.bankroll import BankrollChain, BankrollGrid, build_bankroll_chain, make_grid
+from oddsbench.chain.round_distribution import RoundDistribution
+from oddsbench.model.defaults import NO_GOAL, SESSION_EXACT_LIMIT, SESSION_SETTING_NAMES, is_no_goal
+from oddsbench.model.errors import OddsbenchError
+from oddsbench.model.figure import Figure
+from oddsbench.model.numbers import QQ, Rational, is_integer, text, to_float, to_int
+from oddsbench.solve.session import FinalValue, solve_session
+from oddsbench.strategy.plan_bets import planned_bets
+from oddsbench.strategy.plans import Plan, parse_plan
+
+SETTING_NAMES = SESSION_SETTING_NAMES
+MONEY_NAMES = ("bankroll", "goal", "floor", "min_bet", "max_bet", "unit")
 
 
 @dataclass(frozen=True)
 class SessionSettings:
-    """Money amounts are exact; ``unit`` is the betting unit (default 1, or the minimum bet when that is not whole)."""
+    """Money amounts are exact; ``goal`` None is play with no goal (until ruin); ``unit`` is the
+    betting unit (None: the default unit of the session rules)."""
 
     bankroll: Rational
-    goal: Rational
+    goal: Rational | None
     floor: Rational = QQ(0)
     min_bet: Rational | None = None
     max_bet: Rational | None = None
     unit: Rational | None = None
     max_rounds: int | None = None
 
+    @property
+    def no_goal(self) -> bool:
+        return self.goal is None
+
     def grid(self, distribution: RoundDistribution) -> BankrollGrid:
+        if self.goal is None:
+            raise OddsbenchError("a session with no goal has no bankroll grid: it is solved as a walk until ruin")
         return make_grid(distribution, self.bankroll, self.goal, self.floor, self.min_bet, self.max_bet, self.unit)
 
 
@@ -60,14 +74,18 @@ class SessionFigures:
         return [self.step * k for k in range(len(self.goal_series))]
 
 
-def settings_from_table(table: Mapping[str, Any], source: str, base: SessionSettings | None = None) -> dict:
-    """Exact values from a ruleset's raw ``[session]`` table (one clear line per bad field)."""
+def settings_from_table(table: Mapping[str, Any], source: str) -> dict:
+    """Exact values from a ruleset's raw ``[session]`` table (one clear line per bad field);
+    ``goal = "none"`` stays the word ``none``."""
     from oddsbench.model.expr import ExpressionError, evaluate_text
 
     values: dict[str, Any] = {}
     for name, raw in table.items():
         if name not in SETTING_NAMES:
             raise OddsbenchError(f"{source}: [session], {name}: unknown setting (known: {', '.join(SETTING_NAMES)})")
+        if name == "goal" and is_no_goal(raw):
+            values[name] = NO_GOAL
+            continue
         if isinstance(raw, bool) or not isinstance(raw, (int, float, str)):
             raise OddsbenchError(f"{source}: [session], {name}: expected a number, got {raw!r}")
         try:
@@ -83,35 +101,47 @@ def settings_from_table(table: Mapping[str, Any], source: str, base: SessionSett
 
 
 def merge_settings(defaults: Mapping[str, Any], overrides: Mapping[str, Any], source: str) -> SessionSettings:
-    """Command-line values over the ruleset's defaults; bankroll and goal are required."""
+    """Given values over the ruleset's defaults; a bankroll is required, and a goal (or ``none``)."""
     merged = {**defaults, **{k: v for k, v in overrides.items() if v is not None}}
-    for required in ("bankroll", "goal"):
-        if required not in merged:
-            raise OddsbenchError(f"{source}: session needs --{required} (or {required} in the [session] table)")
+    if "bankroll" not in merged:
+        raise OddsbenchError(f"{source}: session needs --bankroll (or bankroll in the [session] table)")
+    if "goal" not in merged:
+        raise OddsbenchError(f"{source}: session needs --goal (or goal in the [session] table)")
+    if is_no_goal(merged["goal"]):
+        if merged.get("max_rounds") is not None:
+            raise OddsbenchError(
+                f"{source}: --goal none plays until ruin; a time cap (max_rounds) needs a goal, or use --rounds N "
+                "with a goal for the chance of ruin within N rounds"
+            )
+        merged["goal"] = None
     return SessionSettings(**merged)
 
 
-def analyse_session(
+@dataclass(frozen=True)
+class PlannedChain:
+    """The bankroll chain of one plan, the grid it lives on, and what choosing its bets found."""
+
+    chain: BankrollChain
+    grid: BankrollGrid
+    notes: tuple[str, ...]
+
+
+def session_chain(
     distribution: RoundDistribution,
     settings: SessionSettings,
     plan: Plan | str,
-    exact_limit: int = DEFAULT_EXACT_LIMIT,
-    rounds: int | None = None,
-    should_stop: Callable[[], bool] | None = None,
-) -> SessionFigures:
-    """Build the session chain for a plan, solve it, and add the plan's own figures."""
+    exact_limit: int = SESSION_EXACT_LIMIT,
+) -> PlannedChain:
+    """The one builder of a plan's bankroll chain: solved by ``analyse_session``, played by the simulation."""
     plan = parse_plan(plan) if isinstance(plan, str) else plan
     grid = settings.grid(distribution)
     notes: list[str] = []
-    extra: dict[str, Figure] = {}
     if plan.kind == "best":
         from oddsbench.strategy.bet_optimiser import optimise_bets
 
         bold, _, _ = planned_bets(replace(plan, kind="bold"), distribution, grid)
         bets, certificate = optimise_bets(distribution, grid, bold[0], exact_limit)
         planned = bets[None, :]
-        import numpy as np
-
         next_level = np.zeros((1, len(distribution.outcomes)), dtype=np.int64)
         notes.append(certificate.note())
         if settings.max_rounds is not None:
@@ -119,13 +149,31 @@ def analyse_session(
     else:
         planned, next_level, plan_notes = planned_bets(plan, distribution, grid)
         notes.extend(plan_notes)
+    return PlannedChain(build_bankroll_chain(distribution, grid, planned, next_level), grid, tuple(notes))
+
+
+def analyse_session(
+    distribution: RoundDistribution,
+    settings: SessionSettings,
+    plan: Plan | str,
+    exact_limit: int = SESSION_EXACT_LIMIT,
+    rounds: int | None = None,
+    should_stop: Callable[[], bool] | None = None,
+    planned: PlannedChain | None = None,
+) -> SessionFigures:
+    """Build the session chain for a plan (or take the one ``session_chain`` built), solve it, and add
+    the plan's own figures."""
+    plan = parse_plan(plan) if isinstance(plan, str) else plan
+    planned = planned or session_chain(distribution, settings, plan, exact_limit)
+    chain, grid = planned.chain, planned.grid
+    notes = list(planned.notes)
+    extra: dict[str, Figure] = {}
     if plan.kind == "kelly":
         from oddsbench.strategy.kelly import kelly_bet
 
         bet = kelly_bet(distribution, plan.amount)
         extra["bet_fraction"] = bet.fraction
         extra["growth_rate_bits"] = Figure(None, bet.growth_bits)
-    chain = build_bankroll_chain(distribution, grid, planned, next_level)
     solution = solve_session(chain, settings.max_rounds, rounds, exact_limit, should_stop)
     figures = dict(solution.figures)
     if chain.start >= 0:

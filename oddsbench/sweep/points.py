@@ -1,8 +1,9 @@
-"""The points of a sweep and the pure function that solves them, wherever it runs.
+"""The points of a sweep, the tasks that carry them and the results that come back.
 
 A task carries the ruleset text and exact values as text, so it pickles small and a worker on
 another machine needs oddsbench installed but not the files. Results are exact text plus the
-decimal, identical on local processes and on a cluster.
+decimal, identical on local processes and on a cluster. The function that solves a task is the
+core's (``core.sweeps.solve_task``), handed to the runners: this layer does not solve.
 """
 
 from __future__ import annotations
@@ -10,8 +11,7 @@ from __future__ import annotations
 import itertools
 from dataclasses import dataclass
 
-from oddsbench.model.errors import OddsbenchError, RulesetError
-from oddsbench.model.numbers import parse_fraction, text
+from oddsbench.model.numbers import text
 from oddsbench.sweep.spec import SweepSpec
 
 
@@ -75,54 +75,3 @@ def chunked(spec: SweepSpec, points: list[Point], chunks: int) -> list[PointTask
         PointTask(spec.ruleset_text, spec.ruleset_path.name, spec.exact_limit, tuple(points[i : i + size]))
         for i in range(0, len(points), size)
     ]
-
-
-def solve_point(ruleset_text: str, source: str, exact_limit: int, point: Point) -> PointResult:
-    from oddsbench.chain.round_chain import build_round_chain
-    from oddsbench.model.load import load_ruleset_text
-    from oddsbench.solve.round import solve_round
-    from oddsbench.strategy.compare import named_strategy, strategy_policy
-
-    try:
-        overrides = {name: parse_fraction(value) for name, value in point.params}
-        ruleset = load_ruleset_text(ruleset_text, source, overrides)
-        policy = strategy_policy(ruleset, named_strategy(ruleset, point.strategy)) if point.strategy else {}
-        chain = build_round_chain(ruleset, policy)
-        figures = solve_round(chain, exact_limit=exact_limit)
-        session = _session_rows(ruleset, chain, point, exact_limit) if point.plan is not None else []
-    except RulesetError as error:
-        return PointResult(point.index, error="; ".join(str(p) for p in error.errors or error.problems))
-    except OddsbenchError as error:
-        return PointResult(point.index, error=str(error))
-    rows = [(name, _text(f.exact), f.decimal) for name, f in figures.figures.items()]
-    rows += [(f"end_probability[{name}]", _text(f.exact), f.decimal) for name, f in figures.end_probability.items()]
-    rows += [
-        (f"result_probability[{name}]", _text(f.exact), f.decimal) for name, f in figures.result_probability.items()
-    ]
-    notes = figures.notes
-    if session:
-        session_rows, session_notes = session
-        rows += session_rows
-        notes += tuple(f"session: {note}" for note in session_notes)
-    return PointResult(point.index, tuple(rows), notes)
-
-
-def _session_rows(ruleset, chain, point: Point, exact_limit: int):
-    """The session figures of one point, named ``session.NAME``, and the session notes."""
-    from oddsbench.solve.round_distribution import round_distribution
-    from oddsbench.strategy.session import analyse_session, merge_settings, settings_from_table
-
-    overrides = {name: (int(value) if name == "max_rounds" else parse_fraction(value)) for name, value in point.session}
-    settings = merge_settings(settings_from_table(ruleset.session, ruleset.source), overrides, ruleset.source)
-    solved = analyse_session(round_distribution(chain), settings, point.plan, exact_limit)
-    rows = [(f"session.{name}", _text(f.exact), f.decimal) for name, f in solved.figures.items()]
-    return rows, solved.notes
-
-
-def _text(value) -> str | None:
-    return None if value is None else text(value)
-
-
-def solve_task(task: PointTask) -> list[PointResult]:
-    """Solve every point of a task in order: the unit of work sent to a process or a worker."""
-    return [solve_point(task.ruleset_text, task.source, task.exact_limit, point) for point in task.points]

@@ -1,7 +1,8 @@
 """Where the points of a sweep are solved: this process, local worker processes, or a Dask cluster.
 
-All three run the same pure ``solve_task`` on the same tasks and put results back in grid
-order, so the figures are identical whichever runs them; only the time differs.
+All three run the same pure task function (the core's ``solve_task``, passed in) on the same
+tasks and put results back in grid order, so the figures are identical whichever runs them;
+only the time differs.
 """
 
 from __future__ import annotations
@@ -14,10 +15,11 @@ from concurrent.futures import ProcessPoolExecutor, as_completed
 from dataclasses import dataclass
 
 from oddsbench.model.errors import OddsbenchError
-from oddsbench.sweep.points import Point, PointResult, PointTask, chunked, grid_points, solve_task
+from oddsbench.sweep.points import Point, PointResult, PointTask, chunked, grid_points
 from oddsbench.sweep.spec import SweepSpec
 
 Progress = Callable[[int, int], None]
+SolveTask = Callable[[PointTask], list[PointResult]]  # a module-level function, so processes can pickle it
 CLUSTER_ADDRESS = re.compile(r"^((tcp|tls|ws|wss|ucx)://)?(\[[0-9A-Fa-f:.]+\]|[A-Za-z0-9_.-]+)(:[0-9]{1,5})?/?$")
 TASKS_PER_WORKER = 8
 CONNECT_TIMEOUT = "10s"
@@ -41,27 +43,32 @@ def default_workers() -> int:
 
 
 def run_sweep(
-    spec: SweepSpec, workers: int | None = None, cluster: str | None = None, progress: Progress | None = None
+    spec: SweepSpec,
+    solve_task: SolveTask,
+    workers: int | None = None,
+    cluster: str | None = None,
+    progress: Progress | None = None,
 ) -> SweepResult:
-    """Solve every grid point; ``cluster`` is a Dask scheduler address such as tcp://10.0.0.5:8786."""
+    """Solve every grid point with ``solve_task``; ``cluster`` is a Dask scheduler address such as
+    tcp://10.0.0.5:8786."""
     began = time.perf_counter()
     points = grid_points(spec)
     report = progress or (lambda done, total: None)
     if cluster is not None:
-        results, runner = _on_cluster(spec, points, cluster, report)
+        results, runner = _on_cluster(spec, points, cluster, report, solve_task)
     else:
         count = min(workers or default_workers(), len(points))
         if count <= 1:
-            results, runner = _here(spec, points, report), "this process"
+            results, runner = _here(spec, points, report, solve_task), "this process"
         else:
-            results, runner = _on_processes(spec, points, count, report), f"{count} local processes"
+            results, runner = _on_processes(spec, points, count, report, solve_task), f"{count} local processes"
     ordered = tuple(sorted(results, key=lambda r: r.index))
     if [r.index for r in ordered] != [p.index for p in points]:
         raise OddsbenchError("sweep: some points came back missing or twice; run again")
     return SweepResult(spec, tuple(points), ordered, runner, time.perf_counter() - began)
 
 
-def _here(spec: SweepSpec, points: list[Point], report: Progress) -> list[PointResult]:
+def _here(spec: SweepSpec, points: list[Point], report: Progress, solve_task: SolveTask) -> list[PointResult]:
     results: list[PointResult] = []
     for task in chunked(spec, points, max(1, len(points) // 10)):
         results.extend(solve_task(task))
@@ -69,7 +76,9 @@ def _here(spec: SweepSpec, points: list[Point], report: Progress) -> list[PointR
     return results
 
 
-def _on_processes(spec: SweepSpec, points: list[Point], workers: int, report: Progress) -> list[PointResult]:
+def _on_processes(
+    spec: SweepSpec, points: list[Point], workers: int, report: Progress, solve_task: SolveTask
+) -> list[PointResult]:
     tasks = chunked(spec, points, workers * TASKS_PER_WORKER)
     results: list[PointResult] = []
     with ProcessPoolExecutor(max_workers=workers) as pool:
@@ -85,7 +94,9 @@ def _on_processes(spec: SweepSpec, points: list[Point], workers: int, report: Pr
     return results
 
 
-def _on_cluster(spec: SweepSpec, points: list[Point], address: str, report: Progress) -> tuple[list[PointResult], str]:
+def _on_cluster(
+    spec: SweepSpec, points: list[Point], address: str, report: Progress, solve_task: SolveTask
+) -> tuple[list[PointResult], str]:
     try:
         from distributed import Client
         from distributed import as_completed as cluster_completed

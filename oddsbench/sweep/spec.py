@@ -22,10 +22,12 @@ through the ruleset expression language (no names), never floats.
 from __future__ import annotations
 
 import tomllib
+from collections.abc import Callable
 from dataclasses import dataclass
 from pathlib import Path
 from typing import Any
 
+from oddsbench.model.defaults import DEFAULT_PLANS, ROUND_EXACT_LIMIT, SESSION_SETTING_NAMES
 from oddsbench.model.errors import Problem, RulesetError
 from oddsbench.model.expr import ExpressionError, evaluate_text
 from oddsbench.model.numbers import QQ, Rational, text
@@ -34,7 +36,7 @@ MAX_POINTS = 100_000
 SPEC_KEYS = frozenset({"sweep", "params", "session"})
 SWEEP_KEYS = frozenset({"title", "ruleset", "figures", "strategy", "exact_limit"})
 DEFAULT_FIGURES = ("house_edge", "return_to_player")
-DEFAULT_EXACT_LIMIT = 5_000
+DEFAULT_EXACT_LIMIT = ROUND_EXACT_LIMIT
 
 
 @dataclass(frozen=True)
@@ -127,25 +129,27 @@ class _SpecReader:
         return ()
 
 
-SESSION_SETTINGS = ("bankroll", "goal", "floor", "min_bet", "max_bet", "unit", "max_rounds")
-DEFAULT_PLANS = ("timid", "bold")
+PlanCheck = Callable[[str], object]  # reads one plan text, raising OddsbenchError with one line
 
 
-def _session_axes(reader: _SpecReader, session: dict[str, Any]) -> list[Axis]:
-    """Session settings (exact money, whole max_rounds) and the plan axis; plans default to timid, bold."""
+def _session_axes(reader: _SpecReader, session: dict[str, Any], check_plan: PlanCheck | None) -> list[Axis]:
+    """Session settings (exact money, whole max_rounds) and the plan axis; plans default to timid, bold.
+
+    ``check_plan`` is the plan grammar (the core passes ``strategy.plans.parse_plan``: this layer
+    sits beside strategy and does not import it).
+    """
     if not session:
         return []
     from oddsbench.model.errors import OddsbenchError
     from oddsbench.model.numbers import is_integer, to_int
-    from oddsbench.strategy.plans import parse_plan
 
     axes: list[Axis] = []
     for name, raw in session.items():
         where = f"[session], {name}"
         if name == "plan":
             continue
-        if name not in SESSION_SETTINGS:
-            reader.error(where, f"unknown setting (known: {', '.join(SESSION_SETTINGS)}, plan)")
+        if name not in SESSION_SETTING_NAMES:
+            reader.error(where, f"unknown setting (known: {', '.join(SESSION_SETTING_NAMES)}, plan)")
             continue
         values = reader.values(raw if isinstance(raw, list | dict) else [raw], where)
         if name == "max_rounds":
@@ -160,16 +164,16 @@ def _session_axes(reader: _SpecReader, session: dict[str, Any]) -> list[Axis]:
     if not isinstance(listed, list) or not listed or not all(isinstance(p, str) for p in listed):
         reader.error("[session], plan", 'must be a plan or a list of plans such as ["flat:1", "bold"]')
         return axes
-    for plan in listed:
+    for plan in listed if check_plan is not None else ():
         try:
-            parse_plan(plan)
+            check_plan(plan)
         except OddsbenchError as error:
             reader.error("[session], plan", str(error))
     axes.append(Axis("plan", "plan", tuple(listed)))
     return axes
 
 
-def read_sweep_spec(path: str | Path) -> SweepSpec:
+def read_sweep_spec(path: str | Path, check_plan: PlanCheck | None = None) -> SweepSpec:
     """Read a spec file and the ruleset it names, or raise RulesetError naming file and field."""
     path = Path(path)
     source = path.name
@@ -226,7 +230,7 @@ def read_sweep_spec(path: str | Path) -> SweepSpec:
     if not isinstance(session, dict):
         reader.error("[session]", "must be a table of setting = [values]")
         session = {}
-    axes += _session_axes(reader, session)
+    axes += _session_axes(reader, session, check_plan)
     figures = head.get("figures", list(DEFAULT_FIGURES))
     if not isinstance(figures, list) or not all(isinstance(f, str) for f in figures) or not figures:
         reader.error("[sweep], figures", 'must be a list of figure names such as ["house_edge"]')

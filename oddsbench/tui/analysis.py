@@ -1,8 +1,9 @@
-"""What the workbench shows for one version of the text: problems, then the round's figures.
+"""What the workbench shows for one version of the text: problems, then the figures, as report text.
 
-Pure functions over the engines and the report layer, run in a worker thread by the app. The
-figures are the report layer's own text (``round_rows``, ``figure_cells``): the workbench does
-no arithmetic and no number formatting of its own.
+Pure functions run in the screen's thread workers: each asks the core (``oddsbench.core``) and
+turns its result into rows with the report layer's own text, so the workbench does no arithmetic
+and no number formatting. ``should_stop`` is the worker's cancel check; the core raises
+``Cancelled`` when it says stop.
 """
 
 from __future__ import annotations
@@ -10,11 +11,19 @@ from __future__ import annotations
 from collections.abc import Callable
 from dataclasses import dataclass
 
+from oddsbench.core.game import Game
+from oddsbench.core.settings import SessionRequest, Settings
+from oddsbench.core.work import Cancelled, Work
+from oddsbench.model.defaults import DEFAULT_PLANS
 from oddsbench.model.errors import OddsbenchError, Problem
 from oddsbench.model.load import read_ruleset_text
 from oddsbench.model.ruleset import Ruleset
 
 SUMMARY_FIGURES = ("house_edge", "return_to_player", "expected_steps")
+LENGTH_POINTS = 12
+SolveCancelled = Cancelled  # what the workers catch when a solve was cancelled
+
+__all__ = ["DEFAULT_PLANS", "SolveCancelled"]
 
 
 @dataclass(frozen=True)
@@ -38,7 +47,7 @@ class RoundResult:
 
 @dataclass(frozen=True)
 class RoundFailure:
-    """The ruleset is valid but this round cannot be solved (for example an undecided state)."""
+    """The ruleset is valid but this question cannot be answered (for example an undecided state)."""
 
     message: str
 
@@ -48,27 +57,31 @@ def read(text: str, source: str) -> Reading:
     return Reading(result.ruleset, result.problems)
 
 
-def policy_of(ruleset: Ruleset, strategy: str | None) -> dict[str, str]:
-    """The actions a named strategy takes in each decision state (empty for a game without decisions)."""
-    if strategy is None or not ruleset.has_decisions:
-        return {}
-    chosen = ruleset.strategy(strategy)
-    return {state.name: action for state in ruleset.states if state.is_decision if (action := chosen.action_for(state))}
+def _game(ruleset: Ruleset) -> Game:
+    return Game(ruleset.source, ruleset=ruleset)
+
+
+def _work(should_stop: Callable[[], bool] | None) -> Work:
+    return Work(should_stop=should_stop) if should_stop is not None else Work()
+
+
+def _played(ruleset: Ruleset, strategy: str | None) -> tuple[str, ...]:
+    """The strategy to play, for a game with decisions (a game without plays as written)."""
+    return (strategy,) if strategy is not None and ruleset.has_decisions else ()
 
 
 def solve_round_text(
     ruleset: Ruleset, strategy: str | None, should_stop: Callable[[], bool] | None = None
 ) -> RoundResult | RoundFailure:
-    """Build and solve the round chain; raises SolveCancelled when ``should_stop`` says so."""
-    from oddsbench.chain.round_chain import build_round_chain
+    """The round's figures under ``strategy``; raises ``SolveCancelled`` when ``should_stop`` says so."""
+    from oddsbench.core.rounds import round_figures
     from oddsbench.report.round_report import PERCENT_FIGURES, figure_cells, figure_label, round_rows
-    from oddsbench.solve.round import solve_round
 
     try:
-        chain = build_round_chain(ruleset, policy_of(ruleset, strategy))
+        results = round_figures(_game(ruleset), Settings(strategies=_played(ruleset, strategy)), _work(should_stop))
     except OddsbenchError as error:
         return RoundFailure(str(error))
-    figures = solve_round(chain, should_stop=should_stop)
+    figures = results.columns[0].figures
     summary = tuple(
         (figure_label(name), *figure_cells(figures.figures[name], name in PERCENT_FIGURES, width=24))
         for name in SUMMARY_FIGURES
@@ -95,10 +108,9 @@ def strategies_text(
     ruleset: Ruleset, goal: str, should_stop: Callable[[], bool] | None = None
 ) -> StrategiesResult | RoundFailure:
     """``oddsbench solve`` under every named strategy and ``oddsbench best`` for ``goal``, as report text."""
+    from oddsbench.core.rounds import best_play, round_figures
     from oddsbench.report.cautions import caution_block
     from oddsbench.report.strategy_report import best_text, comparison_rows
-    from oddsbench.strategy.best_policy import best_policy
-    from oddsbench.strategy.compare import compare_strategies
 
     if not ruleset.has_decisions:
         return RoundFailure(
@@ -108,16 +120,17 @@ def strategies_text(
     headers: tuple[str, ...] = ()
     rows: tuple[tuple[str, ...], ...] = ()
     heading = f"{ruleset.title}: no named strategies in the file ([strategies] table)"
+    game, work = _game(ruleset), _work(should_stop)
     try:
         if ruleset.strategies:
-            comparison = compare_strategies(ruleset, should_stop=should_stop)
+            comparison = round_figures(game, Settings(), work)
             names, table = comparison_rows(comparison)
             headers, rows = tuple(names), tuple(tuple(row) for row in table)
             heading = (
                 f"{ruleset.title}: one round from {comparison.start!r} under each of "
-                f"{len(comparison.strategies)} named strategies (cells: exact | decimal)"
+                f"{len(comparison.columns)} named strategies (cells: exact | decimal)"
             )
-        best = best_text(best_policy(ruleset, goal, should_stop=should_stop))
+        best = best_text(best_play(game, Settings(best_goal=goal), work).best)
     except OddsbenchError as error:
         return RoundFailure(str(error))
     block = caution_block()
@@ -126,13 +139,9 @@ def strategies_text(
     return StrategiesResult(heading, headers, rows, best, goal)
 
 
-DEFAULT_PLANS = ("timid", "bold")
-LENGTH_POINTS = 12
-
-
 @dataclass(frozen=True)
 class PlanSeries:
-    """What the charts draw for one plan: the engines' own decimals, nothing derived here."""
+    """What the charts draw for one plan: the core's own decimals, nothing derived here."""
 
     plan: str
     bankrolls: tuple[float, ...]
@@ -143,7 +152,8 @@ class PlanSeries:
 
 @dataclass(frozen=True)
 class SessionsResult:
-    """Bankroll plans side by side (``exact | decimal`` cells) and the series for the two charts."""
+    """Bankroll plans side by side (``exact | decimal`` cells) and the series for the two charts
+    (none with no goal: such play only ends at ruin)."""
 
     heading: str
     headers: tuple[str, ...]
@@ -153,20 +163,17 @@ class SessionsResult:
 
 
 def parse_plans(text: str) -> tuple[str, ...]:
-    """Plans typed as ``timid, bold, flat:2``; each is checked by ``strategy.plans.parse_plan``."""
-    from oddsbench.strategy.plans import parse_plan
+    """Plans typed as ``timid, bold, flat:2``, read by the one plan grammar (its messages are the CLI's)."""
+    from oddsbench.core.plans import parse_plans as read_plans
 
-    spellings = tuple(part.strip() for part in text.replace(";", ",").split(",") if part.strip())
-    for spelling in spellings:
-        parse_plan(spelling)  # raises OddsbenchError with the CLI's own message
-    return spellings
+    return tuple(plan.spelling for plan in read_plans(text))
 
 
 def session_settings_of(ruleset: Ruleset):
     """The file's ``[session]`` table as settings (raises OddsbenchError naming the field)."""
-    from oddsbench.strategy.session import merge_settings, settings_from_table
+    from oddsbench.core.session import session_settings
 
-    return merge_settings(settings_from_table(ruleset.session, ruleset.source), {}, ruleset.source)
+    return session_settings(_game(ruleset), None)
 
 
 def sessions_text(
@@ -175,46 +182,60 @@ def sessions_text(
     plans: tuple[str, ...],
     should_stop: Callable[[], bool] | None = None,
 ) -> SessionsResult | RoundFailure:
-    """Every plan's session figures, its goal-chance series and its chance of still playing after n rounds."""
-    from oddsbench.report.session_report import session_rows
-    from oddsbench.solve.round_distribution import round_distribution_of
-    from oddsbench.strategy.session import analyse_session
+    """Every plan's session figures (with the file's goal, or none), its goal-chance series and its chance
+    of still playing after n rounds."""
+    from oddsbench.core.session import sessions, still_playing
 
     if not plans:
         return RoundFailure("type one or more plans to compare, e.g. timid, bold, flat:2, martingale:1:6")
+    work = _work(should_stop)
+    settings = Settings(strategies=_played(ruleset, strategy), session=SessionRequest(plans=tuple(plans)))
     try:
-        settings = session_settings_of(ruleset)
-        distribution = round_distribution_of(ruleset, policy_of(ruleset, strategy))
-        results = [analyse_session(distribution, settings, plan, should_stop=should_stop) for plan in plans]
+        results = sessions(_game(ruleset), settings, work)
+        if results.no_goal:
+            return _no_goal_result(results)
         series = []
-        for result in results:
+        for result in results.bounded:
             # sample points for the chart only (decimals for a picture: the exact figures are in the table)
             horizon = max(1, int(result.figures["expected_rounds"].decimal * 3))
             points = sorted({max(1, horizon * k // (LENGTH_POINTS - 1)) for k in range(LENGTH_POINTS)})
-            playing = [
-                analyse_session(distribution, settings, result.plan, exact_limit=0, rounds=n, should_stop=should_stop)
-                .figures["within_playing_probability"]
-                .decimal
-                for n in points
-            ]
-            series.append(
-                PlanSeries(
-                    result.plan,
-                    tuple(float(b) for b in _floats(result.series_bankrolls())),
-                    result.goal_series,
-                    (0, *points),
-                    (1.0, *playing),
-                )
-            )
+            playing = still_playing(results, result.plan, points, work)
+            bankrolls = tuple(float(b) for b in _floats(result.series_bankrolls()))
+            series.append(PlanSeries(result.plan, bankrolls, result.goal_series, (0, *points), (1.0, *playing)))
     except OddsbenchError as error:
         return RoundFailure(str(error))
-    rows = tuple(tuple(row) for row in session_rows(results))
+    from oddsbench.report.session_report import session_rows
+
+    rows = tuple(tuple(row) for row in session_rows(results.bounded))
+    settings_now = results.settings
     heading = (
-        f"{ruleset.title}: sessions from bankroll {shown_money(settings.bankroll)} to goal "
-        f"{shown_money(settings.goal)}, {len(plans)} plan(s) (cells: exact | decimal)"
+        f"{ruleset.title}: sessions from bankroll {shown_money(settings_now.bankroll)} to goal "
+        f"{shown_money(settings_now.goal)}, {len(plans)} plan(s) (cells: exact | decimal)"
     )
-    notes = tuple(f"{r.plan}: {note}" for r in results for note in r.notes)
+    notes = tuple(f"{r.plan}: {note}" for r in results.bounded for note in r.notes)
     return SessionsResult(heading, ("quantity", *plans), rows, tuple(series), notes)
+
+
+def _no_goal_result(results) -> SessionsResult:
+    """Play with no goal: each plan's ruin figures side by side, one ``exact | decimal`` cell each."""
+    from oddsbench.report.no_goal_report import no_goal_rows
+
+    labels: list[str] = []
+    cells: list[dict[str, str]] = []
+    for plan in results.plans:
+        by_label = {}
+        for label, exact, decimal in no_goal_rows(plan.no_goal):
+            by_label[label] = " | ".join(part for part in (exact, decimal) if part)
+            if label not in labels:
+                labels.append(label)
+        cells.append(by_label)
+    rows = tuple((label, *(column.get(label, "-") for column in cells)) for label in labels)
+    heading = (
+        f"{results.title}: play with no goal from bankroll {shown_money(results.settings.bankroll)}, "
+        f"until ruin, {len(results.plans)} plan(s) (cells: exact | decimal; no charts: play only ends at ruin)"
+    )
+    notes = tuple(f"{plan.plan}: {note}" for plan in results.plans for note in plan.notes)
+    return SessionsResult(heading, ("quantity", *(plan.plan for plan in results.plans)), rows, (), notes)
 
 
 def shown_money(value) -> str:

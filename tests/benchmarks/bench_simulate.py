@@ -39,9 +39,9 @@ def sessions(trials: int) -> None:
     """Whole sessions: each round played on the round chain; figure is session rounds per second."""
     from oddsbench.model.numbers import QQ
     from oddsbench.simulate.round_sim import RoundPlayer
-    from oddsbench.simulate.session_sim import session_chain, simulate_session
+    from oddsbench.simulate.session_sim import simulate_session
     from oddsbench.solve.round_distribution import round_distribution
-    from oddsbench.strategy.session import SessionSettings
+    from oddsbench.strategy.session import SessionSettings, session_chain
 
     print(f"\nsimulated sessions, {trials:,} per plan, one process")
     print(f"{'game, plan, bankroll -> goal':<44} {'rounds/s':>12} {'sessions/s':>12} {'seconds':>8}")
@@ -55,7 +55,7 @@ def sessions(trials: int) -> None:
         chain = build_round_chain(load_ruleset(RULESETS / name))
         distribution = round_distribution(chain)
         settings = SessionSettings(QQ(bankroll), QQ(goal))
-        bankroll_chain = session_chain(distribution, settings, plan, 5_000)
+        bankroll_chain = session_chain(distribution, settings, plan, 5_000).chain
         player = RoundPlayer.of(chain)
         began = time.perf_counter()
         sample = simulate_session(bankroll_chain, trials, 1, player, plan=plan)

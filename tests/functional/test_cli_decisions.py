@@ -24,15 +24,23 @@ def test_best_prints_hold_decisions_exact_value_and_certificate(capsys):
     assert all(caution in out for caution in CAUTIONS)
 
 
+def result_of(data: dict, key: str, value: str) -> dict:
+    """The one object of ``solve --json``'s ``results`` whose ``key`` (start or strategy) is ``value``."""
+    (found,) = [result for result in data["results"] if result[key] == value]
+    return found
+
+
 def test_best_json_has_the_documented_keys(capsys):
     code, out, _ = run_cli(capsys, "best", PIG, "--json")
     data = json.loads(out)
     assert code == 0
-    assert {"goal", "value", "policy", "certified", "notes"} <= data.keys()
-    assert data["goal"] == "max-return" and data["certified"] is True
-    assert data["value"]["exact"] == "492303203/60466176"
-    assert abs(data["value"]["decimal"] - 492303203 / 60466176) < 1e-15
-    assert data["policy"]["turn-19"] == "roll" and data["policy"]["turn-20"] == "hold" and len(data["policy"]) == 99
+    assert {"command", "version", "goal", "best", "checks", "notes", "cautions"} <= data.keys()
+    best = data["best"]
+    assert {"value", "policy", "certified", "notes"} <= best.keys() and data["checks"] == []
+    assert data["goal"] == "max-return" and best["certified"] is True
+    assert best["value"]["exact"] == "492303203/60466176"
+    assert abs(best["value"]["decimal"] - 492303203 / 60466176) < 1e-15
+    assert best["policy"]["turn-19"] == "roll" and best["policy"]["turn-20"] == "hold" and len(best["policy"]) == 99
 
 
 def test_best_every_state_lists_each_decision_state(capsys):
@@ -50,7 +58,9 @@ def test_check_strategy_reports_state_and_better_action(capsys):
 def test_check_strategy_json_for_an_optimal_strategy(capsys):
     _, out, _ = run_cli(capsys, "best", PIG, "--check-strategy", "hold-at-20", "--json")
     data = json.loads(out)
-    assert data["optimal"] is True and data["improvements"] == [] and data["value"] == data["best_value"]
+    assert data["best"] is None and [check["strategy"] for check in data["checks"]] == ["hold-at-20"]
+    check = data["checks"][0]
+    assert check["optimal"] is True and check["improvements"] == [] and check["value"] == check["best_value"]
 
 
 def test_solve_without_strategy_shows_named_strategies_side_by_side(capsys):
@@ -65,19 +75,22 @@ def test_solve_without_strategy_shows_named_strategies_side_by_side(capsys):
 def test_solve_side_by_side_json_has_one_object_per_strategy(capsys):
     _, out, _ = run_cli(capsys, "solve", PIG, "--json")
     data = json.loads(out)
-    assert data["strategies"] == ["hold-at-10", "hold-at-15", "hold-at-20", "hold-at-25"]
-    assert data["by_strategy"]["hold-at-20"]["figures"]["expected_net"]["exact"] == "492303203/60466176"
-    assert data["by_strategy"]["hold-at-20"]["policy"]["turn-19"] == "roll"
+    assert data["compared"] == "strategies"
+    assert [r["strategy"] for r in data["results"]] == ["hold-at-10", "hold-at-15", "hold-at-20", "hold-at-25"]
+    assert result_of(data, "strategy", "hold-at-20")["figures"]["expected_net"]["exact"] == "492303203/60466176"
+    assert result_of(data, "strategy", "hold-at-20")["policy"]["turn-19"] == "roll"
 
 
 def test_solve_with_a_strategy_gives_that_strategy_alone(capsys):
     _, out, _ = run_cli(capsys, "solve", PIG, "--strategy", "hold-at-15", "--json")
-    assert json.loads(out)["figures"]["expected_net"]["exact"] == "732275/93312"
+    data = json.loads(out)
+    assert data["compared"] is None and [r["strategy"] for r in data["results"]] == ["hold-at-15"]
+    assert data["results"][0]["figures"]["expected_net"]["exact"] == "732275/93312"
 
 
 def test_solve_from_a_state_gives_the_dealer_row_for_that_upcard(capsys):
     _, out, _ = run_cli(capsys, "solve", DEALER, "--from", "up-6", "--json")
-    ends = json.loads(out)["figures"]["end_probability"]
+    ends = json.loads(out)["results"][0]["figures"]["end_probability"]
     assert round(ends["bust"]["decimal"], 4) == 0.4232  # Griffin, The Theory of Blackjack (from memory)
 
 
@@ -120,17 +133,16 @@ def test_solve_from_a_pattern_puts_every_upcard_side_by_side(capsys):
 def test_solve_from_a_list_json_has_one_object_per_start(capsys):
     _, out, _ = run_cli(capsys, "solve", DEALER, "--from", "up-10,up-11", "--json")
     data = json.loads(out)
-    assert data["starts"] == ["up-10", "up-11"]
-    assert data["by_start"]["up-11"]["figures"]["end_probability"]["blackjack"]["exact"] == "4/13"
+    assert data["compared"] == "starts" and [r["start"] for r in data["results"]] == ["up-10", "up-11"]
+    assert result_of(data, "start", "up-11")["figures"]["end_probability"]["blackjack"]["exact"] == "4/13"
 
 
 def test_several_starts_of_a_file_with_decisions_need_a_strategy(capsys):
     code, _, err = run_cli(capsys, "solve", PIG, "--from", "turn-0,turn-10")
     assert code == 2 and "choose a strategy to compare start states" in err
     code, out, _ = run_cli(capsys, "solve", PIG, "--from", "turn-0,turn-10", "--strategy", "hold-at-20", "--json")
-    assert (
-        code == 0 and json.loads(out)["by_start"]["turn-0"]["figures"]["expected_net"]["exact"] == "492303203/60466176"
-    )
+    assert code == 0
+    assert result_of(json.loads(out), "start", "turn-0")["figures"]["expected_net"]["exact"] == "492303203/60466176"
 
 
 def test_pattern_matching_no_state_exits_2(capsys):

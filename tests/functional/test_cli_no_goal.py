@@ -45,7 +45,9 @@ def test_json_of_no_goal(capsys):
         capsys, "session", "--round", EVEN_51, "--bankroll", "20", "--goal", "none", "--plan", "flat:1", "--json"
     )
     body = json.loads(out)
-    assert code == 0 and body["ruin"]["closed_form"] == "(49/51)^20" and body["plan"] == "flat:1"
+    (plan,) = body["plans"]
+    assert code == 0 and plan["ruin"]["closed_form"] == "(49/51)^20" and plan["plan"] == "flat:1"
+    assert plan["goal"] == "none" and body["settings"]["goal"] == "none"
 
 
 def test_bold_play_with_no_goal_is_refused_in_one_line(capsys):

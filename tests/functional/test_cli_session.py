@@ -46,7 +46,9 @@ def test_session_json_has_exact_and_decimal_pairs(capsys):
     )
     assert code == 0
     body = json.loads(out)
-    bold = body["plans"]["bold"]
+    assert [plan["plan"] for plan in body["plans"]] == ["bold", "kelly:1/2"]
+    bold = body["plans"][0]
+    assert bold["goal"] == "bounded"
     for name in (
         "goal_probability",
         "ruin_probability",
@@ -55,8 +57,8 @@ def test_session_json_has_exact_and_decimal_pairs(capsys):
         "expected_staked",
         "expected_final_bankroll",
     ):
-        assert set(bold[name]) == {"exact", "decimal"}
-    assert bold["goal_probability"]["exact"] is not None
+        assert set(bold["figures"][name]) == {"exact", "decimal"}
+    assert bold["figures"]["goal_probability"]["exact"] is not None
     assert len(bold["goal_probability_by_bankroll"]) == 21
     assert body["cautions"]
 

@@ -15,12 +15,14 @@ def test_json_gives_house_edge_7_of_495_for_pass_line(capsys):
     # Pass line edge 7/495: Ethier, The Doctrine of Chances, ch. 15 (from memory).
     code, out, _ = run_cli(capsys, "solve", RULESETS / "pass-line.toml", "--json")
     data = json.loads(out)
+    (result,) = data["results"]
     assert code == 0
-    assert data["figures"]["house_edge"]["exact"] == "7/495"
-    assert abs(data["figures"]["house_edge"]["decimal"] - 7 / 495) < 1e-15
-    assert data["figures"]["end_probability"]["won"]["exact"] == "244/495"
-    assert data["ruleset"] == "Pass line" and data["start"] == "come-out" and data["states"] == 9
-    assert data["notes"] == []
+    assert result["figures"]["house_edge"]["exact"] == "7/495"
+    assert abs(result["figures"]["house_edge"]["decimal"] - 7 / 495) < 1e-15
+    assert result["figures"]["end_probability"]["won"]["exact"] == "244/495"
+    assert data["ruleset"] == "Pass line" and result["start"] == "come-out" and result["states"] == 9
+    assert data["notes"] == [] and result["notes"] == []
+    assert data["command"] == "solve" and data["version"] == 2
 
 
 def test_human_table_shows_exact_beside_decimal_and_percent(capsys):
@@ -40,16 +42,18 @@ def test_rounds_option_adds_chance_ended_by_step(capsys):
     _, out, _ = run_cli(capsys, "solve", RULESETS / "pass-line.toml", "--rounds", "1", "--json")
     data = json.loads(out)
     # After one roll only the come-out naturals and craps have ended: 12/36 = 1/3.
-    assert data["figures"]["ended_by"]["exact"] == "1/3"
-    assert data["figures"]["end_probability_by_step"]["won"]["exact"] == "2/9"
+    figures = data["results"][0]["figures"]
+    assert figures["ended_by"]["exact"] == "1/3"
+    assert figures["end_probability_by_step"]["won"]["exact"] == "2/9"
 
 
 def test_exact_limit_zero_gives_decimals_only_with_a_note(capsys):
     _, out, _ = run_cli(capsys, "solve", RULESETS / "pass-line.toml", "--json", "--exact-limit", "0")
     data = json.loads(out)
-    assert data["figures"]["house_edge"]["exact"] is None
-    assert abs(data["figures"]["house_edge"]["decimal"] - 7 / 495) < 1e-12
-    assert any("exact arithmetic skipped" in note for note in data["notes"])
+    (result,) = data["results"]
+    assert result["figures"]["house_edge"]["exact"] is None
+    assert abs(result["figures"]["house_edge"]["decimal"] - 7 / 495) < 1e-12
+    assert any("exact arithmetic skipped" in note for note in result["notes"])
 
 
 def test_console_module_runs_as_a_program():
@@ -60,7 +64,7 @@ def test_console_module_runs_as_a_program():
         timeout=120,
     )
     assert done.returncode == 0, done.stderr
-    assert json.loads(done.stdout)["figures"]["house_edge"]["exact"] == "1/37"
+    assert json.loads(done.stdout)["results"][0]["figures"]["house_edge"]["exact"] == "1/37"
 
 
 def test_bad_option_value_exits_2(capsys):

@@ -80,7 +80,7 @@ def test_one_named_strategy_restricts_the_report(capsys, choice_game):
     game = choice_game
     assert main(["report", str(game), "--format", "json", "--strategy", "careful"]) == 0
     body = json.loads(capsys.readouterr().out)
-    assert [r["strategy"] for r in body["rounds"]] == ["careful"] and "strategies_compared" not in body
+    assert [r["strategy"] for r in body["rounds"]] == ["careful"] and body["strategies_compared"] is None
 
 
 def test_session_comparison_parses_back_from_csv_and_json(tmp_path):

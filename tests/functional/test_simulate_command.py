@@ -22,8 +22,9 @@ def test_simulate_prints_the_estimate_its_interval_and_7_495(capsys):
 def test_simulate_json_names_the_seed_and_no_value_outside(capsys):
     assert main(["simulate", PASS_LINE, "--trials", "50000", "--seed", "9", "--json"]) == 0
     body = json.loads(capsys.readouterr().out)
-    assert body["seed"] == 9 and body["trials"] == 50_000 and body["outside"] == []
-    edge = next(item for item in body["estimates"] if item["name"] == "house_edge")
+    assert body["command"] == "simulate" and body["sessions"] is None
+    assert body["seed"] == 9 and body["rounds"]["trials"] == 50_000 and body["outside"] == []
+    edge = next(item for item in body["rounds"]["estimates"] if item["name"] == "house_edge")
     assert edge["exact"] == "7/495" and edge["interval"][0] < edge["exact_decimal"] < edge["interval"][1]
     assert body["cautions"] == list(CAUTIONS)
 
@@ -56,8 +57,8 @@ def test_the_best_play_for_a_goal_is_simulated_against_its_exact_figures(capsys,
     pig = str(rulesets_dir / "pig-turn.toml")
     assert main(["simulate", pig, "--trials", "50000", "--seed", "2", "--best", "max-return", "--json"]) == 0
     body = json.loads(capsys.readouterr().out)
-    assert body["outside"] == [] and body["policy"]
-    names = {item["name"] for item in body["estimates"]}
+    assert body["outside"] == [] and body["rounds"]["policy"]
+    names = {item["name"] for item in body["rounds"]["estimates"]}
     # a turn of Pig stakes nothing, so there is no house edge to estimate (as in `solve`)
     assert "house_edge" not in names and "expected_net" in names
 
@@ -76,8 +77,9 @@ def test_simulate_sessions_as_json_lists_each_plan(capsys):
     wheel = str(RULESETS / "single-zero-wheel.toml")
     assert main(["simulate", wheel, "--session", "--plan", "bold", "--trials", "5000", "--seed", "1", "--json"]) == 0
     body = json.loads(capsys.readouterr().out)
-    (plan,) = body["plans"]
-    assert plan["plan"] == "bold" and plan["outside"] == [] and body["session"]["bankroll"] == "100"
+    (plan,) = body["sessions"]["plans"]
+    assert plan["plan"] == "bold" and plan["outside"] == [] and body["sessions"]["settings"]["bankroll"] == "100"
+    assert body["rounds"] is None and body["outside"] == []
 
 
 def test_sessions_need_a_bankroll_and_a_goal(capsys, tmp_path):

@@ -6,11 +6,18 @@ import json
 from pathlib import Path
 
 from oddsbench.cli.main import main
+from oddsbench.core.sweeps import solve_task
 from oddsbench.model.numbers import QQ, parse_fraction
 from oddsbench.report.cautions import CAUTIONS
 from oddsbench.report.sweep_report import sweep_json
-from oddsbench.sweep.runners import run_sweep
+from oddsbench.sweep import runners
 from oddsbench.sweep.spec import read_sweep_spec
+
+
+def run_sweep(spec, workers: int):
+    """Every point on the chosen runner, each solved by the core's per-point function."""
+    return runners.run_sweep(spec, solve_task, workers=workers)
+
 
 ROOT = Path(__file__).resolve().parents[2]
 EXAMPLE = ROOT / "examples" / "wheel-payout-sweep.toml"

@@ -1,4 +1,4 @@
-"""Endless play (no goal) on random walks (hypothesis): bounds and cut-bet engines against truncation."""
+"""Play with no goal on random walks (hypothesis): bounds and cut-bet engines against truncation."""
 
 from __future__ import annotations
 
@@ -11,7 +11,7 @@ from hypothesis import assume, given, settings
 from hypothesis import strategies as st
 
 from oddsbench.model.numbers import QQ
-from oddsbench.solve.unbounded_ruin import solve_unbounded_ruin
+from oddsbench.solve.ruin import solve_no_goal_ruin
 
 EXAMPLES = int(os.environ.get("ODDSBENCH_HEAVY_EXAMPLES", "20"))
 
@@ -41,7 +41,7 @@ def mean_of(law):
 def test_lundberg_bound_is_never_below_the_exact_value(weights, bankroll):
     law = law_of(*weights)
     assume(mean_of(law) > 0)  # the bound is about favourable walks
-    ruin = solve_unbounded_ruin(law, bankroll, digits=20, check=False)
+    ruin = solve_no_goal_ruin(law, bankroll, digits=20, check=False)
     mpmath.mp.dps = 40
     assert mpmath.mpf(ruin.ruin.text) <= mpmath.mpf(ruin.lundberg.text) * (1 + mpmath.mpf(10) ** -18)
     if ruin.is_skip_free:
@@ -51,20 +51,20 @@ def test_lundberg_bound_is_never_below_the_exact_value(weights, bankroll):
 @settings(max_examples=EXAMPLES, deadline=None)
 @given(LAWS, BETS, st.integers(1, 12))
 def test_cut_bet_walks_agree_with_exact_truncation(weights, bets, bankroll):
-    from oddsbench.solve.clipped_ruin import ruin_before_goal_levels, solve_clipped_ruin
+    from oddsbench.solve.ruin import ruin_before_goal_levels, solve_cut_bet_ruin
 
     losses, _ = weights
     law = law_of(*weights)
     small, full = bets
     tail = scaled(law, full)
     bottom = [scaled(law, small)] * (full * len(losses) - 1)
-    ruin = solve_clipped_ruin(tail, bottom, bankroll, digits=15, check=False)
+    ruin = solve_cut_bet_ruin(tail, bottom, bankroll, digits=15, check=False)
     problem = levels_problem(tail, bottom, bankroll)
     if ruin.verdict == "possible":
         rate = float(ruin.adjustment_coefficient.value) * ruin.step
         goal = bankroll + len(bottom) + 1 + ruin.step * (1 + math.ceil(7 * math.log(10) / rate))
         assume(goal <= 600)  # a truncation far enough for a gap below 1e-7 stays small
-        lower = float(ruin_before_goal_levels(problem, bankroll, goal))
+        lower = float(ruin_before_goal_levels(problem.law_at, bankroll, goal))
         assert lower - 1e-12 <= ruin.ruin.value <= lower + 2e-7  # gap below rho^distance <= 1e-7
     else:
         assert ruin.ruin_exact == 1
@@ -73,7 +73,7 @@ def test_cut_bet_walks_agree_with_exact_truncation(weights, bets, bankroll):
 @settings(max_examples=max(EXAMPLES // 2, 5), deadline=None)
 @given(LAWS, BETS, st.integers(1, 12))
 def test_subfair_expected_rounds_agree_with_a_long_truncated_walk(weights, bets, bankroll):
-    from oddsbench.solve.clipped_ruin import solve_clipped_ruin
+    from oddsbench.solve.ruin import solve_cut_bet_ruin
 
     losses, _ = weights
     law = law_of(*weights)
@@ -81,7 +81,7 @@ def test_subfair_expected_rounds_agree_with_a_long_truncated_walk(weights, bets,
     small, full = bets
     tail = scaled(law, full)
     bottom = [scaled(law, small)] * (full * len(losses) - 1)
-    ruin = solve_clipped_ruin(tail, bottom, bankroll, digits=15)
+    ruin = solve_cut_bet_ruin(tail, bottom, bankroll, digits=15)
     truth = expected_rounds_by_truncation(levels_problem(tail, bottom, bankroll), bankroll)
     shown = ruin.rounds_to_ruin.decimal
     assert shown is not None and abs(shown.value - truth) < 1e-6 * max(1.0, truth)

@@ -271,8 +271,8 @@ async def test_escape_cancels_a_long_solve_and_keeps_the_workbench_responsive(tm
     import asyncio
     import threading
 
-    from oddsbench.solve.cancel import SolveCancelled
     from oddsbench.tui import analysis
+    from oddsbench.tui.analysis import SolveCancelled
 
     asked, released, ended, outcome = threading.Event(), threading.Event(), threading.Event(), []
     solve = analysis.solve_round_text

@@ -9,9 +9,9 @@ from oddsbench.model.load import load_ruleset
 from oddsbench.model.numbers import QQ
 from oddsbench.simulate.checks import session_checks
 from oddsbench.simulate.round_sim import RoundPlayer
-from oddsbench.simulate.session_sim import session_chain, simulate_session
+from oddsbench.simulate.session_sim import simulate_session
 from oddsbench.solve.round_distribution import round_distribution
-from oddsbench.strategy.session import SessionSettings, analyse_session
+from oddsbench.strategy.session import SessionSettings, analyse_session, session_chain
 
 RULESETS = Path(__file__).resolve().parents[2] / "rulesets"
 
@@ -20,7 +20,7 @@ def checks_for(name, settings, plan, trials=40_000, seed=1, truth_settings=None)
     round_chain = build_round_chain(load_ruleset(RULESETS / name))
     distribution = round_distribution(round_chain)
     figures = analyse_session(distribution, truth_settings or settings, plan)
-    chain = session_chain(distribution, settings, plan, 5_000)
+    chain = session_chain(distribution, settings, plan, 5_000).chain
     sample = simulate_session(chain, trials, seed, RoundPlayer.of(round_chain), settings.max_rounds, plan=plan)
     return sample, session_checks(sample, figures)
 

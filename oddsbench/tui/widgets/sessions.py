@@ -77,7 +77,7 @@ class SessionsPanel(VerticalScroll):
             title.append("  solving…", style="magenta")
         heading.update(title)
         table.display = True
-        charts.display = True
+        charts.display = bool(result.series)  # play with no goal has no goal chance and no length to draw
         table.clear(columns=True)
         table.add_columns(*result.headers)
         for row in result.rows:

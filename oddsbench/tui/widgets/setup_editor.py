@@ -141,7 +141,7 @@ class SessionEditor(Vertical):
     """The file's ``[session]`` table: bankroll, goal and limits, shared by every plan."""
 
     def compose(self) -> ComposeResult:
-        from oddsbench.strategy.session import SETTING_NAMES
+        from oddsbench.model.defaults import SESSION_SETTING_NAMES as SETTING_NAMES
 
         yield Static(
             "Session: the bankroll and limits every plan in Sessions (F5) plays with", classes="editor-heading"

@@ -13,9 +13,8 @@ from dataclasses import dataclass
 from textual.worker import get_current_worker
 
 from oddsbench.model.errors import OddsbenchError
-from oddsbench.solve.cancel import SolveCancelled
 from oddsbench.tui import analysis
-from oddsbench.tui.analysis import Reading, RoundFailure
+from oddsbench.tui.analysis import Reading, RoundFailure, SolveCancelled
 
 READ, ROUND, STRATEGIES, SESSIONS = "read", "round", "strategies", "sessions"
 # Jobs in one group replace each other: a new text's reading cancels the solve of the old text.

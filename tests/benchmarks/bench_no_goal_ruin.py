@@ -1,6 +1,6 @@
-"""Endless play (no goal): the root method against truncation at a far goal (run on demand).
+"""Play with no goal: the root method against truncation at a far goal (run on demand).
 
-    python tests/benchmarks/bench_unbounded_ruin.py [--quick]
+    python tests/benchmarks/bench_no_goal_ruin.py [--quick]
 
 For each walk: our time (roots + interval arithmetic, 30 proved digits, no cross-check) beside
 the baseline a user would otherwise run, exact truncation at a goal far enough for a gap below
@@ -15,7 +15,7 @@ import time
 
 import oddsbench  # noqa: F401  (sets FLINT ground types before sympy loads)
 from oddsbench.model.numbers import QQ
-from oddsbench.solve.unbounded_ruin import ruin_before_goal, ruin_before_goal_float, solve_unbounded_ruin
+from oddsbench.solve.ruin import ruin_before_goal, ruin_before_goal_float, solve_no_goal_ruin
 
 WALKS = {
     "even money 51/49, bankroll 20": ({1: QQ(51, 100), -1: QQ(49, 100)}, 20),
@@ -35,7 +35,7 @@ def main() -> None:
     quick = "--quick" in sys.argv
     print(f"{'walk':34s} {'roots (s)':>10s} {'goal':>6s} {'exact trunc (s)':>16s} {'float trunc (s)':>16s}")
     for name, (law, bankroll) in WALKS.items():
-        ruin, ours = timed(solve_unbounded_ruin, law, bankroll, digits=30, check=False)
+        ruin, ours = timed(solve_no_goal_ruin, law, bankroll, digits=30, check=False)
         rate = float(ruin.adjustment_coefficient.value) * ruin.step
         goal = ruin.steps_bankroll + 1 + math.ceil(12 * math.log(10) / rate)
         ordered = tuple(sorted(law.items()))

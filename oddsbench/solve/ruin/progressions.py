@@ -1,4 +1,4 @@
-"""Endless play with a bounded progression (martingale or paroli with a series cap).
+"""Play with no goal under a bounded progression (martingale or paroli with a series cap).
 
 The bet depends on the plan's state (its place in the series), so the bankroll is a random walk
 modulated by a finite Markov chain: a Markov additive process. Above the level K where every
@@ -8,11 +8,11 @@ with a proved error bound:
 * Verdict: with pi the stationary law of the plan's states and m_j the expected result in
   state j, the long-run drift is sum_j pi_j m_j. Drift <= 0 (and a plan chain that returns to
   every state): ruin is certain. Drift > 0: ruin is possible.
-* Lundberg for a modulated walk: if R > 0 and h > 0 satisfy sum_o p_o e^{-R x_jo} h(next_jo)
-  <= h(j) for every state j, then h(J_n) e^{-R Z_n} is a supermartingale above K, so from level
-  y in state j the chance of ever falling below K is at most h(j) / min h * e^{-R (y - K + 1)}.
-  We find R and h in floats and then verify the inequality in ball arithmetic (arb); only a
-  verified pair is used.
+* Lundberg for a modulated walk (Asmussen and Albrecher, Ruin Probabilities, ch. VII): if R > 0
+  and h > 0 satisfy sum_o p_o e^{-R x_jo} h(next_jo) <= h(j) for every state j, then
+  h(J_n) e^{-R Z_n} is a supermartingale above K, so from level y in state j the chance of ever
+  falling below K is at most h(j) / min h * e^{-R (y - K + 1)}. We find R and h in floats and
+  then verify the inequality in ball arithmetic (arb); only a verified pair is used.
 * P(ruin before the bankroll reaches G) is a finite first-step system (exact for small systems,
   floats otherwise); it rises to the answer and the gap is at most max h / min h e^{-R (G-K+1)}.
 """
@@ -21,32 +21,40 @@ from __future__ import annotations
 
 import math
 from collections.abc import Callable, Sequence
-from dataclasses import dataclass
 
 from oddsbench.model.errors import OddsbenchError
-from oddsbench.model.numbers import QQ, Rational, denominator, numerator, text
-from oddsbench.solve import unbounded_ruin as ur
+from oddsbench.model.numbers import QQ, Rational, text
+from oddsbench.solve.cancel import StopCheck
+from oddsbench.solve.ruin.balls import (
+    Certified,
+    arb_of,
+    bits_for,
+    cancellable,
+    certified,
+    certified_exact,
+    current_stop,
+    interval,
+    precision,
+)
+from oddsbench.solve.ruin.law import Law, ceil_div, largest_loss, law_step, reduced_law
+from oddsbench.solve.ruin.result import (
+    PROGRESSION,
+    VERDICT_CERTAIN,
+    VERDICT_POSSIBLE,
+    NoGoalRuin,
+    RoundsToRuin,
+    WalkFacts,
+    no_goal_ruin,
+    settled_ruin,
+)
 
 Move = tuple[int, Rational, int]  # (jump in grid steps, chance, next plan state)
 MAX_MODULATED_STATES = 400_000
 EXACT_WORK = 5_000_000  # states^2 x band: larger truncations are solved in floats (~0.5 s)
-
-
-@dataclass(frozen=True)
-class ModulatedRuin:
-    """The ruin figures of a modulated walk, from one level and plan state."""
-
-    verdict: str  # certain | possible
-    reason: str
-    drift: Rational  # long-run expected result per round (grid steps), exact
-    ruin: ur.Certified
-    lower: Rational | None  # exact P(ruin before the goal), when solved exactly
-    goal: int
-    gap_bound: ur.Certified | None
-    adjustment_coefficient: float | None  # verified R (per grid step)
-    lundberg: ur.Certified | None  # h(j0)/min h x exp(-R (level - K + 1)): an upper bound
-    arithmetic: str  # "exact" or "floating point"
-    method: str
+PROGRESSION_DIGITS = 15  # a truncation in floats can vouch for no more
+NO_VARIANCE = "the law of a round changes with the plan's place in the series: no single variance"
+NO_DIFFUSION = "not given for progressions"
+AS_TRUNCATION = "the progression's answer is itself a truncation at a far goal (see its method)"
 
 
 def stationary_drift(states: int, moves_top: Sequence[Sequence[Move]]) -> Rational:
@@ -77,7 +85,7 @@ def _tilted(moves_top, states: int, rate: float):
     return matrix
 
 
-def _verified_lundberg(moves_top, states: int):
+def verified_lundberg(moves_top, states: int):
     """(R, h) with the supermartingale inequality verified in ball arithmetic, or None."""
     import numpy as np
     from flint import arb
@@ -105,13 +113,13 @@ def _verified_lundberg(moves_top, states: int):
             continue
         h = h / h.min()
         scaled = int(rate * 2**40)  # R as a dyadic rational, slightly below the float found
-        with ur._precision(128):
+        with precision(128):
             rate_ball = arb(scaled) / arb(2) ** 40
             ok = True
             for j, moves in enumerate(moves_top):
                 total = arb(0)
                 for jump, chance, nxt in moves:
-                    total += ur._arb_of(chance) * (-rate_ball * jump).exp() * arb(float(h[nxt]))
+                    total += arb_of(chance) * (-rate_ball * jump).exp() * arb(float(h[nxt]))
                 if not total <= arb(float(h[j])):
                     ok = False
                     break
@@ -120,41 +128,70 @@ def _verified_lundberg(moves_top, states: int):
     return None
 
 
-def solve_modulated_ruin(
+def solve_progression_ruin(
     states: int,
     moves_at: Callable[[int, int], Sequence[Move]],
     top: int,
     level: int,
+    full_bet_law: Law,
     start_state: int = 0,
-    digits: int = 15,
-    should_stop: Callable[[], bool] | None = None,
-) -> ModulatedRuin:
+    digits: int = PROGRESSION_DIGITS,
+    unit_name: str = "grid steps",
+    notes: Sequence[str] = (),
+    should_stop: StopCheck = None,
+) -> NoGoalRuin:
     """Ruin from ``level`` (grid steps above the ruin line) in plan state ``start_state``.
 
     ``moves_at(k, j)`` lists the moves from level k in plan state j; from ``top`` up they must not
-    depend on k.
+    depend on k. ``full_bet_law`` is the law of the plan's largest bet (shown with the walk);
+    ``unit_name`` names the grid step in the reason.
     """
+    with cancellable(should_stop):
+        return _solve(states, moves_at, top, level, full_bet_law, start_state, digits, unit_name, notes)
+
+
+def _solve(states, moves_at, top, level, full_bet_law, start_state, digits, unit_name, notes) -> NoGoalRuin:
+    digits = min(digits, PROGRESSION_DIGITS)
     moves_top = [tuple(moves_at(top, j)) for j in range(states)]
     drift = stationary_drift(states, moves_top)
+    every_jump = tuple(sorted({(jump, QQ(0)) for moves in moves_top for jump, _, _ in moves}))
+    step = law_step(every_jump)
+    facts = WalkFacts(
+        PROGRESSION,
+        level,
+        full_bet_law,
+        step,
+        ceil_div(level, step),
+        drift,
+        None,
+        largest_loss(reduced_law(every_jump, step)),
+    )
     if drift <= 0:
-        reason = (
-            f"the long-run expected result per round of the progression is {text(drift)} grid steps (<= 0): "
-            "the bankroll returns below every level, so ruin comes with probability 1"
+        return settled_ruin(
+            facts,
+            verdict=VERDICT_CERTAIN,
+            ruin=QQ(1),
+            reason=(
+                f"the long-run expected result per round of the progression is {text(drift)} {unit_name} (<= 0): "
+                "the bankroll returns below every level, so ruin comes with probability 1"
+            ),
+            method="long-run drift of the progression <= 0",
+            diffusion_reason=NO_DIFFUSION,
+            rounds=RoundsToRuin(
+                "finite" if drift < 0 else "infinite",
+                None,
+                None,
+                None,
+                None,
+                "finite for a losing progression (not computed for progressions)"
+                if drift < 0
+                else "fair progression: ruin is certain but its expected time is infinite",
+            ),
+            notes=notes,
+            digits=digits,
+            more_absent={"variance": NO_VARIANCE},
         )
-        return ModulatedRuin(
-            "certain",
-            reason,
-            drift,
-            ur._certified_exact(QQ(1), digits),
-            QQ(1),
-            0,
-            None,
-            None,
-            None,
-            "exact",
-            "long-run drift of the progression <= 0",
-        )
-    found = _verified_lundberg(moves_top, states)
+    found = verified_lundberg(moves_top, states)
     if found is None:
         raise OddsbenchError("no verified adjustment coefficient for this progression: cannot bound the answer")
     rate, h = found
@@ -171,36 +208,58 @@ def solve_modulated_ruin(
     band = states * (1 + max(abs(jump) for moves in moves_top for jump, _, _ in moves))
     gap = spread * math.exp(-rate * (goal - top + 1))
     if size * size * band <= EXACT_WORK:
-        lower = _ruin_before_goal_exact(states, moves_at, level, start_state, goal, should_stop)
-        with ur._precision(ur._bits_for(digits, goal)):
+        lower = progression_ruin_before_goal(states, moves_at, level, start_state, goal)
+        with precision(bits_for(digits, goal)):
             from flint import arb
 
-            low = ur._arb_of(lower)
-            ball = arb(low.mid() + gap / 2, gap / 2 + low.rad())
-            ruin = ur._certified(ball, digits)
+            ruin = certified(interval(arb_of(lower), arb(gap)), digits)
         arithmetic = "exact"
     else:
-        lower = None
         value = _ruin_before_goal_float(states, moves_at, level, start_state, goal)
-        ruin = ur.Certified(f"{value + gap / 2:.10g}", f"{gap / 2 + 1e-11:.2g}", math.log10(max(value, 1e-300)), value)
+        ruin = Certified(f"{value + gap / 2:.10g}", f"{gap / 2 + 1e-11:.2g}", math.log10(max(value, 1e-300)), value)
         arithmetic = "floating point"
-    reason = (
-        f"the long-run expected result per round of the progression is {text(drift)} grid steps (> 0): ruin is "
-        "possible but not certain; the figure is the minimal solution, by truncation with a proved bound"
+    gap_bound = Certified(f"{gap:.3g}", "0", math.log10(gap) if gap > 0 else -math.inf, gap)
+    lundberg = Certified(
+        f"{min(lundberg_value, 1.0):.6g}", "0", math.log10(max(lundberg_value, 1e-300)), lundberg_value
     )
-    return ModulatedRuin(
-        "possible",
-        reason,
-        drift,
-        ruin,
-        lower,
-        goal,
-        ur.Certified(f"{gap:.3g}", "0", math.log10(gap) if gap > 0 else -math.inf, gap),
-        rate,
-        ur.Certified(f"{min(lundberg_value, 1.0):.6g}", "0", math.log10(max(lundberg_value, 1e-300)), lundberg_value),
-        arithmetic,
-        f"truncation at a goal of {goal} steps ({arithmetic} arithmetic); gap at most max h / min h x "
-        "exp(-R (goal - K + 1)) with R and h verified in ball arithmetic",
+    interval_only = "known only inside a proved interval (truncation at a far goal)"
+    return no_goal_ruin(
+        facts,
+        verdict=VERDICT_POSSIBLE,
+        reason=(
+            f"the long-run expected result per round of the progression is {text(drift)} {unit_name} (> 0): ruin "
+            "is possible but not certain; the figure is the minimal solution, by truncation with a proved bound"
+        ),
+        ruin=ruin,
+        exact_text="interval (truncation)",
+        method=(
+            f"truncation at a goal of {goal} steps ({arithmetic} arithmetic); gap at most max h / min h x "
+            "exp(-R (goal - K + 1)) with R and h verified in ball arithmetic"
+        ),
+        error_bound=f"at most {ruin.radius} (truncation gap {gap_bound.text}, proved)",
+        adjustment_coefficient=certified_exact(QQ(int(rate * 2**40), 2**40), 10),
+        adjustment_text="verified R (dyadic)",
+        lundberg=lundberg,
+        lundberg_text=(
+            "h(start) / min h x exp(-R x (bankroll - levels with cut bets)), R and h verified for the modulated "
+            "walk: an upper bound"
+        ),
+        lundberg_exact_text="h(j)/min h x exp(-R d)",
+        rounds_to_ruin=RoundsToRuin(
+            "not defined", None, None, None, None, "ruin is not certain: the plain expected time to ruin is infinite"
+        ),
+        notes=notes,
+        digits=digits,
+        absent={
+            "variance": NO_VARIANCE,
+            "ruin_exact": interval_only,
+            "ruin_closed_form": interval_only,
+            "theta": "a progression has no single characteristic root: its law changes with the plan's state",
+            "diffusion": NO_DIFFUSION,
+            "diffusion_ratio": NO_DIFFUSION,
+            "rounds_if_ruined": "not computed for progressions",
+            "truncation": AS_TRUNCATION,
+        },
     )
 
 
@@ -224,12 +283,13 @@ def _rows(states: int, moves_at, goal: int, exact: bool):
     return rows, rhs
 
 
-def _ruin_before_goal_exact(states, moves_at, level, start_state, goal, should_stop=None) -> Rational:
+def progression_ruin_before_goal(states, moves_at, level, start_state, goal) -> Rational:
+    """Exact P(ruin before the bankroll reaches ``goal``) of a modulated walk (first-step analysis)."""
     from oddsbench.solve.linear import factor_exact
 
     rows, rhs = _rows(states, moves_at, goal, exact=True)
     rows = [{c: QQ(v) for c, v in row.items()} for row in rows]
-    return factor_exact(rows, should_stop=should_stop).solve(rhs)[(level - 1) * states + start_state]
+    return factor_exact(rows, should_stop=current_stop()).solve(rhs)[(level - 1) * states + start_state]
 
 
 def _ruin_before_goal_float(states, moves_at, level, start_state, goal) -> float:
@@ -246,7 +306,3 @@ def _ruin_before_goal_float(states, moves_at, level, start_state, goal) -> float
     size = len(rows)
     solution = factor_float(csc_matrix((v, (r, c)), shape=(size, size))).solve(np.array(rhs))
     return float(solution[(level - 1) * states + start_state])
-
-
-def describe(value: Rational) -> str:
-    return text(value) if max(numerator(value).bit_length(), denominator(value).bit_length()) < 200 else "rational"

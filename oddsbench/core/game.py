@@ -1,0 +1,94 @@
+"""A loaded game: what every question starts from, read once with its warnings kept (never printed).
+
+A game is a ruleset (from a file or from text, with parameter overrides) or, for sessions only,
+an inline round (``--round 1:18/37,-1:19/37``). Front ends show ``warnings`` their own way: the
+command line prints them to stderr, the workbench beside the field.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Mapping
+from dataclasses import dataclass
+from pathlib import Path
+
+from oddsbench.chain.round_distribution import RoundDistribution
+from oddsbench.model.errors import OddsbenchError, Problem, RulesetError
+from oddsbench.model.ruleset import Ruleset
+
+INLINE_TITLE = "Inline round"
+INLINE_SOURCE = "--round"
+
+
+@dataclass(frozen=True)
+class Game:
+    """A ruleset (``ruleset``) or an inline round (``round``), the text it was read from, and its warnings."""
+
+    source: str
+    ruleset: Ruleset | None = None
+    round: RoundDistribution | None = None
+    text: str | None = None
+    warnings: tuple[Problem, ...] = ()
+
+    @property
+    def title(self) -> str:
+        return self.ruleset.title if self.ruleset is not None else INLINE_TITLE
+
+    def need_ruleset(self, question: str) -> Ruleset:
+        """The ruleset, or one line saying this question needs a ruleset rather than an inline round."""
+        if self.ruleset is None:
+            raise OddsbenchError(f"{self.source}: {question} needs a ruleset file; an inline round only has sessions")
+        return self.ruleset
+
+
+def _read(loaded, text: str | None) -> Game:
+    if loaded.ruleset is None:
+        raise RulesetError(loaded.problems)
+    ruleset = loaded.ruleset
+    return Game(ruleset.source, ruleset=ruleset, text=text, warnings=tuple(loaded.warnings))
+
+
+def load_game(path: str | Path, params: Mapping[str, object] | None = None) -> Game:
+    """Read a ruleset file (``params``: name -> exact value, replacing the file's ``[params]``).
+
+    Raises ``RulesetError`` with one problem per line when the file is not a valid ruleset.
+    """
+    from oddsbench.model.load import read_ruleset_file
+
+    loaded = read_ruleset_file(path, _exact(params))
+    text = None
+    if loaded.ruleset is not None:
+        try:
+            text = Path(path).read_text(encoding="utf-8")
+        except (OSError, UnicodeDecodeError):
+            text = None
+    return _read(loaded, text)
+
+
+def game_from_text(text: str, source: str = "<text>", params: Mapping[str, object] | None = None) -> Game:
+    """A ruleset from TOML text, as ``load_game`` reads a file (``source`` names it in messages)."""
+    from oddsbench.model.load import read_ruleset_text
+
+    return _read(read_ruleset_text(text, source, _exact(params)), text)
+
+
+def inline_round(spelled: str) -> Game:
+    """A round given as ``NET:PROB,...`` (an optional third field is an extra stake): sessions only."""
+    from oddsbench.chain.round_distribution import parse_round_text
+
+    return Game(INLINE_SOURCE, round=parse_round_text(spelled), text=spelled)
+
+
+def _exact(params: Mapping[str, object] | None) -> dict | None:
+    """Parameter overrides as exact values (text such as "1/2" is read by the expression language)."""
+    if not params:
+        return None
+    from oddsbench.core.settings import money
+
+    return {name: money(value, f"param {name}") for name, value in params.items()}
+
+
+def check_size(ruleset: Ruleset, max_states: int) -> None:
+    """Refuse a ruleset with more states than ``max_states`` (one line, as the chain builder words it)."""
+    from oddsbench.chain.round_chain import check_state_count
+
+    check_state_count(len(ruleset.states), max_states, ruleset.source, "the ruleset has")

@@ -1,0 +1,180 @@
+"""Bankroll sessions: one entry for a bounded goal and for no goal, every plan side by side.
+
+``sessions(game, settings, work) -> SessionResults``. The round is the game's inline round or the
+ruleset's round under a named strategy; the session settings are ``settings.session`` over the
+ruleset's ``[session]`` table. With a goal each plan's bankroll chain is solved
+(``strategy.session``); with ``goal = "none"`` each plan is played until ruin on the bankroll
+walk (only plans whose bet stays bounded). Each plan's result says which.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Sequence
+from dataclasses import dataclass
+
+from oddsbench.chain.round_distribution import RoundDistribution
+from oddsbench.core.game import Game
+from oddsbench.core.settings import DEFAULTS, SessionRequest, Settings
+from oddsbench.core.work import NO_WORK, Work
+from oddsbench.model.defaults import DEFAULT_PLANS, NO_GOAL_DEFAULT_PLANS
+from oddsbench.model.errors import OddsbenchError
+from oddsbench.strategy.no_goal_play import NoGoalFigures
+from oddsbench.strategy.plans import PROGRESSIONS, Plan, parse_plan
+from oddsbench.strategy.session import SessionFigures, SessionSettings, merge_settings, settings_from_table
+
+BOUNDED = "bounded"
+NO_GOAL_KIND = "none"
+
+
+@dataclass(frozen=True)
+class PlanResult:
+    """One plan's session: ``bounded`` figures when there is a goal, ``no_goal`` figures when play runs until ruin."""
+
+    plan: str
+    bounded: SessionFigures | None = None
+    no_goal: NoGoalFigures | None = None
+
+    @property
+    def goal(self) -> str:
+        """``"bounded"`` (a goal to reach) or ``"none"`` (play until ruin)."""
+        return BOUNDED if self.bounded is not None else NO_GOAL_KIND
+
+    @property
+    def notes(self) -> tuple[str, ...]:
+        if self.bounded is not None:
+            return self.bounded.notes
+        return tuple(self.no_goal.ruin.notes) if self.no_goal is not None else ()
+
+
+@dataclass(frozen=True)
+class SessionResults:
+    """Every plan's session from one round and one set of settings (``settings.goal`` None: no goal)."""
+
+    title: str
+    source: str
+    distribution: RoundDistribution
+    settings: SessionSettings
+    plans: tuple[PlanResult, ...]
+    strategy: str | None = None
+    rounds: int | None = None
+
+    @property
+    def no_goal(self) -> bool:
+        return self.settings.no_goal
+
+    @property
+    def bounded(self) -> list[SessionFigures]:
+        """The figures of every plan with a goal (empty with no goal)."""
+        return [plan.bounded for plan in self.plans if plan.bounded is not None]
+
+    def of(self, plan: str) -> PlanResult:
+        for result in self.plans:
+            if result.plan == plan:
+                return result
+        raise KeyError(f"no plan {plan!r} (plans: {', '.join(p.plan for p in self.plans)})")
+
+
+def session_settings(game: Game, request: SessionRequest | None) -> SessionSettings:
+    """The request's amounts over the ruleset's ``[session]`` table; bankroll and goal (or ``none``) required."""
+    table = dict(game.ruleset.session) if game.ruleset is not None else {}
+    defaults = settings_from_table(table, game.source)
+    return merge_settings(defaults, (request or SessionRequest()).overrides(), game.source)
+
+
+def session_round(game: Game, strategy: str | None, max_states: int | None = None) -> RoundDistribution:
+    """The round a session repeats: the inline round, or the ruleset's round under a named strategy."""
+    if game.round is not None:
+        if strategy is not None:
+            raise OddsbenchError(f"{game.source}: --strategy needs a ruleset file; an inline round has no decisions")
+        return game.round
+    from oddsbench.solve.round_distribution import round_distribution_of
+    from oddsbench.strategy.compare import policy_of
+
+    return round_distribution_of(game.ruleset, policy_of(game.ruleset, strategy))
+
+
+def sessions(game: Game, settings: Settings = DEFAULTS, work: Work = NO_WORK) -> SessionResults:
+    """Every plan of ``settings.session`` (default timid and bold), with a goal or with none."""
+    request = settings.session or SessionRequest()
+    session = session_settings(game, request)
+    strategy = _session_strategy(game, settings)
+    distribution = session_round(game, strategy)
+    return solve_plans(game, distribution, session, settings, work, strategy)
+
+
+def _session_strategy(game: Game, settings: Settings) -> str | None:
+    if len(settings.strategies) > 1:
+        raise OddsbenchError(f"{game.source}: sessions play one strategy in each round, not {len(settings.strategies)}")
+    return settings.strategies[0] if settings.strategies else None
+
+
+def solve_plans(
+    game: Game,
+    distribution: RoundDistribution,
+    session: SessionSettings,
+    settings: Settings,
+    work: Work = NO_WORK,
+    strategy: str | None = None,
+) -> SessionResults:
+    """Solve each plan on one round distribution (the report and the simulation bring their own round)."""
+    request = settings.session or SessionRequest()
+    spellings = request.plans or (NO_GOAL_DEFAULT_PLANS if session.no_goal else DEFAULT_PLANS)
+    plans = [parse_plan(spelling, no_goal=session.no_goal) for spelling in spellings]
+    if session.no_goal and settings.rounds is not None:
+        raise OddsbenchError(f"{game.source}: --rounds needs a goal; with --goal none the session only ends at ruin")
+    results = []
+    for done, plan in enumerate(plans):
+        work.check()
+        if session.no_goal:
+            results.append(PlanResult(plan.spelling, no_goal=_no_goal(distribution, session, plan, request, work)))
+        else:
+            from oddsbench.strategy.session import analyse_session
+
+            figures = analyse_session(
+                distribution, session, plan, settings.session_exact_limit, settings.rounds, work.should_stop
+            )
+            results.append(PlanResult(plan.spelling, bounded=figures))
+        work.done(done + 1, len(plans))
+    return SessionResults(game.title, game.source, distribution, session, tuple(results), strategy, settings.rounds)
+
+
+def _no_goal(
+    distribution: RoundDistribution, session: SessionSettings, plan: Plan, request: SessionRequest, work: Work
+) -> NoGoalFigures:
+    """One plan played until ruin, with the session rules (cut bets, the ruin level, table limits)."""
+    from oddsbench.strategy.no_goal_play import solve_no_goal_play, solve_no_goal_progression
+
+    outcomes = [(o.net, o.prob) for o in distribution.outcomes]
+    common = dict(
+        cover=distribution.cover,
+        digits=request.digits,
+        unit=session.unit,
+        min_bet=session.min_bet,
+        max_bet=session.max_bet,
+        floor=session.floor or 0,
+        should_stop=work.should_stop,
+    )
+    if plan.kind in PROGRESSIONS:
+        return solve_no_goal_progression(outcomes, plan.kind, plan.amount, plan.series, session.bankroll, **common)
+    if plan.kind == "flat":
+        bet = plan.amount
+    else:  # timid: always the table minimum
+        bet = session.min_bet or session.unit or 1
+    return solve_no_goal_play(outcomes, bet, session.bankroll, check=request.check, **common)
+
+
+def still_playing(results: SessionResults, plan: str, rounds: Sequence[int], work: Work = NO_WORK) -> tuple[float, ...]:
+    """The chance that a plan's session is still going after each number of rounds (decimals: for a chart).
+
+    Each is the session solved in floating point with a horizon of n rounds (``within_playing_probability``).
+    """
+    from oddsbench.strategy.session import analyse_session
+
+    if results.no_goal:
+        raise OddsbenchError(f"{results.source}: with no goal a session only ends at ruin: no length distribution")
+    chances = []
+    for n in rounds:
+        work.check()
+        figures = analyse_session(results.distribution, results.settings, plan, 0, n, work.should_stop)
+        chances.append(figures.figures["within_playing_probability"].decimal)
+    return tuple(chances)

@@ -1,0 +1,110 @@
+"""Monte Carlo cross-checks: rounds, or whole sessions per plan, beside the exact figures.
+
+``simulate(game, settings, work) -> Simulation``: rounds when ``settings.session`` is None,
+otherwise sessions (each plan's bankroll chain is the one ``strategy.session.session_chain``
+builds, the one the session solver solves).
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+from oddsbench.core.game import Game
+from oddsbench.core.settings import DEFAULTS, Settings
+from oddsbench.core.work import NO_WORK, Work
+from oddsbench.model.defaults import DEFAULT_PLANS, DEFAULT_ROUND_TRIALS, DEFAULT_SESSION_TRIALS
+from oddsbench.model.errors import OddsbenchError
+from oddsbench.simulate.checks import Check
+from oddsbench.simulate.round_sim import RoundSample
+from oddsbench.simulate.session_sim import SessionSample
+from oddsbench.solve.round import RoundFigures
+from oddsbench.strategy.session import SessionFigures, SessionSettings
+
+
+@dataclass(frozen=True)
+class SessionRun:
+    """One plan's simulated sessions, the checks against the exact figures, and those figures."""
+
+    sample: SessionSample
+    checks: tuple[Check, ...]
+    figures: SessionFigures
+
+
+@dataclass(frozen=True)
+class Simulation:
+    """Simulated rounds (``sample``, ``checks``, ``figures``) or sessions (``runs``), and the seed that
+    repeats them."""
+
+    title: str
+    seed: int
+    confidence: float
+    play: str | None
+    sample: RoundSample | None = None
+    checks: tuple[Check, ...] = ()
+    figures: RoundFigures | None = None
+    session: SessionSettings | None = None
+    runs: tuple[SessionRun, ...] = ()
+
+    @property
+    def of_sessions(self) -> bool:
+        return self.session is not None
+
+
+def fresh_seed() -> int:
+    import numpy as np
+
+    return int(np.random.SeedSequence().entropy % (1 << 63))
+
+
+def simulate(game: Game, settings: Settings = DEFAULTS, work: Work = NO_WORK) -> Simulation:
+    """Play many rounds (or sessions) at random and check every exact figure against the sample."""
+    from oddsbench.chain.round_chain import build_round_chain
+    from oddsbench.core.rounds import round_play
+    from oddsbench.strategy.compare import starting_at
+
+    ruleset = starting_at(game.need_ruleset("simulation"), settings.starts)
+    policy, play = round_play(ruleset, settings, work)
+    chain = build_round_chain(ruleset, policy, settings.max_states)
+    seed = settings.seed if settings.seed is not None else fresh_seed()
+    if settings.session is not None:
+        return _sessions(game, chain, seed, play, settings, work)
+    from oddsbench.simulate.checks import round_checks
+    from oddsbench.simulate.round_sim import simulate_round
+    from oddsbench.solve.round import solve_round
+
+    sample = simulate_round(chain, settings.trials or DEFAULT_ROUND_TRIALS, seed, max_steps=settings.max_steps)
+    work.check()
+    figures = solve_round(chain, exact_limit=settings.round_exact_limit, should_stop=work.should_stop)
+    checks = round_checks(sample, figures, settings.confidence)
+    return Simulation(ruleset.title, seed, settings.confidence, play, sample, tuple(checks), figures)
+
+
+def _sessions(game: Game, chain, seed: int, play: str | None, settings: Settings, work: Work) -> Simulation:
+    from oddsbench.core.session import session_settings
+    from oddsbench.simulate.checks import session_checks
+    from oddsbench.simulate.round_sim import RoundPlayer
+    from oddsbench.simulate.session_sim import simulate_session
+    from oddsbench.solve.round_distribution import round_distribution
+    from oddsbench.strategy.plans import parse_plans
+    from oddsbench.strategy.session import analyse_session, session_chain
+
+    session = session_settings(game, settings.session)
+    if session.no_goal:
+        raise OddsbenchError(
+            f"{game.source}: simulated sessions need a goal: with --goal none play only stops at ruin, "
+            "which may never come (use `oddsbench session --goal none` for the exact figures)"
+        )
+    distribution = round_distribution(chain)
+    player = RoundPlayer.of(chain)
+    trials = settings.trials or DEFAULT_SESSION_TRIALS
+    limit = settings.round_exact_limit
+    plans = parse_plans(settings.session.plans or DEFAULT_PLANS)
+    runs = []
+    for done, plan in enumerate(plans):
+        work.check()
+        planned = session_chain(distribution, session, plan, limit)
+        figures = analyse_session(distribution, session, plan, limit, should_stop=work.should_stop, planned=planned)
+        sample = simulate_session(planned.chain, trials, seed, player, session.max_rounds, plan=plan.spelling)
+        runs.append(SessionRun(sample, tuple(session_checks(sample, figures, settings.confidence)), figures))
+        work.done(done + 1, len(plans))
+    return Simulation(game.title, seed, settings.confidence, play, session=session, runs=tuple(runs))

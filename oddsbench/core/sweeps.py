@@ -1,0 +1,111 @@
+"""Sweeps: the solve of one grid point, and the orchestration that hands it to a runner.
+
+The layer below (``sweep/``) reads the spec, builds the grid and runs tasks on this process, local
+processes or a Dask cluster; it takes the per-point function from here (``solve_task``), so the
+same core code solves every point wherever it runs.
+"""
+
+from __future__ import annotations
+
+import time
+from pathlib import Path
+
+from oddsbench.core.work import NO_WORK, Work
+from oddsbench.model.errors import OddsbenchError, RulesetError
+from oddsbench.model.numbers import parse_fraction, text
+from oddsbench.sweep.points import Point, PointResult, PointTask, grid_points
+from oddsbench.sweep.runners import SweepResult
+from oddsbench.sweep.spec import SweepSpec
+
+QUICK_SECONDS = 2.0  # a sweep the first points show to take less runs in this process
+
+
+def read_spec(path: str | Path) -> SweepSpec:
+    """Read a sweep spec, its plans checked by the one plan grammar."""
+    from oddsbench.strategy.plans import parse_plan
+    from oddsbench.sweep.spec import read_sweep_spec
+
+    return read_sweep_spec(path, parse_plan)
+
+
+def solve_point(ruleset_text: str, source: str, exact_limit: int, point: Point) -> PointResult:
+    """Every figure of one point (the ruleset with the point's parameters, strategy and session), as text."""
+    from oddsbench.chain.round_chain import build_round_chain
+    from oddsbench.model.load import load_ruleset_text
+    from oddsbench.solve.round import solve_round
+    from oddsbench.strategy.compare import policy_of
+
+    try:
+        overrides = {name: parse_fraction(value) for name, value in point.params}
+        ruleset = load_ruleset_text(ruleset_text, source, overrides)
+        chain = build_round_chain(ruleset, policy_of(ruleset, point.strategy))
+        figures = solve_round(chain, exact_limit=exact_limit)
+        session = _session_rows(ruleset, chain, point, exact_limit) if point.plan is not None else []
+    except RulesetError as error:
+        return PointResult(point.index, error="; ".join(str(p) for p in error.errors or error.problems))
+    except OddsbenchError as error:
+        return PointResult(point.index, error=str(error))
+    rows = [(name, _text(f.exact), f.decimal) for name, f in figures.figures.items()]
+    rows += [(f"end_probability[{name}]", _text(f.exact), f.decimal) for name, f in figures.end_probability.items()]
+    rows += [
+        (f"result_probability[{name}]", _text(f.exact), f.decimal) for name, f in figures.result_probability.items()
+    ]
+    notes = figures.notes
+    if session:
+        session_rows, session_notes = session
+        rows += session_rows
+        notes += tuple(f"session: {note}" for note in session_notes)
+    return PointResult(point.index, tuple(rows), notes)
+
+
+def _session_rows(ruleset, chain, point: Point, exact_limit: int):
+    """The session figures of one point, named ``session.NAME``, and the session notes."""
+    from oddsbench.solve.round_distribution import round_distribution
+    from oddsbench.strategy.session import analyse_session, merge_settings, settings_from_table
+
+    overrides = {name: (int(value) if name == "max_rounds" else parse_fraction(value)) for name, value in point.session}
+    settings = merge_settings(settings_from_table(ruleset.session, ruleset.source), overrides, ruleset.source)
+    solved = analyse_session(round_distribution(chain), settings, point.plan, exact_limit)
+    rows = [(f"session.{name}", _text(f.exact), f.decimal) for name, f in solved.figures.items()]
+    return rows, solved.notes
+
+
+def _text(value) -> str | None:
+    return None if value is None else text(value)
+
+
+def solve_task(task: PointTask) -> list[PointResult]:
+    """Solve every point of a task in order: the unit of work sent to a process or a cluster worker."""
+    return [solve_point(task.ruleset_text, task.source, task.exact_limit, point) for point in task.points]
+
+
+def point_settings(point: Point) -> str:
+    """A point's axis values as one line (``pockets=37, payout=35``) for messages."""
+    return ", ".join(f"{label}={value}" for label, value in point.settings) or "no axes"
+
+
+def sweep(spec: SweepSpec, workers: int | None = None, cluster: str | None = None, work: Work = NO_WORK) -> SweepResult:
+    """Solve the whole grid: point 0 first (a bad point or an unknown figure is one line before any
+    runner starts), then every point on this process, local processes or the cluster.
+
+    ``workers`` None chooses: one per core, or this process alone when the last point shows the
+    whole sweep takes under two seconds (starting processes would cost more).
+    """
+    from oddsbench.sweep.runners import run_sweep
+
+    points = grid_points(spec)
+    first = points[0]
+    trial = solve_point(spec.ruleset_text, spec.ruleset_path.name, spec.exact_limit, first)
+    began = time.perf_counter()  # timed on the last point, after the first has warmed everything up
+    solve_point(spec.ruleset_text, spec.ruleset_path.name, spec.exact_limit, points[-1])
+    if workers is None and cluster is None and (time.perf_counter() - began) * spec.size < QUICK_SECONDS:
+        workers = 1
+    if trial.error is not None:
+        raise OddsbenchError(f"{spec.source}: point 0 ({point_settings(first)}): {trial.error}")
+    known = [name for name, _, _ in trial.figures]
+    unknown = [name for name in spec.figures if name not in known]
+    if unknown:
+        raise OddsbenchError(
+            f"{spec.source}: [sweep], figures: unknown {', '.join(map(repr, unknown))} (known: {', '.join(known)})"
+        )
+    return run_sweep(spec, solve_task, workers=workers, cluster=cluster, progress=work.progress)

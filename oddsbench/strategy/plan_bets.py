@@ -1,0 +1,89 @@
+"""A parsed plan turned into bets: how much to stake in each bankroll state (and plan level).
+
+The grammar is ``strategy/plans.py``; the rules of what a bet may be (table limits, what the
+bankroll covers) are applied when the chain is built (``chain/bankroll.py``).
+"""
+
+from __future__ import annotations
+
+import numpy as np
+
+from oddsbench.chain.bankroll import BankrollGrid
+from oddsbench.chain.round_distribution import RoundDistribution
+from oddsbench.model.errors import OddsbenchError
+from oddsbench.model.numbers import Rational, denominator, is_integer, numerator, text, to_int
+from oddsbench.strategy.plans import PROGRESSIONS, Plan
+
+
+def _units(plan: Plan, amount: Rational, grid: BankrollGrid) -> int:
+    count = amount / grid.unit
+    if not is_integer(count):
+        raise OddsbenchError(
+            f"--plan {plan.spelling!r}: bet {text(amount)} is not a whole number of betting units of {text(grid.unit)}"
+        )
+    return to_int(count)
+
+
+def _floor_times(values: np.ndarray, fraction: Rational, grid: BankrollGrid) -> np.ndarray:
+    """floor(fraction * bankroll / unit) in betting units, in exact integer arithmetic."""
+    top = numerator(fraction)
+    bottom = denominator(fraction) * grid.scale
+    if top * int(values.max(initial=0)) < 2**62:
+        return (values * top) // bottom
+    return np.array([v * top // bottom for v in values.tolist()], dtype=np.int64)
+
+
+def planned_bets(
+    plan: Plan, distribution: RoundDistribution, grid: BankrollGrid
+) -> tuple[np.ndarray, np.ndarray, tuple[str, ...]]:
+    """(bets[level, value - low] in betting units, next_level[level, outcome], notes) of a plan."""
+    width = grid.width
+    values = np.arange(grid.low, grid.low + width, dtype=np.int64)
+    outcomes = len(distribution.outcomes)
+    stay = np.zeros((1, outcomes), dtype=np.int64)
+    notes: list[str] = []
+    if plan.kind == "flat":
+        return np.full((1, width), _units(plan, plan.amount, grid)), stay, ()
+    if plan.kind == "timid":
+        return np.full((1, width), grid.min_bet), stay, ()
+    if plan.kind == "bold":
+        best = distribution.best_net * grid.scale
+        if best <= 0:
+            notes.append(f"{plan.spelling}: no outcome wins, so no bet reaches the goal; bold play stakes everything")
+            return np.full((1, width), np.iinfo(np.int64).max // 4), stay, tuple(notes)
+        need = grid.goal - values
+        top, bottom = numerator(best), denominator(best)
+        return np.array([-((-need * bottom) // top)]), stay, ()
+    if plan.kind == "fraction":
+        return _floor_times(values, plan.amount, grid)[None, :], stay, ()
+    if plan.kind == "kelly":
+        from oddsbench.strategy.kelly import kelly_bet
+
+        bet = kelly_bet(distribution, plan.amount)
+        if bet.fraction.decimal <= 0:
+            notes.append(
+                f"{plan.spelling}: the game has no positive expectation, so Kelly bets nothing; "
+                "the plan bets the table minimum instead"
+            )
+        if bet.fraction.exact is not None:
+            bets = _floor_times(values, bet.fraction.exact, grid)
+        else:
+            bets = np.floor(values * bet.fraction.decimal / grid.scale).astype(np.int64)
+        return bets[None, :], stay, tuple(notes)
+    if plan.kind in PROGRESSIONS:
+        base = _units(plan, plan.amount, grid)
+        levels = plan.series
+        bets = np.array([[base * 2**level] * width for level in range(levels)], dtype=np.int64).reshape(levels, width)
+        nets = [o.net for o in distribution.outcomes]
+        step = np.zeros((levels, outcomes), dtype=np.int64)
+        for level in range(levels):
+            for k, net in enumerate(nets):
+                raising = net < 0 if plan.kind == "martingale" else net > 0
+                if net == 0:
+                    step[level, k] = level
+                elif raising:
+                    step[level, k] = level + 1 if level + 1 < levels else 0
+                else:
+                    step[level, k] = 0
+        return bets, step, ()
+    raise OddsbenchError(f"plan {plan.spelling!r} is chosen by the optimiser, not by a rule")
