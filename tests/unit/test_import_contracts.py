@@ -61,6 +61,18 @@ def test_the_project_keeps_every_import_contract():
             "oddsbench.solve.probe_upward -> oddsbench.strategy.plans",
         ),
         ("cli/probe_direct.py", "import textual.app\n", "textual-in-tui", "oddsbench.cli.probe_direct -> textual"),
+        (
+            "report/probe_engine.py",
+            "from oddsbench.solve import round\n",
+            "report-formats-only",
+            "oddsbench.report.probe_engine -> oddsbench.solve.round",
+        ),
+        (
+            "tui/probe_engine.py",
+            "from oddsbench.chain import round_chain\n",
+            "front-ends-ask-the-core",
+            "oddsbench.tui.probe_engine -> oddsbench.chain.round_chain",
+        ),
     ],
 )
 def test_a_deliberate_violation_breaks_its_contract(tmp_path, module, text, contract, reported):
