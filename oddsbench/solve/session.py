@@ -18,10 +18,10 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from oddsbench.chain.bankroll import FLOOR, GOAL, KIND_NAMES, RUIN, BankrollChain
+from oddsbench.model.figure import Figure
 from oddsbench.model.numbers import QQ, Rational, to_float
 from oddsbench.solve.cancel import SolveCancelled
 from oddsbench.solve.linear import factor_exact, factor_float, identity_minus, identity_minus_float
-from oddsbench.solve.round import Figure
 
 DEFAULT_EXACT_LIMIT = 3_000
 EXACT_STEP_BUDGET = 3_000_000
