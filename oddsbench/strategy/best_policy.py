@@ -21,6 +21,7 @@ from dataclasses import dataclass
 
 from oddsbench.chain.decision_chain import build_decision_chain
 from oddsbench.chain.round_chain import build_round_chain
+from oddsbench.model.defaults import ROUND_EXACT_LIMIT
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.figure import Figure
 from oddsbench.model.numbers import QQ, text, to_float
@@ -29,7 +30,6 @@ from oddsbench.solve.round import RoundFigures, solve_round
 from oddsbench.strategy.decision_process import DecisionProcess
 from oddsbench.strategy.goals import Goal, goal_named
 
-DEFAULT_EXACT_LIMIT = 5_000
 MAX_ITERATIONS = 1_000
 DECIMAL_TOLERANCE = 1e-11  # relative: small chances (1e-20) still compare
 
@@ -105,7 +105,7 @@ class StrategyCheck:
 def best_policy(
     ruleset: Ruleset,
     goal: str = "max-return",
-    exact_limit: int = DEFAULT_EXACT_LIMIT,
+    exact_limit: int = ROUND_EXACT_LIMIT,
     should_stop: Callable[[], bool] | None = None,
 ) -> BestPolicy:
     """Policy iteration for ``goal`` from the ruleset's start, with its optimality certificate."""
@@ -182,7 +182,7 @@ def check_strategy(
     ruleset: Ruleset,
     strategy: str,
     goal: str = "max-return",
-    exact_limit: int = DEFAULT_EXACT_LIMIT,
+    exact_limit: int = ROUND_EXACT_LIMIT,
     should_stop: Callable[[], bool] | None = None,
 ) -> StrategyCheck:
     """Hold a named strategy against ``goal``: every single change of action that would improve it."""
