@@ -11,6 +11,7 @@ from __future__ import annotations
 
 from collections.abc import Sequence
 from dataclasses import dataclass
+from typing import TYPE_CHECKING
 
 from oddsbench.chain.round_distribution import RoundDistribution
 from oddsbench.core.game import Game
@@ -18,9 +19,11 @@ from oddsbench.core.settings import DEFAULTS, SessionRequest, Settings
 from oddsbench.core.work import NO_WORK, Work
 from oddsbench.model.defaults import DEFAULT_PLANS, NO_GOAL_DEFAULT_PLANS
 from oddsbench.model.errors import OddsbenchError
-from oddsbench.strategy.no_goal_play import NoGoalFigures
 from oddsbench.strategy.plans import PROGRESSIONS, Plan, parse_plan
 from oddsbench.strategy.session import SessionFigures, SessionSettings, merge_settings, settings_from_table
+
+if TYPE_CHECKING:
+    from oddsbench.strategy.no_goal_play import NoGoalFigures
 
 BOUNDED = "bounded"
 NO_GOAL_KIND = "none"
