@@ -1,12 +1,11 @@
 """A session as an absorbing Markov chain over bankroll values (and a plan's level).
 
-Everything is kept in whole grid steps. The betting unit (money) is split into ``scale`` grid
-steps, where ``scale`` is the common denominator of the round's net results, so a bet of ``c``
-units moves the bankroll by ``net * scale * c`` whole steps for every outcome: payouts such as
-3 to 2 or 6 to 5 need no rounding. Transient states are the bankroll values strictly between
-the floor and the goal that can still cover the minimum bet, once per plan level; they form one
-contiguous run ``low .. goal - 1``, so a state's index is ``(value - low) * levels + level``
-(value-major, which keeps the system banded for the sparse LU).
+Everything is kept in whole grid steps and betting units, by the session rules
+(``chain.session_rules``: the unit, the grid, the cover, cut bets, the ruin level): a bet of
+``c`` units moves the bankroll by ``net * scale * c`` whole steps for every outcome. Transient
+states are the bankroll values strictly between the floor and the goal that can still cover the
+minimum bet, once per plan level; they form one contiguous run ``low .. goal - 1``, so a state's
+index is ``(value - low) * levels + level`` (value-major, which keeps the system banded).
 Everything else a round can reach is absorbing: at or past the goal, at or below a stop-loss
 floor, or short of the minimum bet (ruin). Construction is vectorised with numpy so a chain of
 10^6 states builds in well under a second; exact rows are produced only on request.
@@ -14,13 +13,15 @@ floor, or short of the minimum bet (ruin). Construction is vectorised with numpy
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from collections.abc import Iterable
+from dataclasses import dataclass, fields
 
 import numpy as np
 
 from oddsbench.chain.round_distribution import RoundDistribution
+from oddsbench.chain.session_rules import TableRules, checked_unit, grid_steps, table_rules
 from oddsbench.model.errors import OddsbenchError
-from oddsbench.model.numbers import QQ, Rational, denominator, is_integer, numerator, text, to_int
+from oddsbench.model.numbers import QQ, Rational, denominator, numerator, text, to_int
 
 GOAL, RUIN, FLOOR = 0, 1, 2
 KIND_NAMES = ("goal", "ruin", "floor")
@@ -28,35 +29,11 @@ MAX_GRID = 50_000_000
 
 
 @dataclass(frozen=True)
-class BankrollGrid:
-    """Session limits in grid steps; ``step`` is the money value of one step."""
+class BankrollGrid(TableRules):
+    """A bounded session in grid steps: the table rules plus the start and the goal."""
 
-    unit: Rational
-    scale: int
     start: int
     goal: int
-    floor: int
-    min_bet: int
-    max_bet: int | None
-    cover: Rational
-
-    @property
-    def step(self) -> Rational:
-        return self.unit / self.scale
-
-    def money(self, steps: int) -> Rational:
-        return self.step * steps
-
-    def coverable(self, values: np.ndarray) -> np.ndarray:
-        """Largest bet (betting units) each bankroll can cover for the round's worst case."""
-        top, bottom = numerator(self.cover), denominator(self.cover)
-        return (np.asarray(values, dtype=np.int64) * bottom) // (top * self.scale)
-
-    @property
-    def low(self) -> int:
-        """Smallest bankroll that still plays: above the floor and able to cover the minimum bet."""
-        cover_min = -((-self.min_bet * self.scale * numerator(self.cover)) // denominator(self.cover))
-        return max(self.floor + 1, cover_min, 1)
 
     @property
     def width(self) -> int:
@@ -72,21 +49,6 @@ class BankrollGrid:
         return kinds
 
 
-def grid_steps(label: str, value: Rational, unit: Rational, scale: int) -> int:
-    """``value`` in grid steps (the betting unit split by the payouts' common denominator ``scale``).
-
-    A bankroll, goal or floor off the grid is refused in one line naming it.
-    """
-    step = unit / scale
-    count = value / step
-    if not is_integer(count):
-        raise OddsbenchError(
-            f"{label} {text(value)} is not a whole number of grid steps of {text(step)} "
-            f"(betting unit {text(unit)} split by the payout denominator {scale})"
-        )
-    return to_int(count)
-
-
 def make_grid(
     distribution: RoundDistribution,
     bankroll: Rational,
@@ -95,25 +57,15 @@ def make_grid(
     min_bet: Rational | None = None,
     max_bet: Rational | None = None,
     unit: Rational | None = None,
+    amounts: Iterable[Rational] = (),
 ) -> BankrollGrid:
-    """Check the money amounts and express them in grid steps (one clear line per problem)."""
+    """Check the money amounts and express them in grid steps (one clear line per problem).
+
+    ``unit`` None is the default unit of the session rules for the plan's fixed ``amounts``.
+    """
     floor = QQ(0) if floor is None else floor
-    if unit is None:
-        unit = QQ(1) if min_bet is None or is_integer(min_bet) else min_bet
-    if unit <= 0:
-        raise OddsbenchError(f"betting unit must be more than 0, got {text(unit)}")
-    min_bet = min_bet if min_bet is not None else unit
+    unit = checked_unit(unit, min_bet, amounts)
     scale = distribution.net_denominator
-
-    def steps(name: str, value: Rational) -> int:
-        return grid_steps(f"session {name}", value, unit, scale)
-
-    def units(name: str, value: Rational) -> int:
-        count = value / unit
-        if not is_integer(count) or count < 1:
-            raise OddsbenchError(f"session {name} {text(value)} must be a whole, positive number of betting units")
-        return to_int(count)
-
     if bankroll < 0:
         raise OddsbenchError(f"session bankroll must be at least 0, got {text(bankroll)}")
     if floor < 0:
@@ -122,19 +74,11 @@ def make_grid(
         raise OddsbenchError(f"session goal {text(goal)} must be above the bankroll {text(bankroll)}")
     if floor >= bankroll and bankroll > 0:
         raise OddsbenchError(f"session floor {text(floor)} must be below the bankroll {text(bankroll)}")
-    low_bet = units("min_bet", min_bet)
-    high_bet = units("max_bet", max_bet) if max_bet is not None else None
-    if high_bet is not None and high_bet < low_bet:
-        raise OddsbenchError(f"session max_bet {text(max_bet)} is below min_bet {text(min_bet)}")
+    rules = table_rules(unit, scale, distribution.cover, floor, min_bet, max_bet)
     grid = BankrollGrid(
-        unit=unit,
-        scale=scale,
-        start=steps("bankroll", bankroll),
-        goal=steps("goal", goal),
-        floor=steps("floor", floor),
-        min_bet=low_bet,
-        max_bet=high_bet,
-        cover=distribution.cover,
+        **{item.name: getattr(rules, item.name) for item in fields(TableRules)},
+        start=grid_steps("session bankroll", bankroll, unit, scale),
+        goal=grid_steps("session goal", goal, unit, scale),
     )
     if grid.goal > MAX_GRID:
         raise OddsbenchError(f"session goal is {grid.goal:,} grid steps; the limit is {MAX_GRID:,}")
@@ -233,11 +177,7 @@ def build_bankroll_chain(
     low, width = grid.low, grid.width
     levels = planned.shape[0] if width else 1
     values_one = np.arange(low, low + width, dtype=np.int64)
-    cap = grid.coverable(values_one)
-    if grid.max_bet is not None:
-        cap = np.minimum(cap, grid.max_bet)
-    bets = np.clip(np.asarray(planned, dtype=np.int64).reshape(levels, width), grid.min_bet, None)
-    bets = np.minimum(bets, cap[None, :]).T.reshape(-1)
+    bets = grid.placed(np.asarray(planned, dtype=np.int64).reshape(levels, width), values_one).T.reshape(-1)
     values = np.repeat(values_one, levels)
     level_of = np.tile(np.arange(levels, dtype=np.int64), width)
     steps = np.array([to_int(o.net * grid.scale) for o in distribution.outcomes], dtype=np.int64)

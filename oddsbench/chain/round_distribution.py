@@ -9,10 +9,10 @@ distribution comes from a ruleset (``solve.round_distribution``) or from inline 
 from __future__ import annotations
 
 from dataclasses import dataclass
-from math import lcm
 
+from oddsbench.chain.session_rules import cover_of, grid_scale
 from oddsbench.model.errors import OddsbenchError
-from oddsbench.model.numbers import QQ, Rational, denominator, text, to_float
+from oddsbench.model.numbers import QQ, Rational, text, to_float
 
 
 @dataclass(frozen=True)
@@ -48,12 +48,12 @@ class RoundDistribution:
     @property
     def cover(self) -> Rational:
         """Bankroll needed per unit bet: the most a round can take or tie up (extra stakes included)."""
-        return max(max(1 + o.extra, -o.net) for o in self.outcomes)
+        return cover_of((o.net, o.extra) for o in self.outcomes)
 
     @property
     def net_denominator(self) -> int:
         """Common denominator of the net results: a bet of one unit moves the bankroll in 1/D steps."""
-        return lcm(*(denominator(o.net) for o in self.outcomes))
+        return grid_scale(o.net for o in self.outcomes)
 
     @property
     def best_net(self) -> Rational:

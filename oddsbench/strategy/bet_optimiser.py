@@ -51,10 +51,7 @@ class BetCertificate:
 
 def _limits(grid: BankrollGrid) -> tuple[np.ndarray, np.ndarray]:
     values = np.arange(grid.low, grid.goal, dtype=np.int64)
-    cap = grid.coverable(values)
-    if grid.max_bet is not None:
-        cap = np.minimum(cap, grid.max_bet)
-    return values, np.maximum(cap, grid.min_bet)
+    return values, np.maximum(grid.largest_bet(values), grid.min_bet)
 
 
 def _evaluate(grid, steps, probs, values, bets) -> np.ndarray:

@@ -1,33 +1,43 @@
 """Play with no goal: a plan's bets turned into a walk in grid steps, then the ruin engines on it.
 
-A session without a goal only stops at ruin (or at a stop-loss floor). With a flat bet (timid
-play is the flat bet of the minimum) every round moves the bankroll by one law once the bankroll
-covers the bet; below that the bet is cut to what the bankroll covers, down to the minimum bet,
-and the player is ruined when even the minimum cannot be covered ("cover" is the most one round
-can take or tie up per unit bet). These are the same rules as bounded sessions, so the answer is
-the limit of theirs as the goal goes to infinity.
+A session without a goal only stops at ruin (or at a stop-loss floor). The walk follows the
+session rules of ``chain.session_rules``, the same copy bounded sessions use: the betting unit
+and its default, the grid, the cover, bets raised to the table minimum and cut to the table
+maximum and to what the bankroll covers, and ruin when even the minimum cannot be covered. So the
+answer is the limit of the bounded sessions' as the goal goes to infinity.
 
-Grid: one step is the betting unit divided by the common denominator of the net results, so
-every bet of whole units moves the bankroll by whole steps. Levels count steps above the ruin
-line (level = bankroll - lowest playing bankroll + 1); ``solve.ruin`` solves the walk (its
-``cut_bets`` module for flat bets, ``progressions`` for martingale and paroli).
+Levels count grid steps above the ruin line (level = bankroll - lowest playing bankroll + 1);
+``solve.ruin`` solves the walk (its ``cut_bets`` engine for flat and timid bets, ``progressions``
+for martingale and paroli). ``solve_no_goal`` takes a parsed ``Plan`` (``strategy.plans``).
 """
 
 from __future__ import annotations
 
-import math
 from collections.abc import Iterable
 from dataclasses import dataclass, replace
 
-from oddsbench.chain.bankroll import grid_steps
+from oddsbench.chain.round_distribution import RoundDistribution
+from oddsbench.chain.session_rules import (
+    TableRules,
+    checked_unit,
+    cover_of,
+    grid_scale,
+    grid_steps,
+    table_rules,
+    whole_units,
+)
 from oddsbench.model.errors import OddsbenchError
-from oddsbench.model.numbers import QQ, Rational, denominator, is_integer, numerator, text, to_int
+from oddsbench.model.numbers import QQ, Rational, denominator, numerator, text, to_int
 from oddsbench.solve.ruin import DEFAULT_DIGITS, Law, NoGoalRuin, solve_cut_bet_ruin, solve_progression_ruin
+from oddsbench.strategy.plans import Plan
+
+PROGRESSIONS = ("martingale", "paroli")
+NO_GOAL_KINDS = ("flat", "timid", *PROGRESSIONS)  # plans whose bet stays bounded as the bankroll grows
 
 
 @dataclass(frozen=True)
 class NoGoalWalk:
-    """The bankroll walk of a flat bet played with no goal, in grid steps (exact)."""
+    """The bankroll walk of a bet played with no goal, in grid steps (exact)."""
 
     bet: Rational  # the plan's bet, money
     bankroll: Rational  # money
@@ -41,6 +51,7 @@ class NoGoalWalk:
     bankroll_grid: int  # bankroll in steps
     low: int  # lowest bankroll (steps) that still plays
     level: int  # bankroll_grid - low + 1: ruin is this walk at 0 or below
+    rules: TableRules  # the session rules the walk was built with
 
     @property
     def need_grid(self) -> int:
@@ -82,13 +93,6 @@ class NoGoalFigures:
         return self.ruin.ruin_from(level, digits)
 
 
-def _whole_units(name: str, value: Rational, unit: Rational) -> int:
-    count = value / unit
-    if not is_integer(count) or count < 1:
-        raise OddsbenchError(f"{name} {text(value)} must be a whole, positive number of betting units ({text(unit)})")
-    return to_int(count)
-
-
 def no_goal_walk(
     outcomes: Iterable[tuple[Rational, Rational]],
     bet: Rational,
@@ -98,51 +102,32 @@ def no_goal_walk(
     min_bet: Rational | None = None,
     floor: Rational = 0,
     max_bet: Rational | None = None,
+    amounts: Iterable[Rational] | None = None,
 ) -> NoGoalWalk:
-    """The walk of a flat bet: ``outcomes`` are (net per unit bet, chance) pairs, exact."""
+    """The walk of a fixed bet: ``outcomes`` are (net per unit bet, chance) pairs, exact.
+
+    ``amounts`` are the plan's own fixed amounts for the default unit (default: the bet itself).
+    """
     pairs = [(QQ(net), QQ(chance)) for net, chance in outcomes]
     if not pairs:
         raise OddsbenchError("the round has no results")
     bet, bankroll, floor = QQ(bet), QQ(bankroll), QQ(floor)
     if bet <= 0:
         raise OddsbenchError(f"the bet must be positive (got {text(bet)})")
-    unit = QQ(unit) if unit is not None else (QQ(min_bet) if min_bet is not None else min(QQ(1), bet))
-    min_bet = QQ(min_bet) if min_bet is not None else unit
-    if unit <= 0:
-        raise OddsbenchError(f"the betting unit must be positive (got {text(unit)})")
-    bet_units = _whole_units("the bet", bet, unit)
-    min_units = _whole_units("the minimum bet", min_bet, unit)
-    if max_bet is not None:
-        max_units = _whole_units("the maximum bet", QQ(max_bet), unit)
-        if max_units < min_units:
-            raise OddsbenchError(f"the maximum bet {text(QQ(max_bet))} is below the minimum bet {text(min_bet)}")
-        bet_units = min(bet_units, max_units)  # the table maximum cuts the plan's bet, as in sessions
-    bet_units = max(bet_units, min_units)  # and the table minimum raises it
-    if cover is None:
-        cover = max([QQ(1)] + [-net for net, _ in pairs])
-    cover = QQ(cover)
-    scale = 1
-    for net, _ in pairs:
-        scale = math.lcm(scale, denominator(net))
-    grid = unit / scale
-
-    def steps(name: str, value: Rational) -> int:
-        return grid_steps(name, value, unit, scale)
-
-    held = steps("the bankroll", bankroll)
-    floor_steps = steps("the floor", floor) if floor else 0
-    if floor < 0 or (floor and floor >= bankroll):
-        raise OddsbenchError(f"the floor {text(floor)} must be at least 0 and below the bankroll {text(bankroll)}")
-
-    def covers(units: int) -> int:  # steps needed to cover a bet of ``units`` units
-        needed = QQ(units * scale) * cover
-        return -((-numerator(needed)) // denominator(needed))
-
-    low = max(floor_steps + 1, covers(min_units), 1)
+    unit = checked_unit(unit, min_bet, (bet,) if amounts is None else amounts)
+    scale = grid_scale(net for net, _ in pairs)
+    cover = QQ(cover) if cover is not None else cover_of((net, QQ(0)) for net, _ in pairs)
+    rules = table_rules(unit, scale, cover, floor, min_bet, max_bet)
+    bet_units = whole_units("the bet", bet, unit)
+    held = grid_steps("session bankroll", bankroll, unit, scale)
+    if floor and floor >= bankroll:
+        raise OddsbenchError(f"session floor {text(floor)} must be below the bankroll {text(bankroll)}")
+    low = rules.low
+    min_money = rules.min_bet * unit
     if held < low:
         raise OddsbenchError(
-            f"a bankroll of {text(bankroll)} cannot cover the minimum bet of {text(min_bet)} "
-            f"(it needs {text(covers(min_units) * grid)})"
+            f"a bankroll of {text(bankroll)} cannot cover the minimum bet of {text(min_money)} "
+            f"(it needs {text(rules.money(rules.cover_steps(rules.min_bet)))})"
         )
 
     def law_of(units: int) -> Law:
@@ -152,26 +137,30 @@ def no_goal_walk(
             law[jump] = law.get(jump, QQ(0)) + chance
         return tuple(sorted(law.items()))
 
-    full_from = max(low, covers(bet_units))
+    full = rules.table_bet(bet_units)
     bottom = []
-    for value in range(low, full_from):
-        cap = (value * denominator(cover)) // (numerator(cover) * scale)  # whole units the bankroll covers
-        units = max(min(bet_units, cap), min_units)
+    for value in range(low, max(low, rules.cover_steps(full))):
+        units = rules.placed(bet_units, value)  # the cut bet: what this bankroll covers
         bottom.append((units * unit, law_of(units)))
     return NoGoalWalk(
         bet=bet,
         bankroll=bankroll,
         unit=unit,
-        min_bet=min_bet,
+        min_bet=min_money,
         cover=cover,
         floor=floor,
-        grid=grid,
-        jumps=law_of(bet_units),
+        grid=rules.step,
+        jumps=law_of(full),
         bottom=tuple(bottom),
         bankroll_grid=held,
         low=low,
         level=held - low + 1,
+        rules=rules,
     )
+
+
+def _round_text(pairs) -> str:
+    return ", ".join(f"{text(net)}:{text(chance)}" for net, chance in sorted(pairs, reverse=True))
 
 
 def solve_no_goal_play(
@@ -187,7 +176,7 @@ def solve_no_goal_play(
     should_stop=None,
     max_bet: Rational | None = None,
 ) -> NoGoalFigures:
-    """Ruin figures of a flat bet played with no goal: the walk, then the cut-bet ruin engine on it."""
+    """Ruin figures of a fixed bet played with no goal: the walk, then the cut-bet ruin engine on it."""
     pairs = [(QQ(net), QQ(chance)) for net, chance in outcomes]
     walk = no_goal_walk(pairs, bet, bankroll, cover, unit=unit, min_bet=min_bet, floor=floor, max_bet=max_bet)
     ruin = solve_cut_bet_ruin(
@@ -199,11 +188,7 @@ def solve_no_goal_play(
         unit=walk.grid,
         should_stop=should_stop,
     )
-    shown = ", ".join(f"{text(net)}:{text(chance)}" for net, chance in sorted(pairs, reverse=True))
-    return NoGoalFigures(walk, ruin, shown)
-
-
-PROGRESSIONS = ("martingale", "paroli")
+    return NoGoalFigures(walk, ruin, _round_text(pairs))
 
 
 def solve_no_goal_progression(
@@ -225,24 +210,15 @@ def solve_no_goal_progression(
     if kind not in PROGRESSIONS:
         raise OddsbenchError(f"unknown progression {kind!r}")
     pairs = [(QQ(net), QQ(chance)) for net, chance in outcomes]
-    top_bet = QQ(base) * 2 ** (series - 1)
-    walk = no_goal_walk(pairs, top_bet, bankroll, cover, unit=unit, min_bet=min_bet, floor=floor, max_bet=max_bet)
-    scale = numerator(walk.unit / walk.grid)
-    base_units = _whole_units("the base bet", QQ(base), walk.unit)
-    min_units = to_int(walk.min_bet / walk.unit)
-    max_units = to_int(QQ(max_bet) / walk.unit) if max_bet is not None else None
-    cover_q = walk.cover
-
-    def units_at(level: int, state: int) -> int:
-        value = level + walk.low - 1
-        cap = (value * denominator(cover_q)) // (numerator(cover_q) * scale)
-        planned = base_units * 2**state
-        if max_units is not None:
-            planned = min(planned, max_units)
-        return max(min(max(planned, min_units), cap), min_units)
+    base = QQ(base)
+    walk = no_goal_walk(
+        pairs, base * 2 ** (series - 1), bankroll, cover, unit, min_bet, floor, max_bet, amounts=(base,)
+    )
+    rules = walk.rules
+    base_units = whole_units("the base bet", base, walk.unit)
 
     def moves_at(level: int, state: int):
-        units = units_at(level, state)
+        units = rules.placed(base_units * 2**state, level + walk.low - 1)
         moves = []
         for net, chance in pairs:
             raising = net < 0 if kind == "martingale" else net > 0
@@ -252,7 +228,7 @@ def solve_no_goal_progression(
                 nxt = state + 1 if state + 1 < series else 0
             else:
                 nxt = 0
-            moves.append((to_int(net * scale * units), chance, nxt))
+            moves.append((to_int(net * rules.scale * units), chance, nxt))
         return tuple(moves)
 
     ruin = solve_progression_ruin(
@@ -264,10 +240,50 @@ def solve_no_goal_progression(
         digits=digits,
         unit_name="grid step(s) of " + text(walk.grid),
         notes=(
-            f"{kind}: base {text(QQ(base))}, at most {series} bets in a series; the plan's place in the series "
+            f"{kind}: base {text(base)}, at most {series} bets in a series; the plan's place in the series "
             "is part of the state (a modulated walk)",
         ),
         should_stop=should_stop,
     )
-    shown = ", ".join(f"{text(net)}:{text(chance)}" for net, chance in sorted(pairs, reverse=True))
-    return NoGoalFigures(replace(walk, bet=QQ(base)), ruin, shown, f"{kind}:{text(QQ(base))}:{series}")
+    return NoGoalFigures(replace(walk, bet=base), ruin, _round_text(pairs), f"{kind}:{text(base)}:{series}")
+
+
+def solve_no_goal(
+    distribution: RoundDistribution,
+    plan: Plan,
+    bankroll: Rational,
+    floor: Rational = 0,
+    min_bet: Rational | None = None,
+    max_bet: Rational | None = None,
+    unit: Rational | None = None,
+    digits: int = DEFAULT_DIGITS,
+    check: bool = True,
+    should_stop=None,
+) -> NoGoalFigures:
+    """One plan played with no goal, until ruin, on a round's distribution (the session rules throughout).
+
+    Flat and timid bets are a walk with cut bets near the bottom; martingale and paroli a
+    modulated walk. Plans whose bet grows with the bankroll, or that aim at a goal, are refused.
+    """
+    outcomes = [(o.net, o.prob) for o in distribution.outcomes]
+    common = dict(
+        cover=distribution.cover,
+        digits=digits,
+        unit=unit,
+        min_bet=min_bet,
+        max_bet=max_bet,
+        floor=floor or 0,
+        should_stop=should_stop,
+    )
+    if plan.kind in PROGRESSIONS:
+        return solve_no_goal_progression(outcomes, plan.kind, plan.amount, plan.series, bankroll, **common)
+    if plan.kind == "flat":
+        bet = plan.amount
+    elif plan.kind == "timid":  # always the table minimum
+        bet = min_bet if min_bet is not None else checked_unit(unit, min_bet)
+    else:
+        raise OddsbenchError(
+            f"--plan {plan.spelling!r}: with no goal the bet must stay bounded; use flat:B, timid, "
+            "martingale:B:K or paroli:B:K"
+        )
+    return solve_no_goal_play(outcomes, bet, bankroll, check=check, **common)
