@@ -37,7 +37,7 @@ from oddsbench.model.hands import DRAWN, SUIT_FUNCTIONS, RankClasses, Resolved, 
 from oddsbench.model.numbers import QQ, Rational, text
 from oddsbench.model.ruleset import Outcome, Ruleset, State, Strategy
 
-MAX_DEAL_HANDS = 5_000_000  # hands looked at in one expansion, all draws together
+MAX_DEAL_HANDS = 500_000  # hands looked at in one expansion, all draws together (seconds, not minutes)
 Hands = tuple[tuple[int, ...], ...]  # per hand, a count per kind of card
 Summary = tuple[tuple[int, ...], tuple[int, ...] | None]  # counts per rank class, per suit (None: suits not told)
 
@@ -602,6 +602,30 @@ class SingleDraw:
     @property
     def hands(self) -> int:
         return comb(self.size, self.count)
+
+    def counted(self, chances: dict[str, Rational]) -> HandCounts | None:
+        """Each end's chance as a count of hands (None when some chance is not a whole count, which
+        a single draw cannot give; or when exact chances are missing)."""
+        per_end = []
+        for name, chance in chances.items():
+            if chance is None:
+                return None
+            hands = chance * self.hands
+            if QQ.denom(hands) != 1:
+                return None
+            per_end.append((name, int(QQ.numer(hands))))
+        return HandCounts(self.count, self.size, self.kind, self.hands, tuple(per_end))
+
+
+@dataclass(frozen=True)
+class HandCounts:
+    """How many of the ``total`` = C(size, count) equally likely hands end in each end state."""
+
+    count: int
+    size: int
+    kind: str
+    total: int
+    per_end: tuple[tuple[str, int], ...]
 
 
 def single_draw(ruleset: Ruleset) -> SingleDraw | None:

@@ -329,6 +329,26 @@ def height(node: Node) -> int:
     return 1
 
 
+def spelled(node: Node, top: bool = True) -> str:
+    """Expression text for a tree (operations inside others in parentheses): how a condition kept
+    for the dealer is shown in reports."""
+    if isinstance(node, Number):
+        value = node.value
+        shown = str(QQ.numer(value)) if QQ.denom(value) == 1 else f"{QQ.numer(value)}/{QQ.denom(value)}"
+        return shown if top or QQ.denom(value) == 1 and value >= 0 else f"({shown})"
+    if isinstance(node, Name):
+        return node.name
+    if isinstance(node, Call):
+        return f"{node.function}({', '.join(spelled(arg) for arg in node.args)})"
+    if isinstance(node, Unary):
+        inner = f"{'not ' if node.op == 'not' else node.op}{spelled(node.operand, False)}"
+    elif isinstance(node, Binary):
+        inner = f"{spelled(node.left, False)} {node.op} {spelled(node.right, False)}"
+    else:
+        inner = f"if {spelled(node.test)} then {spelled(node.then)} else {spelled(node.otherwise)}"
+    return inner if top else f"({inner})"
+
+
 def partial(node: Node, env: Mapping[str, Rational | Node]) -> Node:
     """The tree with every name known in ``env`` put in (a value, or a tree of its own), calls of
     hand functions kept: what a family or a ``let`` knows at reading time, kept for dealing.

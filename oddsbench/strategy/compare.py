@@ -12,7 +12,7 @@ import dataclasses
 from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 
-from oddsbench.chain.deal import dealt
+from oddsbench.chain.deal import dealt, single_draw
 from oddsbench.chain.round_chain import build_round_chain
 from oddsbench.model.defaults import DEFAULT_EXACT_BITS, DEFAULT_MAX_STATES, ROUND_EXACT_LIMIT
 from oddsbench.model.errors import OddsbenchError
@@ -107,6 +107,15 @@ def _started(ruleset: Ruleset, state: str | None) -> Ruleset:
     return dataclasses.replace(ruleset, start=state)
 
 
+def with_hands(ruleset: Ruleset, figures: RoundFigures) -> RoundFigures:
+    """A round dealt in one draw of k (a deck game): each end's chance also as a count of hands."""
+    draw = single_draw(ruleset)
+    if draw is None:
+        return figures
+    counted = draw.counted({name: figure.exact for name, figure in figures.end_probability.items()})
+    return dataclasses.replace(figures, hands=counted) if counted is not None else figures
+
+
 def names_several(starts: str | None) -> bool:
     """Whether a ``--from`` text names several start states (a list or a pattern) rather than one."""
     return starts is not None and ("," in starts or any(char in starts for char in "*?["))
@@ -163,7 +172,7 @@ def solve_rounds(
         played = starting_at(ruleset, start, max_states)
         policy = policy_of(played, strategy)
         chain = build_round_chain(played, policy, max_states)
-        figures = solve_round(chain, rounds, exact_limit, should_stop, exact_bits)
+        figures = with_hands(_started(ruleset, start), solve_round(chain, rounds, exact_limit, should_stop, exact_bits))
         columns.append(RoundColumn(figures.start, strategy, policy, figures))
     return RoundResults(ruleset.title, tuple(columns), compared)
 
