@@ -138,6 +138,7 @@ class _Dealer:
         self.compiled: dict[str, _Lists] = {}
         self.budget = MAX_DEAL_HANDS
         self.reached = 0
+        self.summaries: dict[tuple[int, ...], Summary] = {}
 
     # -- the walk ---------------------------------------------------------------------------
     def run(self) -> Ruleset:
@@ -190,29 +191,47 @@ class _Dealer:
     def expand(self, state: State, hands: Hands, name: str, name_of: Callable[[str, Hands], str]) -> State:
         compiled = self.compile(state)
         if state.draw is None:
-            results = [(hands, None, QQ(1))]
+            results: list[tuple[Hands, tuple[int, ...] | None, int | Rational]] = [(hands, None, 1)]
+            scale: Rational = QQ(1)
         elif self.pattern_counted(state, compiled):
             return self.by_pattern(state, hands, name, compiled)
         else:
-            results = self.drawn(state, hands, name)
-        edges: dict[str | None, dict[tuple, Rational]] = {action: {} for action, _, _ in compiled.lists}
+            results, scale = self.drawn(state, hands, name)
+        # weights per (action, target, entry): entries are the memoised (outcome, prob, pay, stake)
+        # tuples, so the hot loop hashes names and ids, never exact numbers
+        weights: dict[tuple, int | Rational] = {}
+        entries: dict[int, tuple] = {}
+        summary = self.summary
         for after, drawn, weight in results:
-            summaries = [self.kinds.summary(hand) for hand in after]
-            drawn_summary = self.kinds.summary(drawn) if drawn is not None else None
-            chosen = self.choose(compiled, summaries, drawn_summary, name, after)
+            chosen = self.choose(
+                compiled, [summary(hand) for hand in after], summary(drawn) if drawn is not None else None, name, after
+            )
             for action, picked in chosen:
-                for outcome, prob, pay, stake in picked:
-                    target = name_of(outcome.to, after)
-                    key = (target, pay, stake, outcome.note)
-                    bucket = edges[action]
-                    bucket[key] = bucket.get(key, QQ(0)) + weight * prob
+                for entry in picked:
+                    key = (action, name_of(entry[0].to, after), id(entry))
+                    entries[id(entry)] = entry
+                    prob = entry[1]
+                    weights[key] = weights.get(key, 0) + (weight if prob == 1 else weight * prob)
+        edges: dict[str | None, dict[tuple, tuple]] = {action: {} for action, _, _ in compiled.lists}
+        for (action, target, entry_id), weight in weights.items():
+            outcome, _, pay, stake = entries[entry_id]
+            edges[action][(target, entry_id)] = (weight * scale, pay, stake, outcome.note)
         return self.state_from(state, name, edges)
 
-    def state_from(self, state: State, name: str, edges: dict[str | None, dict[tuple, Rational]]) -> State:
-        def outcomes(bucket: dict[tuple, Rational]) -> tuple[Outcome, ...]:
+    def summary(self, hand: tuple[int, ...]) -> Summary:
+        known = self.summaries.get(hand)
+        if known is None:
+            known = self.kinds.summary(hand)
+            self.summaries[hand] = known
+        return known
+
+    def state_from(self, state: State, name: str, edges: dict[str | None, dict[tuple, tuple]]) -> State:
+        """The dealt state: per action, edges keyed by (target, ...) holding (chance, pay, stake, note)."""
+
+        def outcomes(bucket: dict[tuple, tuple]) -> tuple[Outcome, ...]:
             return tuple(
-                Outcome(to=to, prob=prob, pay=pay, stake=stake, note=note)
-                for (to, pay, stake, note), prob in bucket.items()
+                Outcome(to=key[0], prob=prob, pay=pay, stake=stake, note=note)
+                for key, (prob, pay, stake, note) in bucket.items()
                 if prob != 0
             )
 
@@ -223,13 +242,16 @@ class _Dealer:
             raise OddsbenchError(f"{self.source}: state {name!r}: no action is offered for these hands")
         return State(name=name, choices=choices)
 
-    def drawn(self, state: State, hands: Hands, name: str) -> list[tuple[Hands, tuple[int, ...], Rational]]:
-        """Every hand after the draw: the hands, the cards drawn, the chance."""
+    def drawn(
+        self, state: State, hands: Hands, name: str
+    ) -> tuple[list[tuple[Hands, tuple[int, ...], int | Rational]], Rational]:
+        """Every hand after the draw (the hands, the cards drawn, a weight), and the scale that turns the
+        weights into chances: numbers of ways over C(left, count) (exact fractions once cards are taken)."""
         draw = state.draw
         index = self.position[draw.hand]  # type: ignore[union-attr]
         left = self.left(hands)
         size = len(left)
-        partial: list[tuple[tuple[int, ...], tuple[int, ...], Rational]] = [(left, (0,) * size, QQ(1))]
+        partial: list[tuple[tuple[int, ...], tuple[int, ...], int | Rational]] = [(left, (0,) * size, 1)]
         for card in draw.take:  # type: ignore[union-attr]
             grown = []
             kinds = self.kinds.matching(self.deck, card)
@@ -241,12 +263,12 @@ class _Dealer:
                     )
                 for kind in kinds:
                     if remaining[kind]:
-                        grown.append(
-                            (_minus(remaining, kind), _plus_one(taken, kind), weight * QQ(remaining[kind], there))
-                        )
+                        chance = QQ(remaining[kind], there)
+                        grown.append((_minus(remaining, kind), _plus_one(taken, kind), weight * chance))
             partial = grown
         count = draw.count  # type: ignore[union-attr]
         results = []
+        totals = {sum(remaining) for remaining, _, _ in partial}
         for remaining, taken, weight in partial:
             total = sum(remaining)
             if count > total:
@@ -254,14 +276,22 @@ class _Dealer:
                     f"{self.source}: state {name!r}: draws {count} {self.deck.kind}(s), but only {total} are left"
                 )
             self.spend(count_multisets(remaining, count, self.budget), name, count, total)
-            whole = comb(total, count)
+            # one denominator for all: C(total, count), the same for every branch of the takes
+            if count == 1 and not draw.take:  # type: ignore[union-attr]  # the commonest draw: one card
+                single = (0,) * size
+                for kind, ways in enumerate(remaining):
+                    if ways:
+                        after = hands[:index] + (_plus_one(hands[index], kind),) + hands[index + 1 :]
+                        results.append((after, _plus_one(single, kind), weight * ways))
+                continue
             for x, ways in multisets(remaining, count):
-                drawn = tuple(a + b for a, b in zip(taken, x))
-                after = tuple(
-                    tuple(a + b for a, b in zip(hand, drawn)) if i == index else hand for i, hand in enumerate(hands)
-                )
-                results.append((after, drawn, weight * QQ(ways, whole)))
-        return results
+                drawn = _added(taken, x) if draw.take else x  # type: ignore[union-attr]
+                after = hands[:index] + (_added(hands[index], drawn),) + hands[index + 1 :]
+                results.append((after, drawn, weight * ways))
+        (total,) = totals if len(totals) == 1 else (None,)
+        if total is None:  # takes of different sizes cannot happen: each take removes exactly one card
+            raise AssertionError("takes left different numbers of cards")
+        return results, QQ(1, comb(total, count))
 
     def spend(self, hands: int, name: str, count: int, total: int) -> None:
         self.budget -= hands
@@ -317,11 +347,13 @@ class _Dealer:
                 key = tuple(values)
                 tally[key] = tally.get(key, 0) + ways
         whole = comb(total, count)
-        bucket: dict[tuple, Rational] = {}
+        bucket: dict[tuple, tuple] = {}
         for key, ways in tally.items():
-            for outcome, prob, pay, stake in self.decide(compiled, key, name, None)[0][1]:
-                edge = (outcome.to, pay, stake, outcome.note)
-                bucket[edge] = bucket.get(edge, QQ(0)) + QQ(ways, whole) * prob
+            for entry in self.decide(compiled, key, name, None)[0][1]:
+                outcome, prob, pay, stake = entry
+                edge = (outcome.to, id(entry))
+                before = bucket[edge][0] if edge in bucket else QQ(0)
+                bucket[edge] = (before + QQ(ways, whole) * prob, pay, stake, outcome.note)
         return self.state_from(state, name, {None: bucket})
 
     # -- outcomes for one set of hands -------------------------------------------------------
@@ -518,6 +550,10 @@ def _field(outcome: Outcome, name: str, params: dict[str, Rational], value) -> R
     """An outcome's pay, stake or prob: its expression for these hands, or its fixed value."""
     tree = outcome.rule(name)
     return evaluate(tree, params, value) if tree is not None else getattr(outcome, name)
+
+
+def _added(a: tuple[int, ...], b: tuple[int, ...]) -> tuple[int, ...]:
+    return tuple(x + y for x, y in zip(a, b))
 
 
 def _minus(values: tuple[int, ...], index: int) -> tuple[int, ...]:

@@ -39,6 +39,7 @@ def run(args: argparse.Namespace) -> int:
     if decisions:
         summary += f", {decisions} decision states, {len(ruleset.strategies)} strategies"
     if dealt is not None:
-        summary += f"; dealt from {ruleset.deck.describe()}: {dealt:,} state{'' if dealt == 1 else 's'} from {ruleset.start!r}"
+        states = f"{dealt:,} state{'' if dealt == 1 else 's'}"
+        summary += f"; dealt from {ruleset.deck.describe()}: {states} from {ruleset.start!r}"
     print(summary)
     return 0

@@ -28,6 +28,7 @@ from __future__ import annotations
 
 from collections.abc import Sequence
 from dataclasses import dataclass
+from operator import mul
 
 from oddsbench.model.deck import ACE, Deck
 from oddsbench.model.expr import HAND_FUNCTIONS, Call, Name, Number
@@ -136,6 +137,7 @@ class RankClasses:
     places: tuple[int, ...]  # 1-based place in the deck's rank order (straights, high)
     ace_rule: str
     whole_values: tuple[int, ...] | None = None  # the values as ints, when every one is whole
+    ace_classes: tuple[int, ...] = ()  # the classes of aces (total() may count one as 11)
 
     @staticmethod
     def of(deck: Deck, merge: bool) -> RankClasses:
@@ -157,6 +159,7 @@ class RankClasses:
             places=tuple(group[0] + 1 for group in members),
             ace_rule=deck.ace,
             whole_values=_whole_values(tuple(deck.values[group[0]] for group in members)),
+            ace_classes=tuple(i for i, group in enumerate(members) if deck.ranks[group[0]] == ACE),
         )
 
 
@@ -200,10 +203,10 @@ def hand_value(
         held = [_place(i, classes, low=classes.ace_rule == "low") for i, count in enumerate(ranks) if count]
         return max(held, default=0)
     values = classes.whole_values or classes.values
-    hard = sum(values[i] * count for i, count in enumerate(ranks) if count)  # type: ignore[operator]
+    hard = sum(map(mul, values, ranks))  # type: ignore[arg-type]
     if function == "hard":
         return hard
-    soft = any(count and classes.aces[i] for i, count in enumerate(ranks)) and hard + SOFT_EXTRA <= SOFT_LIMIT
+    soft = hard + SOFT_EXTRA <= SOFT_LIMIT and any(ranks[i] for i in classes.ace_classes)
     if function == "soft":
         return 1 if soft else 0
     if function == "total":

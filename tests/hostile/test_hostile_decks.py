@@ -8,6 +8,7 @@ traceback, within the time bound. Misuse the reader already catches is in the ta
 from __future__ import annotations
 
 import pytest
+
 from tests.hostile.test_hostile_cli import assert_handled, run_cli
 
 HEAD = '[ruleset]\ntitle = "hostile"\nstart = "deal"\n'
