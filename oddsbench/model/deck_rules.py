@@ -221,3 +221,50 @@ def read_hand_rule(
         if not uses_hands(tree) and not _holds(tree, f"{place}, when", reader):
             return None
     return (state, tree, action)
+
+
+def cases_well_formed(
+    raw: list[Any],
+    rules: Sequence[tuple[Node | None, tuple[tuple[str, Node], ...]]],
+    where: str,
+    reader,
+    draws: bool,
+    field_name: str,
+) -> bool:
+    """Cases take no ``prob`` (the draw, or the first condition that holds, decides), and nothing may
+    follow a case without ``when`` (it takes every hand)."""
+    for index, (item, (_, by_hand)) in enumerate(zip(raw, rules), start=1):
+        if isinstance(item, dict) and "prob" in item and all(key != "prob" for key, _ in by_hand):
+            why = "the draw gives the chance" if draws else "the first case whose 'when' holds is taken"
+            reader.error(f"{where}, outcome {index}, prob", f"outcomes chosen by the cards take no 'prob' ({why})")
+            return False
+    unconditional = [index for index, (when, _) in enumerate(rules, start=1) if when is None]
+    if unconditional and unconditional[0] < len(rules):
+        first = unconditional[0]
+        reader.error(
+            f"{where}, outcome {first + 1}",
+            f"is never taken: outcome {first} has no 'when', so it takes every hand (put it last)",
+        )
+        return False
+    if any(key == "prob" for _, by_hand in rules for key, _ in by_hand):
+        reader.error(where, f"outcomes chosen by the cards take no 'prob' ({field_name})")
+        return False
+    return True
+
+
+def split_strategy_rules(
+    rules: Any, where: str, reader, deck: Deck | None, hands: Sequence[str]
+) -> tuple[Any, list[tuple[str, Node | None, str]]]:
+    """A strategy's ``rules``: those by ``state`` (read here, for a deck game) and the rest (families)."""
+    if not isinstance(rules, list) or not any(isinstance(rule, dict) and "state" in rule for rule in rules):
+        return rules, []
+    by_hand = []
+    family_rules = []
+    for number, rule in enumerate(rules, start=1):
+        if isinstance(rule, dict) and "state" in rule:
+            read = read_hand_rule(rule, f"{where}, rule {number}", reader, deck, hands)
+            if read is not None:
+                by_hand.append(read)
+        else:
+            family_rules.append(rule)
+    return family_rules or None, by_hand
