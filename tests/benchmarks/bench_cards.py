@@ -25,9 +25,12 @@ from oddsbench.model.load import load_ruleset
 from oddsbench.model.numbers import QQ
 from oddsbench.solve.round import solve_round
 
-RULESETS = Path(__file__).resolve().parents[2] / "rulesets"
+ROOT = Path(__file__).resolve().parents[2]
+RULESETS = ROOT / "rulesets"
+sys.path.insert(0, str(ROOT / "tests"))
+from unit.test_dealer_finite_shoe import brute_force  # noqa: E402  (the baseline is the tests' own walk)
+
 RANKS = "23456789TJQKA"
-FINALS = ("stand-17", "stand-18", "stand-19", "stand-20", "stand-21", "blackjack", "bust")
 
 
 def classify(hand) -> str:
@@ -95,32 +98,8 @@ def ours(name: str, start: str | None = None, params=None) -> tuple[dict[str, QQ
 
 
 def dealer_brute_force(upcard: int, decks: int) -> dict[str, QQ]:
-    shoe = {value: 4 * decks * (4 if value == 10 else 1) for value in range(1, 11)}
-    first = 1 if upcard == 11 else upcard
-    shoe[first] -= 1
-    row = dict.fromkeys(FINALS, QQ(0))
-
-    def walk(cards: list[int], chance) -> None:
-        hard = sum(cards)
-        soft = 1 in cards and hard + 10 <= 21
-        total = hard + 10 if soft else hard
-        if len(cards) == 2 and total == 21:
-            row["blackjack"] += chance
-        elif hard > 21:
-            row["bust"] += chance
-        elif total >= 17 and len(cards) >= 2:
-            row[f"stand-{total}"] += chance
-        else:
-            left = sum(shoe.values())
-            for value in range(1, 11):
-                if shoe[value]:
-                    weight = chance * QQ(shoe[value], left)
-                    shoe[value] -= 1
-                    walk([*cards, value], weight)
-                    shoe[value] += 1
-
-    walk([first], QQ(1))
-    return {name: value for name, value in row.items() if value}
+    """The tests' independent walk over every sequence of cards (tests/unit/test_dealer_finite_shoe.py)."""
+    return {name: value for name, value in brute_force(upcard, decks).items() if value}
 
 
 def main() -> None:
