@@ -6,6 +6,7 @@ the history, so undo, redo and the unsaved-changes guard all compare plain text.
 
 from __future__ import annotations
 
+import tomllib
 from collections.abc import Callable
 from dataclasses import dataclass
 from pathlib import Path
@@ -16,6 +17,7 @@ from oddsbench.model.atomic_write import write_text_atomically
 from oddsbench.model.document import DocumentError, RulesetDocument, parse_document
 from oddsbench.model.errors import OddsbenchError, Problem
 from oddsbench.model.history import History, Step
+from oddsbench.model.toml_edits import LayoutError
 from oddsbench.tui.bundled import is_bundled
 
 Edit = Callable[[RulesetDocument], object]
@@ -82,14 +84,16 @@ class EditSession:
         except DocumentError as error:
             self._load(before)
             return EditOutcome(False, str(error))
-        except (TOMLKitError, AttributeError, TypeError, KeyError, IndexError) as error:
+        except (LayoutError, TOMLKitError, AttributeError, TypeError, KeyError, IndexError, ValueError) as error:
             # tomlkit meets a layout it cannot edit in place: refuse the edit, keep every byte
             self._load(before)
-            return EditOutcome(
-                False,
-                f"this file's layout cannot take that edit ({type(error).__name__}): make it in the Source view (F6)",
-            )
+            return EditOutcome(False, _layout_refusal(error))
         after = self.document.text()
+        try:
+            tomllib.loads(after)  # what tomlkit wrote must read back as TOML, or the edit is not made
+        except tomllib.TOMLDecodeError as error:
+            self._load(before)
+            return EditOutcome(False, _layout_refusal(error))
         self.history.record(after, label, field)
         return EditOutcome(after != before)
 
@@ -126,3 +130,7 @@ class EditSession:
 
     def _load(self, text: str) -> None:
         self.document, self.toml_problem = parse_document(text, self.source)
+
+
+def _layout_refusal(error: Exception) -> str:
+    return f"this file's layout cannot take that edit ({type(error).__name__}): make it in the Source view (F6)"
