@@ -22,7 +22,6 @@ from tomlkit.exceptions import ParseError, TOMLKitError
 from oddsbench.model.document_base import DocumentError, OutcomeList
 from oddsbench.model.document_families import FamilyEdits, as_template
 from oddsbench.model.document_outcomes import FAMILY_FIELDS, OUTCOME_FIELDS, OutcomeEdits, OutcomeRow
-from oddsbench.model.errors import Problem
 from oddsbench.model.toml_edits import TEXT_FIELDS, multiline_array, rename_key, shown, value_item
 
 HEAD_FIELDS = ("title", "about", "start", "stake")
@@ -37,7 +36,7 @@ __all__ = [
     "RulesetDocument",
     "TEXT_FIELDS",
     "TomlPlace",
-    "parse_document",
+    "parse_with_place",
     "shown",
     "value_item",
 ]
@@ -50,16 +49,6 @@ class TomlPlace:
     line: int
     column: int
     reason: str
-
-
-def parse_document(content: str, source: str) -> tuple[RulesetDocument | None, Problem | None]:
-    """The editable document of some text, or the one problem that stops TOML editing."""
-    document, place = parse_with_place(content)
-    if document is not None:
-        return document, None
-    if place is None:
-        return None, Problem(source, "", "not valid TOML: nested too deeply")
-    return None, Problem(source, f"line {place.line}, column {place.column}", f"not valid TOML: {place.reason}")
 
 
 def parse_with_place(content: str) -> tuple[RulesetDocument | None, TomlPlace | None]:
@@ -206,18 +195,25 @@ class RulesetDocument(FamilyEdits, OutcomeEdits):
     def state_references(self, name: str) -> list[str]:
         """Every place that names the state, in words: the start, outcome targets (family templates
         that spell the name as written), strategy entries."""
+        return self.references_to({name})
+
+    def references_to(self, names: set[str], skip_family: str | None = None) -> list[str]:
+        """Every place outside the states ``names`` themselves (and outside ``skip_family``) that names
+        one of them."""
         found = []
-        if (self._table("ruleset") or {}).get("start") == name:
+        if (self._table("ruleset") or {}).get("start") in names:
             found.append("the round's start")
+        templates = {as_template(name) for name in names}
         for owner, family in self._outcome_owners():
-            target = as_template(name) if family else name
+            if (owner in names and not family) or (family and owner == skip_family):
+                continue
             for where in self.outcome_lists(owner, family):
                 rows = self._rows(where)
                 for index in range(len(rows)):
-                    if _targets(rows.row(index), target) and not (owner == name and not family):
+                    if _targets(rows.row(index), templates if family else names):
                         place = where.owner_label if where.action is None else f"{where.owner_label}, {where.label}"
                         found.append(f"{place}, outcome {index + 1}")
-        found += [f"strategy {strategy!r}" for strategy, body in self._strategy_tables() if name in body]
+        found += [f"strategy {strategy!r}" for strategy, body in self._strategy_tables() if names & set(body)]
         return found
 
     def family_references(self, name: str) -> list[str]:
@@ -234,13 +230,13 @@ class RulesetDocument(FamilyEdits, OutcomeEdits):
         return [(name, False) for name in self.state_names()] + [(name, True) for name in self.family_names()]
 
 
-def _targets(item: Any, target: str) -> bool:
+def _targets(item: Any, targets: set[str]) -> bool:
     if not isinstance(item, dict):
         return False
     to = item.get("to")
-    if to == target:
-        return True
-    return isinstance(to, list) and any(isinstance(case, dict) and case.get("to") == target for case in to)
+    if isinstance(to, str):
+        return to in targets
+    return isinstance(to, list) and any(isinstance(case, dict) and case.get("to") in targets for case in to)
 
 
 def _retarget(item: Any, old: str, new: str) -> int:

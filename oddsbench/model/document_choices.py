@@ -75,7 +75,7 @@ class ChoiceEdits(StrategyEdits):
             changed = self._edit_rules(name, old, lambda _, rows, index: rows.set(index, "action", new))
         else:
             changed = self._rename_action_entries(name, old, new)
-        if not any(old in self.actions(owner, is_family) for owner, is_family in self._decision_owners()):
+        if not any(old in self.actions(owner, is_family) for owner, is_family in self.decision_owners()):
             changed += self._rename_default(old, new)  # no other state offers it: the default follows
         return changed
 
@@ -154,7 +154,7 @@ class ChoiceEdits(StrategyEdits):
 
     # ----- internals -----
 
-    def _decision_owners(self) -> list[tuple[str, bool]]:
+    def decision_owners(self) -> list[tuple[str, bool]]:
         owners = [(name, False) for name in self._names("states")]
         owners += [(name, True) for name in self._names("families")]
         return [(name, family) for name, family in owners if self.actions(name, family)]

@@ -10,8 +10,9 @@ from __future__ import annotations
 
 import tomllib
 from collections.abc import Mapping
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from pathlib import Path
+from typing import Any
 
 from oddsbench.model.document_checks import document_problems
 from oddsbench.model.errors import Problem, RulesetError
@@ -25,10 +26,14 @@ MAX_FILE_BYTES = 2_000_000
 
 @dataclass(frozen=True)
 class LoadResult:
-    """What reading found: the ruleset (None when any error) and every problem, in order."""
+    """What reading found: the ruleset (None when any error) and every problem, in order; and, for
+    the workbench's family forms, each family-made state's member (family, index values) and its
+    plain table as expanded (even when another part of the file has an error)."""
 
     ruleset: Ruleset | None
     problems: tuple[Problem, ...]
+    members: Mapping[str, FamilyMember] = field(default_factory=dict)
+    member_tables: Mapping[str, Mapping[str, Any]] = field(default_factory=dict)
 
     @property
     def errors(self) -> tuple[Problem, ...]:
@@ -92,7 +97,7 @@ def read_ruleset_text(content: str, source: str = "<text>", params: ParamOverrid
 
         problems.extend(family_origin(problem, reader.members) for problem in validate(ruleset))
     has_error = any(problem.is_error for problem in problems)
-    return LoadResult(None if has_error else ruleset, tuple(problems))
+    return LoadResult(None if has_error else ruleset, tuple(problems), reader.members, reader.member_tables)
 
 
 def family_origin(problem: Problem, members: dict[str, FamilyMember]) -> Problem:

@@ -14,8 +14,8 @@ from pathlib import Path
 from tomlkit.exceptions import TOMLKitError
 
 from oddsbench.model.atomic_write import write_text_atomically
-from oddsbench.model.document import DocumentError, RulesetDocument, parse_document
-from oddsbench.model.errors import OddsbenchError, Problem
+from oddsbench.model.document import DocumentError, RulesetDocument, TomlPlace, parse_with_place
+from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.history import History, Step
 from oddsbench.model.toml_edits import LayoutError
 from oddsbench.tui.bundled import is_bundled
@@ -29,6 +29,7 @@ class EditOutcome:
 
     changed: bool
     refused: str | None = None
+    result: object = None  # what the edit returned (a count of references changed, a new index)
 
 
 class EditSession:
@@ -39,7 +40,7 @@ class EditSession:
         self.history = History(text)
         self.saved_text: str | None = text if saved else None
         self.document: RulesetDocument | None = None
-        self.toml_problem: Problem | None = None
+        self.toml_place: TomlPlace | None = None  # where the text stops being TOML (None when it is TOML)
         self._load(text)
 
     @classmethod
@@ -80,7 +81,7 @@ class EditSession:
         try:
             if self.document is None:
                 raise DocumentError("the file is not valid TOML")
-            edit(self.document)
+            result = edit(self.document)
         except DocumentError as error:
             self._load(before)
             return EditOutcome(False, str(error))
@@ -95,7 +96,7 @@ class EditSession:
             self._load(before)
             return EditOutcome(False, _layout_refusal(error))
         self.history.record(after, label, field)
-        return EditOutcome(after != before)
+        return EditOutcome(after != before, None, result)
 
     def replace_text(self, text: str, label: str = "source edit") -> None:
         """The whole text edited by hand (the source view)."""
@@ -129,7 +130,17 @@ class EditSession:
         return target
 
     def _load(self, text: str) -> None:
-        self.document, self.toml_problem = parse_document(text, self.source)
+        self.document, self.toml_place = parse_with_place(text)
+        if self.document is None and self.toml_place is None:
+            self.toml_place = TomlPlace(1, 1, "nested too deeply")
+
+    @property
+    def toml_message(self) -> str | None:
+        """Why the text is not TOML, with its line and column; the same words in every view."""
+        place = self.toml_place
+        if self.document is not None or place is None:
+            return None
+        return f"not valid TOML at line {place.line}, column {place.column}: {place.reason}"
 
 
 def _layout_refusal(error: Exception) -> str:

@@ -5,17 +5,20 @@ from __future__ import annotations
 
 from textual.app import ComposeResult
 from textual.containers import Horizontal, Vertical
-from textual.widgets import ContentSwitcher, Footer, ProgressBar, Static, TextArea
+from textual.widgets import ContentSwitcher, Footer, ProgressBar, Static
 
 from oddsbench.tui import analysis
 from oddsbench.tui.widgets.cautions import CautionsBar
+from oddsbench.tui.widgets.family_editor import FamilyEditor
 from oddsbench.tui.widgets.figures import FiguresTable, SummaryLine
 from oddsbench.tui.widgets.navigator import Navigator
 from oddsbench.tui.widgets.problems import ProblemsPanel
 from oddsbench.tui.widgets.sessions import SessionsPanel
 from oddsbench.tui.widgets.setup_editor import ParamsEditor, SessionEditor, SetupEditor
+from oddsbench.tui.widgets.source_view import SourceView
 from oddsbench.tui.widgets.state_editor import StateEditor
 from oddsbench.tui.widgets.strategies import StrategiesPanel
+from oddsbench.tui.widgets.strategy_editor import StrategyEditor
 from oddsbench.tui.widgets.topbar import TopBar
 
 
@@ -31,6 +34,9 @@ def workbench_layout() -> ComposeResult:
                     yield ParamsEditor(id="params-editor")
                     yield SessionEditor(id="session-editor")
                     yield StateEditor(id="state-editor")
+                    yield FamilyEditor(id="family-editor")
+                    yield StrategyEditor(id="strategy-editor")
+                    yield Static("", id="toml-problem")
                 yield ProblemsPanel(id="problems")
             with Vertical(id="side-figures"):
                 yield Static("", classes="figures-heading", id="side-heading")
@@ -44,12 +50,7 @@ def workbench_layout() -> ComposeResult:
             yield StrategiesPanel(id="strategies-panel")
         with Vertical(id="sessions"):
             yield SessionsPanel(", ".join(analysis.DEFAULT_PLANS), id="sessions-panel")
-        with Vertical(id="source"):
-            yield Static(
-                "The file as text: anything the forms do not cover. Edits here are undoable too.",
-                classes="editor-heading",
-            )
-            yield TextArea("", id="source-text", soft_wrap=False, show_line_numbers=True)
+        yield SourceView(id="source")
     yield SummaryLine("", id="summary")
     yield CautionsBar(id="cautions")
     yield Footer()

@@ -21,25 +21,21 @@ from textual.widgets import ContentSwitcher, Static, TextArea
 from textual.worker import Worker, WorkerState
 
 from oddsbench.model.document import DocumentError
-from oddsbench.model.errors import OddsbenchError, Problem
-from oddsbench.model.places import place_of
+from oddsbench.model.errors import OddsbenchError
 from oddsbench.tui import analysis
 from oddsbench.tui.analysis import Reading, RoundFailure, RoundResult
 from oddsbench.tui.editing import EditSession
 from oddsbench.tui.screens.workbench import background
 from oddsbench.tui.screens.workbench.background import READ, ROUND, SESSIONS, STRATEGIES, Comparison, Job
-from oddsbench.tui.screens.workbench.commands import param_command, state_command
+from oddsbench.tui.screens.workbench.edit_view import EditView
 from oddsbench.tui.screens.workbench.layout import workbench_layout
 from oddsbench.tui.screens.workbench.recovery import RecoveryCopy
 from oddsbench.tui.screens.workbench.saving import ask_save_path, saved_message
 from oddsbench.tui.widgets.edits import EditRequested
-from oddsbench.tui.widgets.fields import Field
 from oddsbench.tui.widgets.figures import FiguresTable, SummaryLine
-from oddsbench.tui.widgets.navigator import PARAMS, SESSION, SETUP, STATE, Navigator
+from oddsbench.tui.widgets.navigator import STATE, Navigator
 from oddsbench.tui.widgets.problems import ProblemsPanel
 from oddsbench.tui.widgets.sessions import SessionsPanel
-from oddsbench.tui.widgets.setup_editor import ParamsEditor, SessionEditor, SetupEditor
-from oddsbench.tui.widgets.state_editor import StateEditor
 from oddsbench.tui.widgets.strategies import StrategiesPanel
 from oddsbench.tui.widgets.topbar import TopBar
 
@@ -47,7 +43,7 @@ GOALS = ("max-return", "max-win", "min-loss", "min-steps")
 WIDE = 150
 
 
-class WorkbenchScreen(Screen):
+class WorkbenchScreen(EditView, Screen):
     """One open ruleset: editors, problems, figures and cautions."""
 
     BINDINGS = [
@@ -128,13 +124,11 @@ class WorkbenchScreen(Screen):
         document = self.session.document
         navigator = self.query_one(Navigator)
         problems = self.reading.problems if self.reading else ()
+        navigator.disabled = document is None
         if document is not None:
-            navigator.disabled = False
             navigator.show(document, select, self._failing_states(problems))
-            self._show_editor(problems)
-        else:
-            navigator.disabled = True
-            self.query_one("#views", ContentSwitcher).current = "source"
+        self._show_editor(problems)
+        self.show_toml_problem()
         if self.query_one("#views", ContentSwitcher).current == "source":
             self._fill_source()
         self.sync_recovery()
@@ -151,28 +145,6 @@ class WorkbenchScreen(Screen):
     def drop_recovery(self) -> None:
         """The unsaved changes were saved or given up: their recovery copy is no longer wanted."""
         self.recovery.drop()
-
-    def _failing_states(self, problems: tuple[Problem, ...]) -> set[str]:
-        return {place.state for p in problems if p.is_error if (place := place_of(p)).state}
-
-    def _show_editor(self, problems: tuple[Problem, ...]) -> None:
-        document = self.session.document
-        if document is None:
-            return
-        entry = self.query_one(Navigator).current_entry or SETUP
-        editors = self.query_one("#editors", ContentSwitcher)
-        if entry == SETUP:
-            editors.current = "setup-editor"
-            self.query_one(SetupEditor).show(document, problems)
-        elif entry == PARAMS:
-            editors.current = "params-editor"
-            self.query_one(ParamsEditor).show(document, problems)
-        elif entry == SESSION:
-            editors.current = "session-editor"
-            self.query_one(SessionEditor).show(document, self._session_problem())
-        elif entry.startswith(STATE) and entry[len(STATE) :] in document.state_names():
-            editors.current = "state-editor"
-            self.query_one(StateEditor).show(document, entry[len(STATE) :], problems)
 
     def _update_topbar(self) -> None:
         current = self.query_one("#views", ContentSwitcher).current
@@ -242,7 +214,7 @@ class WorkbenchScreen(Screen):
         if generation != self.generation:
             return
         self.reading = reading
-        problems = reading.problems
+        problems = self.shown_problems(reading)
         ruleset = reading.ruleset
         valid = "valid"
         if ruleset is not None:
@@ -332,17 +304,6 @@ class WorkbenchScreen(Screen):
         comparison = self.strategy_comparison
         self.query_one(StrategiesPanel).show(comparison.result, stale=stale, busy=comparison.busy)
 
-    def _session_problem(self) -> str | None:
-        """The first problem of the [session] table, as the sessions command words it."""
-        ruleset = self.reading.ruleset if self.reading else None
-        if ruleset is None or not ruleset.session:
-            return None
-        try:
-            analysis.session_settings_of(ruleset)
-        except OddsbenchError as error:
-            return str(error)
-        return None
-
     def compare_sessions(self) -> None:
         """Solve every plan's session, unless this text, these plans and this strategy are solved already."""
         ruleset = self.reading.ruleset if self.reading else None
@@ -389,27 +350,9 @@ class WorkbenchScreen(Screen):
             return
         if outcome.changed:
             self.refresh_document(event.select)
-
-    @on(Navigator.Picked)
-    def _picked(self, event: Navigator.Picked) -> None:
-        event.stop()
-        if event.entry == self.entry:
-            return
-        self.entry = event.entry
-        self.session.seal()
-        self._show_editor(self.reading.problems if self.reading else ())
-
-    @on(Navigator.StateCommand)
-    def _state_command(self, event: Navigator.StateCommand) -> None:
-        event.stop()
-        if self.session.document is not None:
-            state_command(self, self.session.document, event.command, event.state)
-
-    @on(ParamsEditor.ParamCommand)
-    def _param_command(self, event: ParamsEditor.ParamCommand) -> None:
-        event.stop()
-        if self.session.document is not None:
-            param_command(self, self.session.document, event.command, event.name)
+            message = event.done(outcome.result) if event.done is not None else None
+            if message:
+                self.notify(message)
 
     @on(TextArea.Changed, "#source-text")
     def _source_changed(self, event: TextArea.Changed) -> None:
@@ -422,9 +365,6 @@ class WorkbenchScreen(Screen):
 
     def action_view(self, view: str) -> None:
         switcher = self.query_one("#views", ContentSwitcher)
-        if self.session.document is None and view != "source":
-            self.notify("the file is not valid TOML: fix it in the source view first", severity="warning")
-            view = "source"
         switcher.current = view
         self.session.seal()
         if view == "source":
@@ -476,16 +416,7 @@ class WorkbenchScreen(Screen):
                 self.workers.cancel_group(self, group)  # each job's end is shown in on_worker_state_changed
             return
         if self.query_one("#views", ContentSwitcher).current == "edit":
-            # Esc in a field goes back to the table of its editor, where it is shown (an end state has
-            # none), else to the list; the focus chain holds exactly the widgets that can take focus now.
-            if isinstance(self.focused, Field):
-                editor = self.query_one("#editors", ContentSwitcher).current
-                target = {"state-editor": "#outcomes", "params-editor": "#params-table"}.get(editor)
-                table = self.query_one(target) if target is not None else None
-                if table is not None and table in self.focus_chain:
-                    table.focus()
-                    return
-            self.query_one(Navigator).focus()
+            self.escape_in_edit()
 
     def action_resolve(self) -> None:
         self.analyse()
