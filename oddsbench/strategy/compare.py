@@ -107,9 +107,7 @@ def _started(ruleset: Ruleset, state: str | None) -> Ruleset:
     return dataclasses.replace(ruleset, start=state)
 
 
-def _shared_deal(
-    ruleset: Ruleset, starts: Sequence[str], max_states: int | None
-) -> Callable[[str], Ruleset | None]:
+def _shared_deal(ruleset: Ruleset, starts: Sequence[str], max_states: int | None) -> Callable[[str], Ruleset | None]:
     """Several start states of one deck game (``--from 'up-*'``): deal once from the file's start and
     start each round there when that deal already holds the state with nothing dealt (hands after it
     are shared: the dealer's 6 then 10 is the same state whatever the upcard was). None: deal apart."""
