@@ -98,7 +98,3 @@ def _int_from_text(digits: str) -> int:
     from flint import fmpz
 
     return int(fmpz(digits.strip()))
-
-
-def from_int(value: int) -> Rational:
-    return QQ(int(value))
