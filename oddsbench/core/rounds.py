@@ -7,13 +7,13 @@ work) -> BestResults``, ``check_strategy(game, name, settings, work) -> BestResu
 from __future__ import annotations
 
 from dataclasses import dataclass
+from typing import TYPE_CHECKING
 
 from oddsbench.core.game import Game
 from oddsbench.core.settings import DEFAULTS, Settings
 from oddsbench.core.work import NO_WORK, Work
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.ruleset import Ruleset
-from oddsbench.strategy.best_policy import BestPolicy, StrategyCheck
 from oddsbench.strategy.compare import (
     RoundResults,
     matching_states,
@@ -23,6 +23,9 @@ from oddsbench.strategy.compare import (
     solve_rounds,
     starting_at,
 )
+
+if TYPE_CHECKING:
+    from oddsbench.strategy.best_policy import BestPolicy, StrategyCheck
 
 
 @dataclass(frozen=True)

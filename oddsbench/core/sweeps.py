@@ -64,8 +64,12 @@ def _session_rows(ruleset, chain, point: Point, exact_limit: int):
     from oddsbench.strategy.session import analyse_session, merge_settings, settings_from_table
 
     overrides = {name: (int(value) if name == "max_rounds" else parse_fraction(value)) for name, value in point.session}
+    from oddsbench.core.session import for_plan
+    from oddsbench.strategy.plans import parse_plan
+
     settings = merge_settings(settings_from_table(ruleset.session, ruleset.source), overrides, ruleset.source)
-    solved = analyse_session(round_distribution(chain), settings, point.plan, exact_limit)
+    plan = parse_plan(point.plan)
+    solved = analyse_session(round_distribution(chain), for_plan(settings, plan), plan, exact_limit)
     rows = [(f"session.{name}", _text(f.exact), f.decimal) for name, f in solved.figures.items()]
     return rows, solved.notes
 
