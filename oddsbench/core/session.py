@@ -91,9 +91,10 @@ def session_round(game: Game, strategy: str | None, max_states: int | None = Non
             raise OddsbenchError(f"{game.source}: --strategy needs a ruleset file; an inline round has no decisions")
         return game.round
     from oddsbench.solve.round_distribution import round_distribution_of
-    from oddsbench.strategy.compare import policy_of
+    from oddsbench.strategy.compare import policy_of, starting_at
 
-    return round_distribution_of(game.ruleset, policy_of(game.ruleset, strategy))
+    played = starting_at(game.ruleset, None, max_states)
+    return round_distribution_of(played, policy_of(played, strategy))
 
 
 def sessions(game: Game, settings: Settings = DEFAULTS, work: Work = NO_WORK) -> SessionResults:
@@ -101,7 +102,7 @@ def sessions(game: Game, settings: Settings = DEFAULTS, work: Work = NO_WORK) ->
     request = settings.session or SessionRequest()
     session = session_settings(game, request)
     strategy = _session_strategy(game, settings)
-    distribution = session_round(game, strategy)
+    distribution = session_round(game, strategy, settings.max_states)
     return solve_plans(game, distribution, session, settings, work, strategy)
 
 

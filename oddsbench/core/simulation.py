@@ -62,7 +62,7 @@ def simulate(game: Game, settings: Settings = DEFAULTS, work: Work = NO_WORK) ->
     from oddsbench.core.rounds import round_play
     from oddsbench.strategy.compare import starting_at
 
-    ruleset = starting_at(game.need_ruleset("simulation"), settings.starts)
+    ruleset = starting_at(game.need_ruleset("simulation"), settings.starts, settings.max_states)
     policy, play = round_play(ruleset, settings, work)
     chain = build_round_chain(ruleset, policy, settings.max_states)
     seed = settings.seed if settings.seed is not None else fresh_seed()
