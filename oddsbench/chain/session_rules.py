@@ -21,8 +21,6 @@ from collections.abc import Iterable
 from dataclasses import dataclass
 from math import gcd, lcm
 
-import numpy as np
-
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.numbers import QQ, Rational, denominator, is_integer, numerator, text, to_int
 
@@ -108,6 +106,8 @@ class TableRules:
 
     def coverable(self, values):
         """Largest bet (betting units) each bankroll (grid steps) can cover for the round's worst case."""
+        import numpy as np  # here, not at the top: reading a ruleset must not load numpy
+
         top, bottom = numerator(self.cover), denominator(self.cover)
         if isinstance(values, int):
             return (values * bottom) // (top * self.scale)
@@ -125,6 +125,8 @@ class TableRules:
 
     def table_bet(self, planned):
         """A planned bet (betting units) raised to the table minimum and cut to the table maximum."""
+        import numpy as np
+
         raised = np.maximum(planned, self.min_bet) if isinstance(planned, np.ndarray) else max(planned, self.min_bet)
         if self.max_bet is None:
             return raised
@@ -132,6 +134,8 @@ class TableRules:
 
     def largest_bet(self, values):
         """The largest bet each playing bankroll may place: what it covers, cut to the table maximum."""
+        import numpy as np
+
         cap = self.coverable(values)
         if self.max_bet is None:
             return cap
@@ -139,6 +143,8 @@ class TableRules:
 
     def placed(self, planned, values):
         """The bet actually placed: ``table_bet(planned)`` cut to what the bankroll covers (the cut bet)."""
+        import numpy as np
+
         covered = self.coverable(values)
         bet = self.table_bet(planned)
         if isinstance(bet, np.ndarray) or isinstance(covered, np.ndarray):
