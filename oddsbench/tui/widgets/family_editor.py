@@ -19,7 +19,9 @@ from oddsbench.model.document import OutcomeList, RulesetDocument
 from oddsbench.model.errors import OddsbenchError, Problem
 from oddsbench.model.places import Place, place_of
 from oddsbench.model.ruleset import Ruleset
+from oddsbench.model.visible import visible
 from oddsbench.tui.family_members import MemberRow, member_figures, members_of
+from oddsbench.tui.plain import plain
 from oddsbench.tui.widgets.edits import EditRequested
 from oddsbench.tui.widgets.fields import Field, FieldRow
 from oddsbench.tui.widgets.outcomes import OutcomesPanel
@@ -63,15 +65,16 @@ class MembersPanel(Vertical):
             shown += f" (the first {len(rows):,} listed)"
         if reading is not None and reading.ruleset is None:
             shown += " · figures wait until the file has no errors"
-        self.query_one("#members-heading", Static).update(Text(shown, style="bold"))
+        self.query_one("#members-heading", Static).update(plain(shown, "bold"))
         table = self.query_one("#members-table", DataTable)
         if rows != self.rows or not table.columns:
             cursor = table.cursor_row
             variables = [name for name, _ in rows[0].index] if rows else []
             table.clear(columns=True)
-            table.add_columns("state", *variables, "kind", "outcomes")
+            table.add_columns("state", *[plain(name) for name in variables], "kind", "outcomes")
             for row in rows:
-                table.add_row(row.state, *[value for _, value in row.index], row.kind, str(len(row.outcomes)))
+                cells = [plain(row.state, multiline=False), *[value for _, value in row.index]]
+                table.add_row(*cells, row.kind, str(len(row.outcomes)))
             if table.row_count:
                 table.move_cursor(row=min(max(cursor, 0), table.row_count - 1))
             self.rows = rows
@@ -93,7 +96,8 @@ class MembersPanel(Vertical):
         outcomes.clear(columns=True)
         outcomes.add_columns("action", "to", "prob", "pay", "stake", "note")
         for action, fields in member.outcomes if member else ():
-            outcomes.add_row(action, *[fields.get(key, "") for key in ("to", "prob", "pay", "stake", "note")])
+            cells = [fields.get(key, "") for key in ("to", "prob", "pay", "stake", "note")]
+            outcomes.add_row(*[plain(cell, multiline=False) for cell in (action, *cells)])
         key = (member.state if member else None, id(self.ruleset), self.strategy)
         if key == self.asked:
             return
@@ -103,7 +107,7 @@ class MembersPanel(Vertical):
         if member is None or self.ruleset is None:
             heading.update(Text("figures from a member appear when the file has no errors", style="dim"))
             return
-        heading.update(Text(f"solving the round from {member.state!r}…", style="magenta"))
+        heading.update(plain(f"solving the round from {member.state!r}…", "magenta"))
         self._solve(self.ruleset, member.state, self.strategy, key)
 
     @work(thread=True, exclusive=True, group="member-figures", exit_on_error=False)
@@ -127,12 +131,12 @@ class MembersPanel(Vertical):
         table = self.query_one("#member-figures", DataTable)
         table.clear(columns=True)
         if isinstance(result, str):
-            heading.update(Text(result, style="yellow"))
+            heading.update(plain(result, "yellow"))
             return
-        heading.update(Text(result.heading, style="bold"))
+        heading.update(plain(result.heading, "bold"))
         table.add_columns("quantity", "exact", "decimal")
         for label, exact, decimal in result.rows:
-            table.add_row(label, Text(exact, justify="right"), Text(decimal, justify="right"))
+            table.add_row(plain(label), Text(exact, justify="right"), Text(decimal, justify="right"))
 
 
 class FamilyEditor(Vertical):
@@ -192,7 +196,7 @@ class FamilyEditor(Vertical):
         lines = [str(p) for p in general] + _grouped([(p, place) for p, place in mine if place.section == "states"])
         message = self.query_one("#family-message", Static)
         more = f"\n… {len(lines) - 4} more in the problems below" if len(lines) > 4 else ""
-        message.update("\n".join(lines[:4]) + more)
+        message.update(plain("\n".join(lines[:4]) + more))
         message.set_class(bool(lines), "-error")
         message.display = bool(lines)
 
@@ -220,7 +224,7 @@ class FamilyEditor(Vertical):
             return
         event.stop()
         name, value, family = field.field[len(PREFIX) :], field.value, self.family
-        if self.fields.get(name) == value:
+        if visible(self.fields.get(name, "")) == value:
             return
         self.fields[name] = value
         self.post_message(

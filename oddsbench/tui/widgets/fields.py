@@ -12,6 +12,8 @@ from textual.containers import Horizontal
 from textual.widgets import Input, Label, Static
 
 from oddsbench.model.errors import Problem
+from oddsbench.model.visible import visible
+from oddsbench.tui.plain import plain
 
 
 class Field(Input):
@@ -34,6 +36,7 @@ class Field(Input):
         follows, so a refresh never overwrites newer keystrokes; undo and redo force the value."""
         if self.has_focus and not getattr(self.screen, "force_fields", False):
             return
+        value = visible(value)  # a control character from the file is shown (and, if edited, kept) as its escape
         if self.value != value:
             self.value = value
             self.cursor_position = len(value)
@@ -74,9 +77,9 @@ class FieldRow(Horizontal):
 
 
 def show_problems(row, field: Field, problems: list[Problem], text: str | None = None) -> None:
-    """The problem lines beside ``field`` (in ``row``'s message), coloured by severity."""
+    """The problem lines beside ``field`` (in ``row``'s message), coloured by severity; plain text."""
     message = row.query_one(".field-message", Static)
-    message.update(text if text is not None else "\n".join(str(problem) for problem in problems))
+    message.update(plain(text if text is not None else "\n".join(str(problem) for problem in problems)))
     message.set_class(any(p.is_error for p in problems), "-error")
     message.set_class(bool(problems) and not any(p.is_error for p in problems), "-warning")
     field.set_class(any(p.is_error for p in problems), "-invalid")

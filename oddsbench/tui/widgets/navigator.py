@@ -10,6 +10,7 @@ from textual.widgets import OptionList
 from textual.widgets.option_list import Option
 
 from oddsbench.model.document import RulesetDocument
+from oddsbench.tui.plain import plain
 
 SETUP = "setup:"
 PARAMS = "params:"
@@ -67,9 +68,9 @@ class Navigator(OptionList):
         ]
         for name in document.state_names():
             kind = document.state_kind(name)
-            label = Text(name)
+            label = plain(name)
             if kind == "end":
-                label.append(f" ({document.state_result(name) or 'end'})", style="dim")
+                label.append(plain(f" ({document.state_result(name) or 'end'})", "dim"))
             elif kind == "choices":
                 label.append(" (decision)", style="dim")
             if name in failing:
@@ -79,8 +80,8 @@ class Navigator(OptionList):
         if families:
             options.append(section("families"))
         for name in families:
-            label = Text(name)
-            label.append(f" {document.family_fields(name)['state']}", style="dim")
+            label = plain(name, multiline=False)
+            label.append_text(plain(f" {document.family_fields(name)['state']}", "dim", multiline=False))
             if FAMILY + name in failing:
                 label.append(" ✗", style="red")
             options.append(Option(label, id=FAMILY + name))
@@ -88,7 +89,7 @@ class Navigator(OptionList):
         if strategies or document.decision_owners():
             options.append(section("strategies"))
         for name in strategies:
-            label = Text(name)
+            label = plain(name, multiline=False)
             if STRATEGY + name in failing:
                 label.append(" ✗", style="red")
             options.append(Option(label, id=STRATEGY + name))

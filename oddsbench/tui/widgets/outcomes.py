@@ -21,6 +21,8 @@ from textual.widgets import DataTable, Input
 
 from oddsbench.model.document import OUTCOME_FIELDS, OutcomeList, OutcomeRow, RulesetDocument
 from oddsbench.model.errors import Problem
+from oddsbench.model.visible import visible
+from oddsbench.tui.plain import plain
 from oddsbench.tui.widgets.edits import EditRequested
 from oddsbench.tui.widgets.fields import Field, FieldRow
 from oddsbench.tui.widgets.parts import PartCell, PartsGroup
@@ -183,7 +185,7 @@ class OutcomesPanel(Vertical):
             table.clear()
         for entry in self.entries:
             failing = bool(entry.index is not None and self.problems_at(entry.where, entry.index, "*"))
-            cells: list[Text | str] = [Text(entry.where.action or "", style="bold")] if self.decision else []
+            cells: list[Text | str] = [plain(entry.where.action or "", "bold")] if self.decision else []
             if entry.row is None:
                 cells += [Text("", style="dim"), Text("(no outcomes: a adds one)", style="dim italic")]
                 cells += [""] * (len(OUTCOME_FIELDS) - 1)
@@ -193,7 +195,7 @@ class OutcomesPanel(Vertical):
                     value = entry.row.fields[field]
                     if field == "to" and entry.row.cases:
                         value = " | ".join(target for _, target in entry.row.cases)
-                    cells.append(value)
+                    cells.append(plain(value, multiline=False))
             table.add_row(*cells)
         if table.row_count:
             table.move_cursor(row=min(max(row, 0), table.row_count - 1))
@@ -232,12 +234,12 @@ class OutcomesPanel(Vertical):
         if not isinstance(field, Field) or isinstance(field, PartCell) or entry is None or entry.row is None:
             return
         name, value = field.field, field.value
-        if name not in FORM_FIELDS or entry.row.fields.get(name, "") == value:
+        if name not in FORM_FIELDS or visible(entry.row.fields.get(name, "")) == value:
             return
         entry.row.fields[name] = value
         where, index = entry.where, entry.index
         if name in OUTCOME_FIELDS:
-            self.table.update_cell_at((self.table.cursor_row, self._column(name)), value)
+            self.table.update_cell_at((self.table.cursor_row, self._column(name)), plain(value, multiline=False))
         self._post(
             lambda doc: doc.set_outcome(where, index, name, value),
             f"{name} of outcome {index + 1} in {where.state}",

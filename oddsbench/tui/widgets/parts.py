@@ -17,6 +17,8 @@ from textual.message import Message
 from textual.widgets import Button, Input, Label, Static
 
 from oddsbench.model.errors import Problem
+from oddsbench.model.visible import visible
+from oddsbench.tui.plain import plain
 from oddsbench.tui.widgets.fields import Field, show_problems
 
 COLUMNS = {
@@ -132,7 +134,7 @@ class PartsGroup(Vertical):
                 row.fill(rows[row.index], self.problems.get(row.index, []))
         general = self.problems.get(None, [])
         hint = self.query_one(".parts-hint", Static)
-        hint.update("\n".join(str(p) for p in general) or HINTS.get(self.kind, ""))
+        hint.update(plain("\n".join(str(p) for p in general) or HINTS.get(self.kind, "")))
         hint.set_class(any(p.is_error for p in general), "-error")
 
     def _build(self) -> None:
@@ -159,7 +161,7 @@ class PartsGroup(Vertical):
         if not isinstance(cell, PartCell) or not 0 <= cell.row < len(self.rows):
             return
         position = [name for name, *_ in COLUMNS[self.kind]].index(cell.column)
-        if self.rows[cell.row][position] == cell.value:
+        if visible(self.rows[cell.row][position]) == cell.value:
             return
         if cell.column == KEY_COLUMN[self.kind] and not cell.value.strip():
             return  # a row without its key goes when the cell is left (below), not while retyping

@@ -8,7 +8,13 @@ from textual.app import ComposeResult
 from textual.containers import Vertical
 from textual.widgets import Static, TextArea
 
-HEADING = "The file as text: anything the forms do not cover. Edits here are undoable too."
+from oddsbench.tui.plain import plain
+
+SOURCE_HEADING = "The file as text: anything the forms do not cover. Edits here are undoable too."
+SOURCE_HEADING_CONTROLS = (
+    "The file as text. It holds control characters, shown here as escapes such as \\x1b: "
+    "an edit here writes them as shown."
+)
 ERROR_LINE_STYLE = "on #5a2430"
 
 
@@ -34,13 +40,13 @@ class SourceView(Vertical):
     """The text and, when it does not read as TOML, where."""
 
     def compose(self) -> ComposeResult:
-        yield Static(HEADING, classes="editor-heading")
+        yield Static(SOURCE_HEADING, classes="editor-heading", id="source-heading")
         yield Static("", id="source-problem")
         yield SourceText("", id="source-text", soft_wrap=False, show_line_numbers=True)
 
     def show_problem(self, message: str | None, line: int | None) -> None:
         """``message`` (None: the text reads as TOML) and its 1-based ``line`` to mark."""
         problem = self.query_one("#source-problem", Static)
-        problem.update(Text(message or "", style="bold red"))
+        problem.update(plain(message or "", "bold red"))
         problem.display = bool(message)
         self.query_one(SourceText).mark(line - 1 if message and line else None)

@@ -13,6 +13,8 @@ from textual.widgets import Input, Static
 from oddsbench.model.document import OutcomeList, RulesetDocument
 from oddsbench.model.errors import Problem
 from oddsbench.model.places import Place, place_of
+from oddsbench.model.visible import visible
+from oddsbench.tui.plain import plain
 from oddsbench.tui.widgets.edits import EditRequested
 from oddsbench.tui.widgets.fields import FieldRow
 from oddsbench.tui.widgets.outcomes import OutcomeCommand, OutcomesPanel, OutcomeTable
@@ -22,8 +24,8 @@ __all__ = ["EndForm", "OutcomeTable", "StateEditor", "heading", "matches", "outc
 
 def heading(kind: str, name: str, detail: str) -> Text:
     """``State 'x' · 3 outcomes``: the separator keeps the words apart in every renderer."""
-    text = Text(f"{kind} {name!r}", style="bold")
-    text.append(f" · {detail}", style="dim")
+    text = plain(f"{kind} {name!r}", "bold", multiline=False)
+    text.append_text(plain(f" · {detail}", "dim", multiline=False))
     return text
 
 
@@ -89,7 +91,7 @@ class StateEditor(Vertical):
         result_row.show_problems([p for p, place in mine if place.field == "result" and place.outcome is None])
         general = [p for p, place in mine if place.outcome is None and place.field != "result"]
         message = self.query_one("#state-message", Static)
-        message.update("\n".join(str(p) for p in general))
+        message.update(plain("\n".join(str(p) for p in general)))
         message.set_class(any(p.is_error for p in general), "-error")
         message.display = bool(general)
 
@@ -101,7 +103,7 @@ class StateEditor(Vertical):
     def _result_changed(self, event: Input.Changed) -> None:
         event.stop()
         value, state = event.input.value, self.state
-        if state is None or value == self.result:
+        if state is None or value == visible(self.result):
             return
         self.result = value
         self.post_message(

@@ -15,6 +15,8 @@ from textual.widgets import DataTable, Input, Static
 from oddsbench.model.document import RulesetDocument
 from oddsbench.model.errors import Problem
 from oddsbench.model.places import place_of
+from oddsbench.model.visible import visible
+from oddsbench.tui.plain import plain
 from oddsbench.tui.widgets.edits import EditRequested
 from oddsbench.tui.widgets.fields import Field, FieldRow
 from oddsbench.tui.widgets.state_editor import heading
@@ -137,13 +139,14 @@ class StrategyEditor(Vertical):
         table.clear()
         for row in self.rows:
             failing = bool(self._row_problems(row, None))
-            label = Text(row.key, style="red bold" if failing else ("bold" if row.kind != "state" else ""))
-            table.add_row(label, row.action or Text("—", style="dim"), Text(row.note, style="dim"))
+            label = plain(row.key, "red bold" if failing else ("bold" if row.kind != "state" else ""), multiline=False)
+            action = plain(row.action, multiline=False) if row.action else Text("—", style="dim")
+            table.add_row(label, action, plain(row.note, "dim", multiline=False))
         if table.row_count:
             table.move_cursor(row=min(max(cursor, 0), table.row_count - 1))
         general = [p for p, place in self.problems if place.rule is None and place.field is None]
         message = self.query_one("#strategy-message", Static)
-        message.update("\n".join(str(p) for p in general))
+        message.update(plain("\n".join(str(p) for p in general)))
         message.set_class(any(p.is_error for p in general), "-error")
         message.display = bool(general)
         self._load_form()
@@ -168,9 +171,9 @@ class StrategyEditor(Vertical):
             value = {"family": row.family, "when": row.when, "action": row.action}[field] if row else ""
             field_row.input.show(value)
             if field == "action":
-                field_row.input.placeholder = ", ".join(row.offered) if row and row.offered else "an action"
+                field_row.input.placeholder = visible(", ".join(row.offered)) if row and row.offered else "an action"
             if field == "family":
-                field_row.input.placeholder = ", ".join(self.families) or "a family with choices"
+                field_row.input.placeholder = visible(", ".join(self.families)) or "a family with choices"
             problems = self._row_problems(row, field) if row else []
             if not rule and field == "action" and row is not None:
                 problems = self._row_problems(row, None)
@@ -196,7 +199,7 @@ class StrategyEditor(Vertical):
             return
         field, value = event.input.field.removeprefix("strategy-"), event.input.value
         current = {"family": row.family, "when": row.when, "action": row.action}[field]
-        if value == current:
+        if value == visible(current):
             return
         if row.kind == "rule":
             index = row.rule

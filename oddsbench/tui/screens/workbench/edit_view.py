@@ -9,12 +9,12 @@ at once after Enter land in the field.
 
 from __future__ import annotations
 
-from rich.text import Text
 from textual.widgets import ContentSwitcher, Static
 
 from oddsbench.model.errors import OddsbenchError, Problem
 from oddsbench.model.places import place_of
 from oddsbench.tui import analysis
+from oddsbench.tui.plain import plain
 from oddsbench.tui.screens.workbench.commands import entry_command, outcome_command, param_command
 from oddsbench.tui.widgets.family_editor import FamilyEditor
 from oddsbench.tui.widgets.fields import Field
@@ -63,7 +63,7 @@ class EditView:
         editors = self.query_one("#editors", ContentSwitcher)
         if document is None:
             editors.current = "toml-problem"
-            message = Text(self.session.toml_message or "", style="bold red")
+            message = plain(self.session.toml_message or "", "bold red")
             message.append("\nThe forms come back once the file reads as TOML: fix it in the Source view (F6).")
             message.append("\nThe figures shown are the last good ones.", style="yellow")
             self.query_one("#toml-problem", Static).update(message)
