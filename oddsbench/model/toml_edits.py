@@ -361,6 +361,9 @@ class Rows:
             self.parent[self.key] = multiline_array()
         listed = self.listed()
         position = max(0, min(position, len(listed)))
+        if not len(listed) and not isinstance(listed, AoT):
+            self.parent[self.key] = multiline_array([inline_table(pairs)])  # the first row on a line of its own
+            return 0
         if isinstance(listed, AoT):
             table = tomlkit.table()
             for name, value in pairs:

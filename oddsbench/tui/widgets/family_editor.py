@@ -259,7 +259,7 @@ class FamilyEditor(Vertical):
         self.post_message(
             EditRequested(lambda doc: doc.add_family_part(family, kind), f"new {kind} in family {family}")
         )
-        self.call_after_refresh(lambda: self.call_after_refresh(group.focus_row, count))
+        group.pending_focus = count
 
     @on(PartsGroup.Removed, "#family-index, #family-let")
     def _part_removed(self, event: PartsGroup.Removed) -> None:

@@ -24,7 +24,8 @@ class Field(Input):
     BINDINGS = [Binding("enter", "next_field", "Next field", show=False, priority=True)]
 
     def __init__(self, field: str, placeholder: str = "", moves_on_enter: bool = True, **kwargs) -> None:
-        super().__init__(placeholder=placeholder, compact=True, select_on_focus=False, **kwargs)
+        # reached from the keyboard, a field's text is selected: typing replaces it, arrows keep it
+        super().__init__(placeholder=placeholder, compact=True, select_on_focus=True, **kwargs)
         self.field = field
         self.moves_on_enter = moves_on_enter
 

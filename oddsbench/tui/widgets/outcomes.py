@@ -142,6 +142,7 @@ class OutcomesPanel(Vertical):
         self.extended = family
         self.problems_at: ProblemsAt = lambda where, index, field: []
         self.decision = False
+        self.pending_row: int | None = None  # where the cursor goes once the edit asked for is shown
 
     def compose(self) -> ComposeResult:
         yield OutcomeTable(cursor_type="row", classes="outcome-table", id=self.table_id)
@@ -175,7 +176,8 @@ class OutcomesPanel(Vertical):
 
     def _fill_table(self) -> None:
         table = self.table
-        row = table.cursor_row
+        row = table.cursor_row if self.pending_row is None else self.pending_row
+        self.pending_row = None
         columns = (("action",) if self.decision else ()) + ("#",) + OUTCOME_FIELDS
         if [str(column.label) for column in table.columns.values()] != list(columns):
             table.clear(columns=True)
@@ -271,7 +273,7 @@ class OutcomesPanel(Vertical):
         self._post(lambda doc: doc.add_outcome_part(where, index, kind), f"new {kind} in outcome {index + 1}")
         group = self.query_one(f"#part-{kind}", PartsGroup)
         new_row = len(rows) - 1 if kind == "cases" and rows else len(rows)
-        self.call_after_refresh(lambda: self.call_after_refresh(group.focus_row, max(new_row, 0)))
+        group.pending_focus = max(new_row, 0)
 
     @on(PartsGroup.Removed)
     def _part_removed(self, event: PartsGroup.Removed) -> None:
@@ -288,12 +290,12 @@ class OutcomesPanel(Vertical):
             if self.owner is None or self.decision:
                 return
             where = OutcomeList(self.owner, None, self.family)
+            self.pending_row = 0
             self._post(lambda doc: doc.add_outcome(where), f"new outcome in {self.owner}")
-            self.call_after_refresh(self._cursor_to, 0)
             return
         where, after = entry.where, entry.index
+        self.pending_row = self.table.cursor_row + (1 if after is not None else 0)
         self._post(lambda doc: doc.add_outcome(where, after), f"new outcome in {where.state}")
-        self.call_after_refresh(self._cursor_to, self.table.cursor_row + (1 if after is not None else 0))
 
     def delete_outcome(self) -> None:
         entry = self.current
@@ -310,8 +312,8 @@ class OutcomesPanel(Vertical):
         if not 0 <= entry.index + offset < len(same):
             return
         where, index = entry.where, entry.index
+        self.pending_row = self.table.cursor_row + offset
         self._post(lambda doc: doc.move_outcome(where, index, offset), f"move outcome {index + 1} in {where.state}")
-        self.call_after_refresh(self._cursor_to, self.table.cursor_row + offset)
 
     def move_action(self, offset: int) -> None:
         entry = self.current
@@ -329,11 +331,6 @@ class OutcomesPanel(Vertical):
 
     def _post(self, edit, label: str, field: str | None = None) -> None:
         self.post_message(EditRequested(edit, label, field))
-
-    def _cursor_to(self, row: int) -> None:
-        table = self.table
-        if table.row_count:
-            table.move_cursor(row=max(0, min(row, table.row_count - 1)))
 
     def _column(self, field: str) -> int:
         return OUTCOME_FIELDS.index(field) + (2 if self.decision else 1)

@@ -70,6 +70,10 @@ class PartRow(Horizontal):
 
     def on_mount(self) -> None:
         self.fill(self.values, self.problems)
+        group = self.parent
+        if isinstance(group, PartsGroup) and group.pending_focus == self.index:
+            group.pending_focus = None
+            self.query(PartCell).first().focus()
 
     def fill(self, values: tuple[str, ...], problems: list[Problem]) -> None:
         self.values, self.problems = values, problems
@@ -116,6 +120,7 @@ class PartsGroup(Vertical):
         self.rows: tuple[tuple[str, ...], ...] = ()
         self.problems: dict[int | None, list[Problem]] = {}
         self.built = -1
+        self.pending_focus: int | None = None  # a row just asked for: focused once it is there
 
     def compose(self) -> ComposeResult:
         with Horizontal(classes="parts-add-row"):
@@ -150,9 +155,12 @@ class PartsGroup(Vertical):
         self.built = len(self.rows)
 
     def focus_row(self, row: int) -> None:
-        cells = [cell for cell in self.query(PartCell).results(PartCell) if cell.row == row]
-        if cells:
+        """Focus a row's first cell, now or as soon as the row is built (after the edit that adds it)."""
+        cells = [cell for cell in self.query(PartCell).results(PartCell) if cell.row == row and cell.is_mounted]
+        if cells and row < self.built:
             cells[0].focus()
+        else:
+            self.pending_focus = row
 
     @on(Input.Changed, ".part-cell")
     def _changed(self, event: Input.Changed) -> None:

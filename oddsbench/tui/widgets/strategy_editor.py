@@ -104,6 +104,8 @@ class StrategyEditor(Vertical):
         self.rows: list[StrategyRow] = []
         self.families: list[str] = []
         self.problems: list[tuple[Problem, object]] = []
+        self.pending_row: int | None = None  # where the cursor goes once the edit asked for is shown
+        self.pending_enter = False
 
     def compose(self) -> ComposeResult:
         yield Static("", id="strategy-heading", classes="editor-heading")
@@ -135,7 +137,8 @@ class StrategyEditor(Vertical):
         detail = f"{chosen} state{'s' if chosen != 1 else ''} chosen · {rules} rule{'s' if rules != 1 else ''}"
         self.query_one("#strategy-heading", Static).update(heading("Strategy", name, detail))
         table = self.query_one(StrategyTable)
-        cursor = table.cursor_row
+        cursor = table.cursor_row if self.pending_row is None else self.pending_row
+        self.pending_row = None
         table.clear()
         for row in self.rows:
             failing = bool(self._row_problems(row, None))
@@ -150,6 +153,9 @@ class StrategyEditor(Vertical):
         message.set_class(any(p.is_error for p in general), "-error")
         message.display = bool(general)
         self._load_form()
+        if self.pending_enter:
+            self.pending_enter = False
+            self.query_one("#field-strategy-when", Field).enter()
 
     def _row_problems(self, row: StrategyRow, field: str | None) -> list[Problem]:
         found = []
@@ -245,8 +251,8 @@ class StrategyEditor(Vertical):
         self._post(
             lambda doc: doc.add_strategy_rule(name, family, action or _first(doc, family), after), f"new rule in {name}"
         )
-        position = (self.rows.index(row) + 1) if after is not None else len(self.rows)
-        self.call_after_refresh(self._cursor_and_enter, position)
+        self.pending_row = (self.rows.index(row) + 1) if after is not None else len(self.rows)
+        self.pending_enter = True
 
     def clear(self) -> None:
         row, name = self.current, self.strategy
@@ -264,15 +270,8 @@ class StrategyEditor(Vertical):
         if row is None or name is None or row.kind != "rule":
             return
         index = row.rule
+        self.pending_row = self.query_one(StrategyTable).cursor_row + offset
         self._post(lambda doc: doc.move_strategy_rule(name, index, offset), f"move rule {index + 1} of {name}")
-        table = self.query_one(StrategyTable)
-        self.call_after_refresh(table.move_cursor, row=table.cursor_row + offset)
-
-    def _cursor_and_enter(self, position: int) -> None:
-        table = self.query_one(StrategyTable)
-        if table.row_count:
-            table.move_cursor(row=min(position, table.row_count - 1))
-            self.query_one("#field-strategy-when", Field).enter()
 
     def _post(self, edit, label: str, field: str | None = None) -> None:
         self.post_message(EditRequested(edit, label, field))

@@ -140,7 +140,9 @@ class EditView:
             target = self.query_one("#params-table")
         elif current in ("setup-editor", "session-editor"):
             target = self.query_one(f"#{current} Field")
-        if target is not None:
+        if isinstance(target, Field):
+            target.enter()
+        elif target is not None:
             self.set_focus(target)
 
     def escape_in_edit(self) -> None:
