@@ -1,0 +1,90 @@
+"""A bankroll chain's float system in the form its structure allows; the front door picks the engine.
+
+* A skip-free walk: one plan level, the same bet at every bankroll, and a round that loses at most
+  one grid step (even money, timid play, a flat bet on a paytable), or, mirrored, wins at most one
+  step. Its end chances come in log space from positive terms (``linear/skip_free.py``), so a goal
+  chance of 1e-2349 is a number, not an underflow.
+* Else a band LAPACK can store (flat bets that get cut near the bottom, progressions over few
+  levels): LAPACK's band LU.
+* Else the sparse matrix, eliminated from the top by SuperLU (bold play, large irregular plans).
+
+Why a chain is not a skip-free walk is kept (``WalkView.reason``) so the session can say so.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import numpy as np
+
+from oddsbench.chain.bankroll import BankrollChain
+from oddsbench.model.numbers import to_float, to_int
+from oddsbench.solve.linear import BandMatrix, SkipFreeWalk, band_storage_fits, identity_minus_float
+
+
+@dataclass(frozen=True)
+class WalkView:
+    """A bankroll chain seen as a skip-free walk: ``mirrored`` walks are read top down (level k of
+    the walk is bankroll level ``size - 1 - k``), so their exact end is the goal and their overshoot
+    is below the ruin level."""
+
+    walk: SkipFreeWalk | None
+    mirrored: bool = False
+    reason: str = ""
+
+    def chain_order(self, values: np.ndarray) -> np.ndarray:
+        """Per-level values of the walk in the chain's level order."""
+        return values[::-1] if self.mirrored else values
+
+    def walk_level(self, level: int) -> int:
+        return self.walk.size - 1 - level if self.mirrored else level
+
+
+def skip_free_view(chain: BankrollChain) -> WalkView:
+    """The chain as a skip-free walk, or the reason it is not one."""
+    if chain.size == 0:
+        return WalkView(None, reason="no bankroll is in play")
+    if chain.levels != 1:
+        return WalkView(None, reason="the plan's bet depends on more than the bankroll (a progression)")
+    bets = chain.bets
+    if not (bets == bets[0]).all():
+        return WalkView(None, reason="the bet changes with the bankroll (cut or sized bets)")
+    steps = np.array([to_int(o.net * chain.grid.scale) for o in chain.distribution.outcomes], dtype=np.int64)
+    jumps_all = steps * int(bets[0])
+    jumps, where = np.unique(jumps_all, return_inverse=True)
+    probs = np.zeros(len(jumps))
+    np.add.at(probs, where, [to_float(o.prob) for o in chain.distribution.outcomes])
+    keep = probs > 0
+    jumps, probs = jumps[keep], probs[keep]
+    low, high = int(jumps.min()), int(jumps.max())
+    if low == -1 and high >= 1:
+        return WalkView(SkipFreeWalk(jumps, probs, chain.size))
+    if high == 1 and low <= -1:
+        order = np.argsort(-jumps)
+        return WalkView(SkipFreeWalk(-jumps[order], probs[order], chain.size), mirrored=True)
+    return WalkView(None, reason="a round can lose, and win, more than one grid step")
+
+
+def band_system(chain: BankrollChain) -> BandMatrix | None:
+    """I - Q in LAPACK band storage, straight from the chain's targets, or None when the band is too wide to store."""
+    n = chain.size
+    rows = np.broadcast_to(np.arange(n)[:, None], chain.target.shape)
+    inside = chain.target >= 0
+    offsets = chain.target[inside] - rows[inside]
+    lower = int(max(-offsets.min(), 0)) if offsets.size else 0
+    upper = int(max(offsets.max(), 0)) if offsets.size else 0
+    if not band_storage_fits(lower, upper, n):
+        return None
+    band = BandMatrix.zeros(lower, upper, n)
+    band.bands[upper] = 1.0
+    probs = np.broadcast_to(chain.probabilities(), chain.target.shape)
+    band.add(rows[inside], chain.target[inside], -probs[inside])
+    return band
+
+
+def float_system(chain: BankrollChain):
+    """(system, order) for ``factor_float`` when the chain is not a skip-free walk: a band, else sparse."""
+    band = band_system(chain)
+    if band is not None:
+        return band, "natural"
+    return identity_minus_float(chain.q_matrix()), "from-top"
