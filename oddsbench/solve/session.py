@@ -54,7 +54,7 @@ class SessionSolution:
     rounds: int | None = None
     exact: bool = False
     notes: tuple[str, ...] = field(default=())
-    goal_series_log10: tuple[float, ...] | None = None
+    goal_series_log10: np.ndarray | None = field(default=None, compare=False)  # log10 of each value (-inf: 0)
 
 
 def solve_session(
@@ -195,8 +195,9 @@ def _walk_decimal(chain: BankrollChain, view: WalkView) -> dict:
     at = view.walk_level(start)
     near_decimal, near_log10 = factors.bottom_chance()  # the end the walk reaches exactly
     far_decimal, far_log10 = factors.top_chance()  # the end it may overshoot
-    rounds = view.chain_order(factors.solve(np.ones(n)))
-    spread = view.chain_order(factors.solve(view.chain_order(_centred_rhs(chain, rounds))))
+    rounds_walk = factors.solve(np.ones(n))
+    spread = view.chain_order(factors.solve(_centred_walk_rhs(view.walk, rounds_walk)))
+    rounds = view.chain_order(rounds_walk)
     goal_decimal, goal_log10 = (near_decimal, near_log10) if view.mirrored else (far_decimal, far_log10)
     # where the walk's two ends sit among the chain's absorbing states
     low_value, goal_value = chain.grid.low - 1, chain.grid.goal
@@ -247,6 +248,18 @@ def _centred_rhs(chain: BankrollChain, rounds: np.ndarray) -> np.ndarray:
     the variance itself (the law of total variance), never as E[T^2] - E[T]^2, which cancels."""
     after = np.where(chain.target >= 0, rounds[np.maximum(chain.target, 0)], 0.0)
     return ((1.0 + after - rounds[:, None]) ** 2 * chain.probabilities()[None, :]).sum(axis=1)
+
+
+def _centred_walk_rhs(walk, rounds: np.ndarray) -> np.ndarray:
+    """``_centred_rhs`` for a walk with one law at every level, by shifted slices instead of a gather."""
+    n = walk.size
+    total = np.zeros(n)
+    for jump, prob in zip(walk.jumps.tolist(), walk.probs.tolist()):
+        after = np.zeros(n)
+        if abs(jump) < n:
+            after[max(-jump, 0) : n - max(jump, 0)] = rounds[max(jump, 0) : n + min(jump, 0)]
+        total += prob * (1.0 + after - rounds) ** 2
+    return total
 
 
 def _unit(size: int, at: int) -> np.ndarray:
@@ -538,7 +551,7 @@ def _series(chain: BankrollChain, series, series_exact, series_log10=None):
     return (
         tuple(decimal.tolist()),
         (tuple(exact) if exact is not None else None),
-        (tuple(log10.tolist()) if log10 is not None else None),
+        log10,
     )
 
 

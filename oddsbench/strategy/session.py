@@ -65,7 +65,7 @@ class SessionFigures:
     after_rounds: tuple[FinalValue, ...] = ()
     rounds: int | None = None
     notes: tuple[str, ...] = field(default=())
-    goal_series_log10: tuple[float, ...] | None = None
+    goal_series_log10: np.ndarray | None = field(default=None, compare=False)  # log10 of each value (-inf: 0)
 
     @property
     def exact(self) -> bool:
@@ -81,7 +81,7 @@ class SessionFigures:
         decimal = self.goal_series[k]
         log10 = None
         if exact is None and decimal == 0 and self.goal_series_log10 is not None:
-            value = self.goal_series_log10[k]
+            value = float(self.goal_series_log10[k])
             log10 = value if value != float("-inf") else None
         return Figure(exact, decimal, log10)
 

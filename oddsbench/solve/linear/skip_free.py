@@ -29,7 +29,8 @@ from dataclasses import dataclass
 
 import numpy as np
 
-LOG10_2 = math.log10(2.0)
+LN_2 = math.log(2.0)
+LN_10 = math.log(10.0)
 FLOAT_TINY = 2.2250738585072014e-308  # smallest normal float
 EPS = np.finfo(float).eps
 SPAN_BITS = 400  # largest growth (in bits) allowed inside one block of the recurrence
@@ -90,20 +91,27 @@ class Scaled:
     def __getitem__(self, index) -> Scaled:
         return Scaled(self.mantissa[index], self.exponent[index])
 
-    def log10(self) -> np.ndarray:
-        """log10 of each value (-inf for 0)."""
+    def ln(self):
+        """Natural logarithm of each value (-inf for 0)."""
         with np.errstate(divide="ignore"):
-            return np.log10(self.mantissa) + self.exponent * LOG10_2
+            return np.log(self.mantissa) + self.exponent * LN_2
 
-    def ratio(self, other: Scaled) -> tuple[np.ndarray, np.ndarray]:
-        """(decimal, log10) of self / other: the decimal 0.0 where it is below the normal float range."""
-        with np.errstate(divide="ignore", invalid="ignore", over="ignore", under="ignore"):
-            quotient = self.mantissa / other.mantissa
-            shift = self.exponent - other.exponent
-            log10 = np.log10(quotient) + shift * LOG10_2
-            decimal = np.ldexp(quotient, np.clip(shift, -2000, 2000).astype(np.int32))
-        decimal = np.where(np.abs(decimal) < FLOAT_TINY, 0.0, decimal)
-        return decimal, log10
+
+def _chances(ln_values: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """(decimal, log10) from natural logs: the decimal 0.0 where it is below the normal float range."""
+    with np.errstate(under="ignore"):
+        decimal = np.exp(ln_values)
+    return np.where(decimal < FLOAT_TINY, 0.0, decimal), ln_values / LN_10
+
+
+def _geometric_log_sums(ln_ratio: float, size: int) -> np.ndarray:
+    """ln H(n) for n = 0 .. size, H(n) = 1 + r + ... + r^n with ln r = ``ln_ratio``, without cancellation:
+    H(n) = e^max(n ln r, 0) (1 - e^-(n+1)|ln r|) / (1 - e^-|ln r|), each factor by expm1."""
+    n = np.arange(size + 1, dtype=float)
+    if ln_ratio == 0.0:
+        return np.log(n + 1)
+    size_ln = abs(ln_ratio)
+    return np.maximum(n * ln_ratio, 0.0) + np.log(-np.expm1(-(n + 1) * size_ln)) - math.log(-math.expm1(-size_ln))
 
 
 def running_sums(values: Scaled, block: int = 4096) -> Scaled:
@@ -129,20 +137,21 @@ def running_sums(values: Scaled, block: int = 4096) -> Scaled:
     return Scaled(out_mantissa, out_exponent)
 
 
-def filtered(tails_over_q: np.ndarray, forcing: np.ndarray, length: int) -> Scaled:
+def filtered(tails_over_q: np.ndarray, forcing: np.ndarray, length: int, normalise: bool = True) -> Scaled:
     """y(n) = sum_{i>=1} tails_over_q[i] y(n - i) + forcing[n], n = 0 .. length - 1 (y(<0) = 0).
 
     Coefficients and forcing are non-negative, so every output is a sum of positive terms. Blocks
     of ``block`` outputs at a time: the earlier outputs enter through one Toeplitz product, the
     block's own through its impulse response, both matrix products. Each block is rescaled by a
-    power of two (exact), so values may run far past the float range.
+    power of two (exact), so values may run far past the float range. ``normalise`` False leaves
+    each block's values unnormalised (value = mantissa * 2**exponent still), for callers that want floats.
     """
     top = len(tails_over_q) - 1
     growth = max(float(tails_over_q.sum()), 1.0)
     decay = float(tails_over_q[1]) if top else 1.0
     per_step = max(math.log2(growth), -math.log2(decay) if decay > 0 else 64.0, 1e-3)
     if top == 1:
-        return _first_order(float(tails_over_q[1]), forcing, length, per_step)
+        return _first_order(float(tails_over_q[1]), forcing, length, per_step, normalise)
     block = int(max(1, min(SPAN_BITS / per_step, max(top, 512), length)))
     impulse = np.zeros(block)
     impulse[0] = 1.0
@@ -171,7 +180,7 @@ def filtered(tails_over_q: np.ndarray, forcing: np.ndarray, length: int) -> Scal
         with np.errstate(under="ignore"):
             history = np.ldexp(recent, -shift)
         scale += shift
-    return Scaled.of(values, exponents)
+    return Scaled.of(values, exponents) if normalise else Scaled(values, exponents)
 
 
 def _top_exponent(values: np.ndarray) -> int:
@@ -179,10 +188,11 @@ def _top_exponent(values: np.ndarray) -> int:
     return math.frexp(largest)[1] if largest > 0 else 0
 
 
-def _first_order(ratio: float, forcing: np.ndarray, length: int, per_step: float) -> Scaled:
+def _first_order(ratio: float, forcing: np.ndarray, length: int, per_step: float, normalise: bool = True) -> Scaled:
     """The recurrence with one coefficient, y(n) = ratio y(n - 1) + forcing(n), as cumulative sums:
-    y(start + t) = ratio^t (ratio y(start - 1) + sum_{u <= t} ratio^-u forcing(start + u))."""
-    block = int(max(1, min(SPAN_BITS / (2 * per_step), 1 << 16, length)))
+    y(start + t) = ratio^t (ratio y(start - 1) + sum_{u <= t} ratio^-u forcing(start + u)); a block
+    is as long as ratio^-t stays far inside the float range."""
+    block = int(max(1, min(2 * SPAN_BITS / per_step, 1 << 16, length)))
     powers = ratio ** np.arange(block, dtype=float)
     with np.errstate(divide="ignore", over="ignore"):
         inverse = 1.0 / powers
@@ -202,7 +212,7 @@ def _first_order(ratio: float, forcing: np.ndarray, length: int, per_step: float
         shift = _top_exponent(out)
         previous = math.ldexp(float(out[-1]), -shift)
         scale += shift
-    return Scaled.of(values, exponents)
+    return Scaled.of(values, exponents) if normalise else Scaled(values, exponents)
 
 
 def _growth(size: int) -> float:
@@ -221,30 +231,36 @@ class SkipFreeFactors:
         self.walk = walk
         self.size = walk.size
         self._tails_over_q = walk.tails() / walk.down
-        forcing = np.zeros(walk.size + 1)
-        forcing[0] = 1.0
-        self.h = filtered(self._tails_over_q, forcing, walk.size + 1)  # h(0 .. size)
-        self.big_h = running_sums(self.h)  # H(0 .. size)
-        reversed_h = Scaled(self.h.mantissa[::-1], self.h.exponent[::-1])
-        self._from_top = running_sums(reversed_h)  # sum_{n >= size - j} h(n), j = 0 .. size
         self._fallback = None
+        self._top = self._bottom = None
+        n = walk.size
+        if walk.top == 1:
+            # h(n) = rho^n: the running sums in closed form, in logarithms
+            ln_ratio = math.log(float(self._tails_over_q[1]))
+            ln_sums = _geometric_log_sums(ln_ratio, n)
+            self._ln_bottom = ln_sums[n - 1 :: -1] - ln_sums[n]  # ln H(size - 1 - k) - ln H(size)
+            self._ln_top = np.arange(n, 0, -1) * ln_ratio + ln_sums[:n] - ln_sums[n]  # rho^(size - k) H(k) / H(size)
+            return
+        forcing = np.zeros(n + 1)
+        forcing[0] = 1.0
+        self.h = filtered(self._tails_over_q, forcing, n + 1)  # h(0 .. size)
+        self.big_h = running_sums(self.h)  # H(0 .. size)
+        self._from_top = running_sums(Scaled(self.h.mantissa[::-1], self.h.exponent[::-1]))  # T(size - j)
+        ln_total = self.big_h[n].ln()
+        self._ln_bottom = self.big_h[np.arange(n - 1, -1, -1)].ln() - ln_total
+        self._ln_top = self._from_top[np.arange(n)].ln() - ln_total
 
     def top_chance(self) -> tuple[np.ndarray, np.ndarray]:
         """(decimal, log10) of the chance of ending at the top from every level 0 .. size - 1."""
-        n = self.size
-        total = self.big_h[np.full(n, n)]
-        return self._from_top[np.arange(n)].ratio(total) if n else (np.zeros(0), np.zeros(0))
+        if self._top is None:
+            self._top = _chances(self._ln_top)
+        return self._top
 
     def bottom_chance(self) -> tuple[np.ndarray, np.ndarray]:
         """(decimal, log10) of the chance of ending at the bottom (level -1) from every level."""
-        n = self.size
-        total = self.big_h[np.full(n, n)]
-        return self.big_h[np.arange(n - 1, -1, -1)].ratio(total) if n else (np.zeros(0), np.zeros(0))
-
-    def _float_sums(self) -> np.ndarray:
-        """H(0 .. size) as plain floats (the Green function's scale), inf where too large."""
-        with np.errstate(over="ignore"):
-            return np.ldexp(self.big_h.mantissa, np.clip(self.big_h.exponent, -2000, 2000).astype(np.int32))
+        if self._bottom is None:
+            self._bottom = _chances(self._ln_bottom)
+        return self._bottom
 
     def solve(self, rhs) -> np.ndarray:
         """x with (I - Q) x = rhs (rhs >= 0): the Green function where it holds its digits, else a band LU."""
@@ -265,7 +281,7 @@ class SkipFreeFactors:
         """x with (I - Q)^T x = rhs: a unit vector gives expected visits (the Green function's row)."""
         rhs = np.asarray(rhs, dtype=float)
         starts = np.flatnonzero(rhs)
-        if not self.walk.upward and rhs.ndim == 1 and len(starts) == 1 and rhs[starts[0]] > 0:
+        if rhs.ndim == 1 and len(starts) == 1 and rhs[starts[0]] > 0:
             row, bound = self.visits_from(int(starts[0]))
             if float(bound[row > 0].max(initial=0.0)) <= GREEN_TOLERANCE:
                 return row * rhs[starts[0]]
@@ -284,45 +300,66 @@ class SkipFreeFactors:
                 band = BandMatrix.zeros(lower, upper, n)
                 band.bands[upper] = 1.0
                 for jump, prob in zip(walk.jumps.tolist(), walk.probs.tolist()):
-                    rows = np.arange(max(0, -jump), min(n, n - jump))
-                    band.add(rows, rows + jump, -prob)
+                    if abs(jump) < n:  # A[i, i + jump] -= prob, stored at bands[upper - jump, i + jump]
+                        band.bands[upper - jump, max(jump, 0) : n + min(jump, 0)] -= prob
                 self._fallback = BandFactors(band)
             else:
                 self._fallback = SuperLUFactors(walk_matrix(walk), "fill-reducing")
         return self._fallback
 
     def _green(self, rhs: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+        """x = G rhs by the Green function. With D(m), m = size .. 0, the filtered sequence
+        q D(k) = sum_i c_i D(k + i) + rhs(k), and its sums from below, L(s) = sum_{m <= s} D(m), and from
+        above, Y(s) = sum_{m > s} D(m): x(s) = psi(s) L(s) - goal(s) Y(s), each end chance from its own
+        positive terms, so the one subtraction left cancels only where both ends are likely."""
         rhs = np.asarray(rhs, dtype=float)
         n, q = self.size, self.walk.down
         if n == 0:
             return rhs.copy(), np.zeros(0)
         psi, _ = self.bottom_chance()
-        # D(m), m = size .. 0, is a filtered sequence: q D(k) = sum_i c_i D(k + i) + rhs(k); Y(s) = sum_{m > s} D(m)
+        goal, _ = self.top_chance()
         forcing = np.zeros(n + 1)
         forcing[1:] = rhs[::-1] / q
-        d = filtered(self._tails_over_q, forcing, n + 1)
-        with np.errstate(over="ignore", under="ignore"):
-            d_values = np.ldexp(d.mantissa, np.clip(d.exponent, -2000, 2000).astype(np.int32))
-        running = np.cumsum(d_values)  # running[j] = sum of D(m) over m >= size - j
-        y = running[n - 1 - np.arange(n)]  # Y(s) = sum_{m > s} D(m), s = 0 .. size - 1
-        y_all = running[n]  # Y(-1)
-        first = psi * y_all
-        x = first - y
+        d = self._floats(filtered(self._tails_over_q, forcing, n + 1, normalise=False))  # d[j] = D(size - j)
+        above = np.cumsum(d)[n - 1 :: -1]  # Y(s) = d[0] + ... + d[size - 1 - s], s = 0 .. size - 1
+        below = np.cumsum(d[::-1])[:n]  # L(s) = d[size - s] + ... + d[size]
+        first, second = psi * below, goal * above
+        x = first - second
         with np.errstate(divide="ignore", invalid="ignore"):
-            bound = np.where(x > 0, _growth(n) * (first + y) / x, np.inf)
+            spread = (first + second) / x  # how much the one subtraction cancels, per level
+        bound = np.where(x > 0, spread, np.inf)
+        bound *= _growth(n)
         return x, bound
 
+    @staticmethod
+    def _floats(values: Scaled) -> np.ndarray:
+        with np.errstate(over="ignore", under="ignore"):
+            return np.ldexp(values.mantissa, np.clip(values.exponent, -2000, 2000).astype(np.int32))
+
     def visits_from(self, start: int) -> tuple[np.ndarray, np.ndarray]:
-        """Expected visits to every level from ``start`` (the Green function's row), and a relative error bound."""
+        """Expected visits to every level from ``start`` (the Green function's row) and a relative error
+        bound per level; by the band LU (bound 0) for a walk of one level up or one drifting up.
+
+        q G(s, l) = psi(s) H(l) for l <= s; above the start, psi(s) W - goal(s) H(l - s - 1) with the
+        window W = h(l - s) + ... + h(l) taken as T(l - s) - T(l + 1) from the sums from the top T."""
+        if self.walk.top == 1 or self.walk.upward:
+            unit = np.zeros(self.size)
+            unit[start] = 1.0
+            return self.fallback().solve_transposed(unit), np.zeros(self.size)
         n, q = self.size, self.walk.down
-        sums = self._float_sums()
+        sums = self._floats(self.big_h)  # H(0 .. size)
+        tops = np.append(self._floats(self._from_top)[::-1], 0.0)  # T(0 .. size + 1)
         psi, _ = self.bottom_chance()
+        goal, _ = self.top_chance()
         levels = np.arange(n)
-        behind = np.where(levels - start - 1 >= 0, sums[np.clip(levels - start - 1, 0, n)], 0.0)
-        first = psi[start] * sums[levels]
+        above = levels > start
+        behind = np.where(above, sums[np.clip(levels - start - 1, 0, n)], 0.0)
+        window = np.where(above, tops[np.clip(levels - start, 0, n + 1)] - tops[levels + 1], sums[levels])
+        first, second = psi[start] * window, goal[start] * behind
         with np.errstate(invalid="ignore", divide="ignore"):
-            row = (first - behind) / q
-            bound = np.where(row > 0, _growth(n) * (first + behind) / (q * row), np.inf)
+            row = (first - second) / q
+            spread = _growth(n) * (first + second + psi[start] * tops[np.clip(levels - start, 0, n + 1)] * above)
+            bound = np.where(row > 0, spread / (q * row), np.inf)
         return np.maximum(row, 0.0), bound
 
 
