@@ -59,13 +59,6 @@ class RoundDistribution:
     def best_net(self) -> Rational:
         return max(o.net for o in self.outcomes)
 
-    @property
-    def worst_net(self) -> Rational:
-        return min(o.net for o in self.outcomes)
-
-    def describe(self) -> str:
-        return ", ".join(f"{text(o.net)}:{text(o.prob)}" for o in self.outcomes)
-
     def floats(self) -> tuple[list[float], list[float]]:
         return [to_float(o.net) for o in self.outcomes], [to_float(o.prob) for o in self.outcomes]
 

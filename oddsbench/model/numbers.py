@@ -124,10 +124,6 @@ def _int_from_text(digits: str) -> int:
     return int(fmpz(digits.strip()))
 
 
-def from_int(value: int) -> Rational:
-    return QQ(int(value))
-
-
 def from_sympy(value) -> Rational:
     """A rational from sympy's domain (whatever its ground types) as ours."""
     return fmpq(int(value.numerator), int(value.denominator))

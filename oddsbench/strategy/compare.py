@@ -12,6 +12,7 @@ import dataclasses
 from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 
+from oddsbench.chain.deal import dealt, single_draw
 from oddsbench.chain.round_chain import build_round_chain
 from oddsbench.model.defaults import DEFAULT_EXACT_BITS, DEFAULT_MAX_STATES, ROUND_EXACT_LIMIT
 from oddsbench.model.errors import OddsbenchError
@@ -88,8 +89,13 @@ def policy_of(ruleset: Ruleset, name: str | None) -> dict[str, str]:
     return strategy_policy(ruleset, named_strategy(ruleset, name)) if name is not None else {}
 
 
-def starting_at(ruleset: Ruleset, state: str | None) -> Ruleset:
-    """The same ruleset with the round starting in ``state`` (None keeps the file's start)."""
+def starting_at(ruleset: Ruleset, state: str | None, max_states: int | None = DEFAULT_MAX_STATES) -> Ruleset:
+    """The ruleset of a round started in ``state`` (None keeps the file's start), as plain states:
+    a deck game is dealt out from there (``chain/deal.py``; the round is then over (state, hands))."""
+    return dealt(_started(ruleset, state), max_states)
+
+
+def _started(ruleset: Ruleset, state: str | None) -> Ruleset:
     if state is None or state == ruleset.start:
         return ruleset
     if state not in ruleset.state_names:
@@ -99,6 +105,15 @@ def starting_at(ruleset: Ruleset, state: str | None) -> Ruleset:
         hint = f" (did you mean {close[0]!r}?)" if close else ""
         raise OddsbenchError(f"{ruleset.source}: no state {state!r} to start from{hint}")
     return dataclasses.replace(ruleset, start=state)
+
+
+def with_hands(ruleset: Ruleset, figures: RoundFigures) -> RoundFigures:
+    """A round dealt in one draw of k (a deck game): each end's chance also as a count of hands."""
+    draw = single_draw(ruleset)
+    if draw is None:
+        return figures
+    counted = draw.counted({name: figure.exact for name, figure in figures.end_probability.items()})
+    return dataclasses.replace(figures, hands=counted) if counted is not None else figures
 
 
 def names_several(starts: str | None) -> bool:
@@ -119,7 +134,7 @@ def matching_states(ruleset: Ruleset, pattern: str) -> tuple[str, ...]:
             if not found:
                 raise OddsbenchError(f"{ruleset.source}: no state matches {part!r}")
         else:
-            found = [starting_at(ruleset, part).start]
+            found = [_started(ruleset, part).start]
         chosen += [name for name in found if name not in chosen]
     if not chosen:
         raise OddsbenchError(f"{ruleset.source}: no start state given")
@@ -154,9 +169,10 @@ def solve_rounds(
     """Solve one round per (start state, strategy name or None), in order."""
     columns = []
     for start, strategy in plays:
-        policy = policy_of(ruleset, strategy)
-        chain = build_round_chain(starting_at(ruleset, start), policy, max_states)
-        figures = solve_round(chain, rounds, exact_limit, should_stop, exact_bits)
+        played = starting_at(ruleset, start, max_states)
+        policy = policy_of(played, strategy)
+        chain = build_round_chain(played, policy, max_states)
+        figures = with_hands(_started(ruleset, start), solve_round(chain, rounds, exact_limit, should_stop, exact_bits))
         columns.append(RoundColumn(figures.start, strategy, policy, figures))
     return RoundResults(ruleset.title, tuple(columns), compared)
 

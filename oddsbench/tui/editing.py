@@ -10,6 +10,8 @@ from collections.abc import Callable
 from dataclasses import dataclass
 from pathlib import Path
 
+from tomlkit.exceptions import TOMLKitError
+
 from oddsbench.model.atomic_write import write_text_atomically
 from oddsbench.model.document import DocumentError, RulesetDocument, parse_document
 from oddsbench.model.errors import OddsbenchError, Problem
@@ -80,6 +82,13 @@ class EditSession:
         except DocumentError as error:
             self._load(before)
             return EditOutcome(False, str(error))
+        except (TOMLKitError, AttributeError, TypeError, KeyError, IndexError) as error:
+            # tomlkit meets a layout it cannot edit in place: refuse the edit, keep every byte
+            self._load(before)
+            return EditOutcome(
+                False,
+                f"this file's layout cannot take that edit ({type(error).__name__}): make it in the Source view (F6)",
+            )
         after = self.document.text()
         self.history.record(after, label, field)
         return EditOutcome(after != before)

@@ -61,6 +61,30 @@ def test_the_project_keeps_every_import_contract():
             "oddsbench.solve.probe_upward -> oddsbench.strategy.plans",
         ),
         ("cli/probe_direct.py", "import textual.app\n", "textual-in-tui", "oddsbench.cli.probe_direct -> textual"),
+        (
+            "report/probe_solving.py",
+            "from oddsbench.solve import round\n",
+            "report-formats-only",
+            "oddsbench.report.probe_solving -> oddsbench.solve.round",
+        ),
+        (
+            "cli/probe_engine.py",
+            "from oddsbench.strategy import compare\n",
+            "front-ends-ask-the-core",
+            "oddsbench.cli.probe_engine -> oddsbench.strategy.compare",
+        ),
+        (
+            "core/probe_upward.py",
+            "from oddsbench.report import round_report\n",
+            "layers",
+            "oddsbench.core.probe_upward -> oddsbench.report.round_report",
+        ),
+        (
+            "core/probe_terminal.py",
+            "import textual\n",
+            "terminal-libraries",
+            "oddsbench.core.probe_terminal -> textual",
+        ),
     ],
 )
 def test_a_deliberate_violation_breaks_its_contract(tmp_path, module, text, contract, reported):
@@ -85,7 +109,9 @@ def test_the_core_imports_without_textual():
     code = (
         "import sys\n"
         "import oddsbench.model.load, oddsbench.model.document, oddsbench.model.history, oddsbench.chain.round_chain\n"
-        "import oddsbench.solve.round, oddsbench.report.round_report, oddsbench.strategy\n"
+        "import oddsbench.solve.round, oddsbench.report.round_report, oddsbench.strategy, oddsbench.api\n"
+        "import oddsbench.core.game, oddsbench.core.rounds, oddsbench.core.session, oddsbench.core.simulation\n"
+        "import oddsbench.core.sweeps, oddsbench.core.reports, oddsbench.core.results\n"
         "import oddsbench.tui.analysis, oddsbench.tui.editing, oddsbench.cli.main\n"
         "bad = sorted(m for m in sys.modules if m == 'textual' or m.startswith('textual.'))\n"
         "print(bad)\n"
