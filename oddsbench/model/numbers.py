@@ -20,13 +20,17 @@ __all__ = ["QQ", "Rational", "bit_size", "int_text", "is_integer", "to_int", "to
 
 
 class _Rationals:
-    """``QQ(3, 4)``, ``QQ(value)``, ``QQ.numer(x)``, ``QQ.denom(x)``: exact rationals as flint ``fmpq``."""
+    """``QQ(3, 4)``, ``QQ(value)``, ``QQ.numer(x)``, ``QQ.denom(x)``, ``QQ.of_type(x)``: flint ``fmpq`` rationals."""
 
     dtype = fmpq
 
     def __call__(self, numerator: Any = 0, denominator: Any = 1) -> Rational:
         value = _as_fmpq(numerator)
         return value if denominator == 1 else value / _as_fmpq(denominator)
+
+    @staticmethod
+    def of_type(value: Any) -> bool:
+        return isinstance(value, fmpq)
 
     @staticmethod
     def numer(value: Rational):

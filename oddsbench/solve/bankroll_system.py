@@ -62,6 +62,8 @@ def skip_free_view(chain: BankrollChain) -> WalkView:
     if high == 1 and low <= -1:
         order = np.argsort(-jumps)
         return WalkView(SkipFreeWalk(-jumps[order], probs[order], chain.size), mirrored=True)
+    if low >= 0 or high <= 0:
+        return WalkView(None, reason="the bankroll can only rise, or only fall")
     return WalkView(None, reason="a round can lose, and win, more than one grid step")
 
 

@@ -32,8 +32,11 @@ import numpy as np
 
 ROOT = Path(__file__).resolve().parents[2]
 sys.path.insert(0, str(ROOT))
+sys.path.insert(0, str(Path(__file__).resolve().parent))
 
-from oddsbench.chain.round_distribution import RoundOutcome, make_distribution, parse_round_text  # noqa: E402
+from bench_session import paytable  # noqa: E402  (the invented 38-outcome paytable, one copy)
+
+from oddsbench.chain.round_distribution import parse_round_text  # noqa: E402
 from oddsbench.model.numbers import QQ  # noqa: E402
 from oddsbench.strategy.session import SessionSettings, session_chain  # noqa: E402
 
@@ -57,16 +60,6 @@ def line(label: str, ours: float, baseline: float, baseline_label: str, goal: fl
     verdict = "within the goal" if ratio <= goal else "OVER THE GOAL"
     shown = f"{ours:8.3f} s   {baseline_label:<40} {baseline:8.3f} s   {ratio:6.2f}x"
     print(f"  {label:<52} {shown} (goal <= {goal}x: {verdict})")
-
-
-def paytable():
-    """An invented paytable (demo data): 38 outcomes, wins paying 1 to 1000 units, edge about 7%."""
-    pays = sorted(set(range(1, 21)) | {25, 30, 40, 50, 60, 75, 100, 125, 150, 200, 250, 300, 400, 500, 750, 1000})
-    scale = 10**7
-    weights = [int(3.1e6 / (pay + 1) ** 2) for pay in pays] + [500_000]
-    outcomes = [RoundOutcome(QQ(p), QQ(w, scale)) for p, w in zip(pays + [0], weights)]
-    outcomes.append(RoundOutcome(QQ(-1), QQ(scale - sum(weights), scale)))
-    return make_distribution("paytable (demo)", outcomes)
 
 
 def band_baseline(chain, lower: int, upper: int):

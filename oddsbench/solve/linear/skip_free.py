@@ -34,6 +34,7 @@ LN_10 = math.log(10.0)
 FLOAT_TINY = 2.2250738585072014e-308  # smallest normal float
 EPS = np.finfo(float).eps
 SPAN_BITS = 400  # largest growth (in bits) allowed inside one block of the recurrence
+SUM_SPAN_BITS = 900  # largest spread of exponents inside one block of a running sum
 GREEN_TOLERANCE = 1e-10  # a Green-function solve must vouch for this relative accuracy, else a band LU runs
 
 
@@ -115,13 +116,17 @@ def _geometric_log_sums(ln_ratio: float, size: int) -> np.ndarray:
 
 
 def running_sums(values: Scaled, block: int = 4096) -> Scaled:
-    """Running sums s(n) = values(0) + ... + values(n), block by block, each sum of positive terms."""
+    """Running sums s(n) = values(0) + ... + values(n), block by block, each sum of positive terms.
+
+    A block ends before its values span more than ``SUM_SPAN_BITS`` bits, so shifted to the block's
+    largest exponent every value stays a normal float (a smaller one is below rounding of the sum)."""
     size = len(values.mantissa)
     out_mantissa = np.zeros(size)
     out_exponent = np.zeros(size, dtype=np.int64)
     carry_m, carry_e = 0.0, 0
-    for start in range(0, size, block):
-        stop = min(start + block, size)
+    start = 0
+    while start < size:
+        stop = _span_stop(values, start, min(start + block, size))
         mantissa, exponent = values.mantissa[start:stop], values.exponent[start:stop]
         live = mantissa > 0
         top = int(exponent[live].max()) if live.any() else carry_e
@@ -134,7 +139,16 @@ def running_sums(values: Scaled, block: int = 4096) -> Scaled:
         scaled = Scaled.of(sums, np.full(stop - start, top, dtype=np.int64))
         out_mantissa[start:stop], out_exponent[start:stop] = scaled.mantissa, scaled.exponent
         carry_m, carry_e = float(scaled.mantissa[-1]), int(scaled.exponent[-1])
+        start = stop
     return Scaled(out_mantissa, out_exponent)
+
+
+def _span_stop(values: Scaled, start: int, stop: int) -> int:
+    """The end of a block from ``start``: at most ``stop``, and before the live exponents span too far."""
+    exponent = np.where(values.mantissa[start:stop] > 0, values.exponent[start:stop], values.exponent[start])
+    span = np.maximum.accumulate(exponent) - np.minimum.accumulate(exponent)
+    over = np.flatnonzero(span > SUM_SPAN_BITS)
+    return start + int(over[0]) if over.size else stop
 
 
 def filtered(tails_over_q: np.ndarray, forcing: np.ndarray, length: int, normalise: bool = True) -> Scaled:
