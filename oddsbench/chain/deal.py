@@ -102,7 +102,8 @@ class Kinds:
     def spelled(self, hand: Sequence[int]) -> str:
         if self.items:
             return ", ".join(f"{count} {self.labels[kind]}" for kind, count in enumerate(hand) if count)
-        return " ".join(self.labels[kind] for kind, count in enumerate(hand) for _ in range(count))
+        joiner = ", " if self.suited else " "  # "A of spades, K of hearts" or "10 6"
+        return joiner.join(self.labels[kind] for kind, count in enumerate(hand) for _ in range(count))
 
 
 @dataclass
@@ -139,6 +140,7 @@ class _Dealer:
         self.budget = MAX_DEAL_HANDS
         self.reached = 0
         self.summaries: dict[tuple[int, ...], Summary] = {}
+        self.suit_layout = self.exchangeable_suits()
 
     # -- the walk ---------------------------------------------------------------------------
     def run(self) -> Ruleset:
@@ -149,8 +151,13 @@ class _Dealer:
         successors: dict[str, set[str]] = {}
         dealt_of: dict[str, tuple[str, Hands]] = {}
         queue: deque[tuple[str, Hands]] = deque()
+        ends = {state.name for state in self.ruleset.states if state.is_end}
 
         def name_of(state: str, hands: Hands) -> str:
+            if state in ends:
+                return state  # an end state forgets the hands
+            if self.suit_layout is not None:
+                hands = self.canonical(hands)
             key = (state, hands)
             known = names.get(key)
             if known is not None:
@@ -158,14 +165,13 @@ class _Dealer:
             name = self.spelled(state, hands)
             names[key] = name
             dealt_of[name] = key
-            if not self.by_name[state].is_end:
-                self.reached += 1
-                if self.max_states is not None and self.reached > self.max_states:
-                    raise OddsbenchError(
-                        f"{self.source}: dealing the round from {start!r} reaches more than {self.max_states:,} "
-                        "states, over the state limit (raise it with --max-states)"
-                    )
-                queue.append(key)
+            self.reached += 1
+            if self.max_states is not None and self.reached > self.max_states:
+                raise OddsbenchError(
+                    f"{self.source}: dealing the round from {start!r} reaches more than {self.max_states:,} "
+                    "states, over the state limit (raise it with --max-states)"
+                )
+            queue.append(key)
             return name
 
         first = name_of(start, empty)
@@ -175,11 +181,47 @@ class _Dealer:
             name = names[(state_name, hands)]
             tables[name] = self.expand(state, hands, name, name_of)
             successors[name] = {o.to for _, listed in _lists_of(tables[name]) for o in listed}
-        ends = [s for s in self.ruleset.states if s.is_end]
         order = _topological(first, successors) or list(tables)
-        states = [tables[name] for name in order] + [s for s in ends if s.name not in tables]
+        states = [tables[name] for name in order] + [s for s in self.ruleset.states if s.is_end]
         strategies = tuple(self.strategy(strategy, tables, dealt_of) for strategy in self.ruleset.strategies)
         return dataclasses.replace(self.ruleset, start=first, states=tuple(states), strategies=strategies, deck=None)
+
+    def exchangeable_suits(self) -> list[list[int]] | None:
+        """Where the suits are told apart but none is ever named (flushes only) and the deck holds the same
+        cards in every suit, hands equal up to a renaming of the suits are one state: the layout of kinds
+        per rank class and suit that ``canonical`` permutes; None when the suits cannot be exchanged."""
+        kinds = self.kinds
+        if not kinds.suited or self.named_suit:
+            return None
+        if any(" of " in card for state in self.ruleset.states if state.draw for card in state.draw.take):
+            return None
+        place = {key: kind for kind, key in enumerate(kinds.of_kind)}
+        layout = []
+        for rank_class in range(len(kinds.classes.labels)):
+            row = [place.get((rank_class, suit)) for suit in range(kinds.suits)]
+            if all(kind is None for kind in row):
+                continue
+            if any(kind is None for kind in row) or len({kinds.counts[k] for k in row}) != 1:  # type: ignore[index]
+                return None
+            layout.append(row)
+        return layout  # type: ignore[return-value]
+
+    def canonical(self, hands: Hands) -> Hands:
+        """The hands with the suits renamed so that their columns (every hand's cards of that suit) are in
+        sorted order: one representative for all hands that differ only by the names of the suits."""
+        layout = self.suit_layout
+        columns = [tuple(hand[row[suit]] for hand in hands for row in layout) for suit in range(self.kinds.suits)]
+        order = sorted(range(self.kinds.suits), key=columns.__getitem__)
+        if order == sorted(order):
+            return hands
+        renamed = []
+        for hand in hands:
+            cards = list(hand)
+            for row in layout:
+                for new, old in enumerate(order):
+                    cards[row[new]] = hand[row[old]]
+            renamed.append(tuple(cards))
+        return tuple(renamed)
 
     def spelled(self, state: str, hands: Hands) -> str:
         if self.by_name[state].is_end or not any(any(hand) for hand in hands):

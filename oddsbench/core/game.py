@@ -58,13 +58,7 @@ def load_game(path: str | Path, params: Mapping[str, object] | None = None) -> G
     from oddsbench.model.load import read_ruleset_file
 
     loaded = read_ruleset_file(path, _exact(params))
-    text = None
-    if loaded.ruleset is not None:
-        try:
-            text = Path(path).read_text(encoding="utf-8")
-        except (OSError, UnicodeDecodeError):
-            text = None
-    return _read(loaded, text)
+    return _read(loaded, loaded.text)
 
 
 def game_from_text(text: str, source: str = "<text>", params: Mapping[str, object] | None = None) -> Game:

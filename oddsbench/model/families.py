@@ -25,7 +25,7 @@ from collections.abc import Iterator, Mapping
 from dataclasses import dataclass
 from typing import Any
 
-from oddsbench.model.errors import Problem, type_name
+from oddsbench.model.errors import Problem, shown_name, type_name
 from oddsbench.model.expr import ExpressionError, Node, evaluate, is_tree, names_in, parse, partial, uses_hands
 from oddsbench.model.numbers import Rational, is_integer, text, to_int
 
@@ -79,7 +79,7 @@ class _Template:
                 continue
             value = evaluate(part, env)
             if not is_integer(value):
-                raise ExpressionError(f"placeholder in {self.raw!r} gives {text(value)}, not a whole number")
+                raise ExpressionError(f"placeholder in {shown_name(self.raw)} gives {text(value)}, not a whole number")
             pieces.append(str(to_int(value)))
         return "".join(pieces)
 
@@ -95,11 +95,11 @@ def parse_template(raw: str) -> _Template:
             i += 2
             continue
         if char == "}":
-            raise ExpressionError(f"unmatched '}}' in {raw!r} (write '}}}}' for a literal brace)")
+            raise ExpressionError(f"unmatched '}}' in {shown_name(raw)} (write '}}}}' for a literal brace)")
         if char == "{":
             end = raw.find("}", i + 1)
             if end < 0:
-                raise ExpressionError(f"unclosed '{{' in {raw!r}")
+                raise ExpressionError(f"unclosed '{{' in {shown_name(raw)}")
             if literal:
                 parts.append("".join(literal))
                 literal = []
@@ -130,7 +130,7 @@ def _value_node(raw: Any, what: str) -> Node | int:
     try:
         return parse(raw)
     except ExpressionError as error:
-        raise FamilyError(f"{what} {raw!r}: {error}") from None
+        raise FamilyError(f"{what} {shown_name(raw)}: {error}") from None
 
 
 def _whole(node: Node | int, env: Mapping[str, Rational], what: str) -> int:
@@ -158,7 +158,7 @@ def _ranges(raw: Any, what: str, taken: set[str]) -> list[_Range]:
         if name in taken:
             raise FamilyError(f"{what}: variable {name!r} is already a parameter or index variable")
         if not isinstance(bounds, list) or len(bounds) != 2:
-            raise FamilyError(f"{what}, {name}: must be [low, high] (both included), not {bounds!r}")
+            raise FamilyError(f"{what}, {name}: must be [low, high] (both included), not {shown_name(bounds)}")
         low = _value_node(bounds[0], f"{what}, {name}, low end")
         high = _value_node(bounds[1], f"{what}, {name}, high end")
         ranges.append(_Range(name, low, high))
@@ -187,7 +187,7 @@ def _lets(raw: Any, what: str, taken: set[str]) -> list[tuple[str, Node]]:
         try:
             lets.append((name, parse(str(expression))))
         except ExpressionError as error:
-            raise FamilyError(f"{what}, {name} {expression!r}: {error}") from None
+            raise FamilyError(f"{what}, {name} {shown_name(expression)}: {error}") from None
         taken.add(name)
     return lets
 
@@ -303,8 +303,8 @@ class _Outcome:
                         table[key] = node
                     elif _reads_hands(node, inner):
                         table[key] = partial(node, inner)
-                    else:
-                        table[key] = text(evaluate(node, inner))
+                    else:  # the exact value itself: read as written by hand, without a second parse
+                        table[key] = evaluate(node, inner)
                 if self.note is not None:
                     table["note"] = self.note.render(inner)
             except ExpressionError as error:

@@ -57,6 +57,11 @@ def _as_fmpq(value: Any) -> Rational:
 QQ = _Rationals()
 
 
+def is_rational(value: object) -> bool:
+    """Whether ``value`` is already an exact number of ours (a family hands its evaluated values on as such)."""
+    return isinstance(value, fmpq)
+
+
 def numerator(value: Rational) -> int:
     return int(QQ.numer(value))
 
@@ -94,6 +99,13 @@ def int_text(value: int) -> str:
     from flint import fmpz
 
     return str(fmpz(value))
+
+
+def count_text(count: int) -> str:
+    """A whole count for a message: ``12,345``, or ``about 10^50`` past the digits anyone reads."""
+    return (
+        f"{count:,}" if abs(count) < 10**15 else f"about {'-' if count < 0 else ''}10^{len(int_text(abs(count))) - 1}"
+    )
 
 
 def log10_abs(value: Rational) -> float:

@@ -18,7 +18,7 @@ from oddsbench.model.errors import Problem, shown_name, type_name
 from oddsbench.model.expr import ExpressionError, evaluate, is_tree, names_in, parse
 from oddsbench.model.families import FamilyMember, expand_families, expand_plain_state, uses_family_outcomes
 from oddsbench.model.family_rules import rule_actions
-from oddsbench.model.numbers import QQ, Rational, text
+from oddsbench.model.numbers import QQ, Rational, is_rational, text
 from oddsbench.model.ruleset import Outcome, Ruleset, State, Strategy
 
 MAX_NAME_LENGTH = 200
@@ -33,6 +33,8 @@ TOP_KEYS = frozenset({"ruleset", "params", "states", "strategies", "session", "f
 def describe_value(value: Any) -> str:
     """A short echo of a field's value for messages: strings quoted (unprintable characters
     escaped, so a file cannot send terminal control codes through a message), long ones cut."""
+    if is_rational(value):
+        value = text(value)  # a family's value, shown as the text it stands for
     if isinstance(value, str):
         shown = '"' + "".join(c if c.isprintable() else repr(c)[1:-1] for c in value[:80]) + '"'
     else:
@@ -72,6 +74,8 @@ class RulesetReader:
             return None
         if isinstance(raw, int):
             return QQ(raw)
+        if is_rational(raw):  # a family's value, already evaluated under the same limits
+            return raw
         if isinstance(raw, float):
             if raw != raw or raw in (float("inf"), float("-inf")):
                 self.error(where, f"must be a finite number, not {raw}")

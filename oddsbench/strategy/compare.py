@@ -107,6 +107,20 @@ def _started(ruleset: Ruleset, state: str | None) -> Ruleset:
     return dataclasses.replace(ruleset, start=state)
 
 
+def _shared_deal(ruleset: Ruleset, starts: Sequence[str], max_states: int | None) -> Callable[[str], Ruleset | None]:
+    """Several start states of one deck game (``--from 'up-*'``): deal once from the file's start and
+    start each round there when that deal already holds the state with nothing dealt (hands after it
+    are shared: the dealer's 6 then 10 is the same state whatever the upcard was). None: deal apart."""
+    if ruleset.deck is None or len(set(starts)) < 2:
+        return lambda start: None
+    try:
+        whole = dealt(ruleset, max_states)
+    except OddsbenchError:
+        return lambda start: None  # the file's own start may break where these starts do not
+    names = set(whole.state_names)
+    return lambda start: dataclasses.replace(whole, start=start) if start in names else None
+
+
 def with_hands(ruleset: Ruleset, figures: RoundFigures) -> RoundFigures:
     """A round dealt in one draw of k (a deck game): each end's chance also as a count of hands."""
     draw = single_draw(ruleset)
@@ -168,8 +182,9 @@ def solve_rounds(
 ) -> RoundResults:
     """Solve one round per (start state, strategy name or None), in order."""
     columns = []
+    shared = _shared_deal(ruleset, [start for start, _ in plays], max_states)
     for start, strategy in plays:
-        played = starting_at(ruleset, start, max_states)
+        played = shared(start) or starting_at(ruleset, start, max_states)
         policy = policy_of(played, strategy)
         chain = build_round_chain(played, policy, max_states)
         figures = with_hands(_started(ruleset, start), solve_round(chain, rounds, exact_limit, should_stop, exact_bits))

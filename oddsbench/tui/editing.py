@@ -15,7 +15,9 @@ from tomlkit.exceptions import TOMLKitError
 from oddsbench.model.atomic_write import write_text_atomically
 from oddsbench.model.document import DocumentError, RulesetDocument, parse_document
 from oddsbench.model.errors import OddsbenchError, Problem
+from oddsbench.model.file_read import FileRefused, read_text_capped
 from oddsbench.model.history import History, Step
+from oddsbench.model.load import MAX_FILE_BYTES
 from oddsbench.tui.bundled import is_bundled
 
 Edit = Callable[[RulesetDocument], object]
@@ -43,11 +45,9 @@ class EditSession:
     @classmethod
     def open(cls, path: Path) -> EditSession:
         try:
-            text = path.read_text(encoding="utf-8")
-        except UnicodeDecodeError:
-            raise OddsbenchError(f"{path}: is not UTF-8 text") from None
-        except OSError as error:
-            raise OddsbenchError(f"{path}: cannot be read: {error.strerror or error}") from None
+            text = read_text_capped(path, MAX_FILE_BYTES, "is a folder, not a ruleset file")
+        except FileRefused as refused:
+            raise OddsbenchError(f"{path}: {refused}") from None
         return cls(text, path)
 
     @property

@@ -76,3 +76,14 @@ def test_the_upcard_leaves_the_shoe():
     # first principles: with a 10 up, a natural needs one of the 24 aces among the 311 cards left
     assert engine(10, 6)["blackjack"] == QQ(24, 311)
     assert engine(11, 6)["blackjack"] == QQ(96, 311)  # all 96 ten-valued cards are still in the shoe
+
+
+def test_several_upcards_side_by_side_share_one_deal_and_agree_with_the_walk():
+    from oddsbench.core import load_game, make_settings, round_figures
+
+    game = load_game(RULESETS / "dealer-six-decks-stands-soft-17.toml", {"decks": 1})
+    columns = round_figures(game, make_settings(starts="up-2,up-6,up-11")).columns
+    for column in columns:
+        upcard = int(column.start.removeprefix("up-"))
+        row = {name: column.figures.end_probability[name].exact for name in column.figures.end_probability}
+        assert row == {name: value for name, value in brute_force(upcard, 1).items() if value}

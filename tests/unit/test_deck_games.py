@@ -319,3 +319,32 @@ def test_pay_and_stake_may_read_the_hands():
 def test_an_invalid_ruleset_stays_refused_before_dealing():
     with pytest.raises(RulesetError):
         load_ruleset_text(one_draw("[deck]", "1", '{ to = "nowhere" }'))
+
+
+def test_hands_equal_up_to_the_names_of_the_suits_are_one_state():
+    # first principles: two cards from 52 up to renaming the suits are 13 pairs, 78 suited and
+    # 78 unsuited hands: 169 states after the deal (1,326 hands without the symmetry)
+    text = one_draw(
+        "[deck]",
+        "2",
+        '{ to = "look" }',
+        '[states.look]\noutcomes = [{ when = "flush(hand) or most(hand) == 2", to = "yes" }, { to = "no" }]\n'
+        "[states.yes]\n[states.no]\n",
+    )
+    played = dealt(load_ruleset_text(text))
+    assert sum(1 for state in played.states if state.name.startswith("look [")) == 169
+    figures = solve_round(build_round_chain(played))
+    assert figures.end_probability["yes"].exact == QQ(15, 51)  # first principles: 12 + 3 of the 51 cards left
+
+
+def test_naming_a_suit_keeps_the_suits_apart():
+    text = one_draw(
+        "[deck]",
+        "2",
+        '{ to = "look" }',
+        '[states.look]\noutcomes = [{ when = "count(hand, hearts) == 2 and kinds(hand) == 2", to = "yes" }, '
+        '{ to = "no" }]\n[states.yes]\n[states.no]\n',
+    )
+    played = dealt(load_ruleset_text(text))
+    assert sum(1 for state in played.states if state.name.startswith("look [")) == 1_326
+    assert solve_round(build_round_chain(played)).end_probability["yes"].exact == QQ(comb(13, 2), comb(52, 2))

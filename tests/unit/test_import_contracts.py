@@ -32,6 +32,14 @@ def lint_imports(folder, *args: str) -> subprocess.CompletedProcess[str]:
     )
 
 
+@pytest.fixture
+def package_copy(tmp_path):
+    """A copy of the package and the project's contracts, to add an offending module to."""
+    shutil.copytree(ROOT / "oddsbench", tmp_path / "oddsbench", ignore=shutil.ignore_patterns("__pycache__"))
+    shutil.copy(ROOT / "pyproject.toml", tmp_path / "pyproject.toml")
+    return tmp_path
+
+
 def test_the_project_keeps_every_import_contract():
     run = lint_imports(ROOT)
     assert run.returncode == 0, run.stdout + run.stderr
@@ -62,6 +70,12 @@ def test_the_project_keeps_every_import_contract():
         ),
         ("cli/probe_direct.py", "import textual.app\n", "textual-in-tui", "oddsbench.cli.probe_direct -> textual"),
         (
+            "tui/probe_engine.py",
+            "from oddsbench.chain import round_chain\n",
+            "front-ends-ask-the-core",
+            "oddsbench.tui.probe_engine -> oddsbench.chain.round_chain",
+        ),
+        (
             "report/probe_solving.py",
             "from oddsbench.solve import round\n",
             "report-formats-only",
@@ -87,21 +101,17 @@ def test_the_project_keeps_every_import_contract():
         ),
     ],
 )
-def test_a_deliberate_violation_breaks_its_contract(tmp_path, module, text, contract, reported):
+def test_a_deliberate_violation_breaks_its_contract(package_copy, module, text, contract, reported):
     # A copy of the package with one offending module, checked against the project's own contracts.
-    shutil.copytree(ROOT / "oddsbench", tmp_path / "oddsbench", ignore=shutil.ignore_patterns("__pycache__"))
-    shutil.copy(ROOT / "pyproject.toml", tmp_path / "pyproject.toml")
-    (tmp_path / "oddsbench" / module).write_text(text)
-    run = lint_imports(tmp_path, "--contract", contract)
+    (package_copy / "oddsbench" / module).write_text(text)
+    run = lint_imports(package_copy, "--contract", contract)
     assert run.returncode == 1, run.stdout + run.stderr
     assert "BROKEN" in run.stdout and reported in run.stdout
 
 
-def test_the_same_copy_without_the_offending_module_keeps_its_contracts(tmp_path):
+def test_the_same_copy_without_the_offending_module_keeps_its_contracts(package_copy):
     # The control for the test above: the copy itself is clean, so the probe module is what broke it.
-    shutil.copytree(ROOT / "oddsbench", tmp_path / "oddsbench", ignore=shutil.ignore_patterns("__pycache__"))
-    shutil.copy(ROOT / "pyproject.toml", tmp_path / "pyproject.toml")
-    run = lint_imports(tmp_path)
+    run = lint_imports(package_copy)
     assert run.returncode == 0, run.stdout + run.stderr
 
 
