@@ -50,7 +50,9 @@ def skip_free_view(chain: BankrollChain) -> WalkView:
     if not (bets == bets[0]).all():
         return WalkView(None, reason="the bet changes with the bankroll (cut or sized bets)")
     steps = np.array([to_int(o.net * chain.grid.scale) for o in chain.distribution.outcomes], dtype=np.int64)
-    jumps_all = steps * int(bets[0])
+    # a jump past the whole run of levels lands beyond it from every level: as far as the walk goes,
+    # it is a jump of ``size`` (a win of 10^12 units on a goal 100 away needs no 10^12-long recursion)
+    jumps_all = np.clip(steps * int(bets[0]), -chain.size, chain.size)
     jumps, where = np.unique(jumps_all, return_inverse=True)
     probs = np.zeros(len(jumps))
     np.add.at(probs, where, [to_float(o.prob) for o in chain.distribution.outcomes])
