@@ -50,23 +50,28 @@ def skip_free_view(chain: BankrollChain) -> WalkView:
     if not (bets == bets[0]).all():
         return WalkView(None, reason="the bet changes with the bankroll (cut or sized bets)")
     steps = np.array([to_int(o.net * chain.grid.scale) for o in chain.distribution.outcomes], dtype=np.int64)
-    # a jump past the whole run of levels lands beyond it from every level: as far as the walk goes,
-    # it is a jump of ``size`` (a win of 10^12 units on a goal 100 away needs no 10^12-long recursion)
-    jumps_all = np.clip(steps * int(bets[0]), -chain.size, chain.size)
-    jumps, where = np.unique(jumps_all, return_inverse=True)
-    probs = np.zeros(len(jumps))
-    np.add.at(probs, where, [to_float(o.prob) for o in chain.distribution.outcomes])
-    keep = probs > 0
-    jumps, probs = jumps[keep], probs[keep]
-    low, high = int(jumps.min()), int(jumps.max())
+    raw = steps * int(bets[0])
+    probs_all = np.array([to_float(o.prob) for o in chain.distribution.outcomes])
+    live = probs_all > 0
+    low, high = int(raw[live].min()), int(raw[live].max())
+    # a jump past the whole run of levels lands beyond it from every level: as far as the walk goes it
+    # is a jump of ``size`` (a win of 10^12 units on a goal 100 away needs no 10^12-long recursion)
     if low == -1 and high >= 1:
-        return WalkView(SkipFreeWalk(jumps, probs, chain.size))
+        return WalkView(_walk(np.minimum(raw, chain.size), probs_all, chain.size))
     if high == 1 and low <= -1:
-        order = np.argsort(-jumps)
-        return WalkView(SkipFreeWalk(-jumps[order], probs[order], chain.size), mirrored=True)
+        return WalkView(_walk(np.minimum(-raw, chain.size), probs_all, chain.size), mirrored=True)
     if low >= 0 or high <= 0:
         return WalkView(None, reason="the bankroll can only rise, or only fall")
     return WalkView(None, reason="a round can lose, and win, more than one grid step")
+
+
+def _walk(jumps: np.ndarray, probs: np.ndarray, size: int) -> SkipFreeWalk:
+    """The walk with equal jumps merged and impossible ones dropped."""
+    merged, where = np.unique(jumps, return_inverse=True)
+    total = np.zeros(len(merged))
+    np.add.at(total, where, probs)
+    keep = total > 0
+    return SkipFreeWalk(merged[keep], total[keep], size)
 
 
 def band_system(chain: BankrollChain) -> BandMatrix | None:

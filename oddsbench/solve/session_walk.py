@@ -32,34 +32,34 @@ def walk_decimal(chain: BankrollChain, view: WalkView) -> dict:
     spread = view.chain_order(factors.solve(_centred_walk_rhs(view.walk, rounds_walk)))
     rounds = view.chain_order(rounds_walk)
     goal_decimal, goal_log10 = (near_decimal, near_log10) if view.mirrored else (far_decimal, far_log10)
-    # where the walk's two ends sit among the chain's absorbing states
+    # where the walk's two ends sit among the chain's absorbing states: it reaches the near end exactly
+    # (the ruin level, or the goal when mirrored); past the far end it may land on several values
     low_value, goal_value = chain.grid.low - 1, chain.grid.goal
-    near_value, far_value = (goal_value, low_value) if view.mirrored else (low_value, goal_value)
-    index = {int(v): a for a, v in enumerate(chain.absorbing_values.tolist())}
+    near_value = goal_value if view.mirrored else low_value
+    far_mask = chain.absorbing_kinds != GOAL if view.mirrored else chain.absorbing_kinds == GOAL
+    far_indices = np.flatnonzero(far_mask)
+    nearest_far = int(far_indices[-1] if view.mirrored else far_indices[0])  # the far value closest to play
+    near = int(np.flatnonzero(chain.absorbing_values == near_value)[0])
     absorbed = np.zeros(len(chain.absorbing_values))
     absorbed_log10 = np.full(len(chain.absorbing_values), np.nan)
-    absorbed[index[near_value]] = near_decimal[at]
-    absorbed_log10[index[near_value]] = near_log10[at]
+    absorbed[near], absorbed_log10[near] = near_decimal[at], near_log10[at]
     notes = []
     far_total, far_total_log10 = far_decimal[at], far_log10[at]
-    if view.walk.top == 1:
-        absorbed[index[far_value]], absorbed_log10[index[far_value]] = far_total, far_total_log10
+    if len(far_indices) == 1:
+        absorbed[nearest_far], absorbed_log10[nearest_far] = far_total, far_total_log10
     else:
         row, bound = factors.visits_from(at)
         reliable = float(bound[row > 0].max(initial=0.0)) <= 1e-10
         if not reliable and far_total < SPLIT_TINY:
-            absorbed[index[far_value]], absorbed_log10[index[far_value]] = far_total, far_total_log10
-            past = "goal" if not view.mirrored else "ruin level"
+            absorbed[nearest_far], absorbed_log10[nearest_far] = far_total, far_total_log10
+            past = "ruin level" if view.mirrored else "goal"
             notes.append(
-                f"the chance of ending past the {past} ({_power_text(far_total_log10)}) is shown at the {past} "
-                "itself: too small to split by how far past it the last round went"
+                f"the chance of ending past the {past} ({_power_text(far_total_log10)}) is shown at the first value "
+                f"past the {past}: too small to split by how far past it the last round went"
             )
         else:
             visits = view.chain_order(row if reliable else factors.solve_transposed(unit_vector(n, at)))
-            far = np.zeros(len(absorbed))
-            far_mask = chain.absorbing_kinds == GOAL if not view.mirrored else chain.absorbing_kinds != GOAL
-            far += np.where(far_mask, chain.r_matrix().T @ visits, 0.0)
-            absorbed = np.where(far_mask, far, absorbed)
+            absorbed = np.where(far_mask, chain.r_matrix().T @ visits, absorbed)
     return {
         "absorbed": absorbed,
         "absorbed_log10": absorbed_log10,

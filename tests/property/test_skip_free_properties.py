@@ -68,6 +68,7 @@ def test_skip_free_sessions_match_the_exact_engine(table, above, gap):
         agree(name, decimal.figures[name], exact.figures[name].exact)
     for k, value in enumerate(exact.goal_series_exact):
         agree(f"series[{k}]", decimal.series_figure(k), value)
+    scale = max(1.0, to_float(exact.figures["expected_rounds"].exact)) ** 2  # a variance of 0 is met to rounding
     for name in MOMENTS:
         truth = to_float(exact.figures[name].exact)
-        assert abs(decimal.figures[name].decimal - truth) <= 1e-9 * max(abs(truth), 1e-300), name
+        assert abs(decimal.figures[name].decimal - truth) <= 1e-9 * abs(truth) + 1e-15 * scale, name
