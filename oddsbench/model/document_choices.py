@@ -102,9 +102,10 @@ class ChoiceEdits(StrategyEdits):
 
     # ----- kinds -----
 
-    def make_decision(self, name: str, action: str, family: bool = False) -> None:
+    def make_decision(self, name: str, action: str, family: bool = False) -> int:
         """Plain outcomes become the outcomes of one action (more can be added); an end state gets
-        one action with an outcome to fill in."""
+        one action with an outcome to fill in. Every strategy chooses that one action there (so
+        each stays complete); the count of entries written."""
         action = self._checked_name(action, "action")
         owner = self._owner(name, family)
         if "choices" in owner:
@@ -114,10 +115,11 @@ class ChoiceEdits(StrategyEdits):
             self._put(owner, f"choices.{tomlkit.key(action).as_string()}", _new_outcomes(), None)
             if not family and "result" in owner:
                 del owner["result"]
-            return
-        if isinstance(outcomes, AoT):
+        elif isinstance(outcomes, AoT):
             raise DocumentError("outcomes written as [[...]] tables: make this a decision in the Source view")
-        self._put(owner, f"choices.{tomlkit.key(action).as_string()}", outcomes, "outcomes")
+        else:
+            self._put(owner, f"choices.{tomlkit.key(action).as_string()}", outcomes, "outcomes")
+        return 0 if family else self._choose_everywhere(name, action)
 
     def make_plain(self, name: str, family: bool = False) -> int:
         """A decision with one action becomes plain outcomes; an end state gets an outcome to fill in.

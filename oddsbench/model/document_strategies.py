@@ -134,6 +134,16 @@ class StrategyEdits(DocumentBase):
                 changed += 1
         return changed
 
+    def _choose_everywhere(self, state: str, action: str) -> int:
+        """A new decision state: each strategy that has no word for it (and whose default is another
+        action) chooses ``action`` there; the count."""
+        changed = 0
+        for name, body in self._strategy_tables():
+            if state not in body and body.get(DEFAULT) != action:
+                Keys(self._holder("strategies", name), name).set(state, action)
+                changed += 1
+        return changed
+
     def _drop_state_entries(self, state: str) -> int:
         changed = 0
         for name, body in self._strategy_tables():

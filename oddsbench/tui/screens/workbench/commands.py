@@ -225,7 +225,12 @@ def ask_kind(screen: Screen, document: RulesetDocument, name: str, family: bool)
 
             def named(action: str | None) -> None:
                 if action:
-                    _post(screen, lambda doc: doc.make_decision(name, action, family), f"{name}: a decision")
+                    _post(
+                        screen,
+                        lambda doc: doc.make_decision(name, action, family),
+                        f"{name}: a decision",
+                        done=_counted("written"),
+                    )
 
             question = "Name of the action its outcomes become" if kind == "outcomes" else "Name of its first action"
             screen.app.push_screen(AskName(question, "play"), named)
