@@ -108,7 +108,7 @@ def whole_units(label: str, value: Rational, unit: Rational) -> int:
     """A bet amount in betting units: whole and at least one, or refused in one line."""
     count = value / unit
     if not is_integer(count) or count < 1:
-        raise OddsbenchError(f"{label} {text(value)} must be a whole, positive number of betting units")
+        raise OddsbenchError(f"{label} {text(value)} must be a whole, positive number of betting units of {text(unit)}")
     return to_int(count)
 
 
