@@ -15,7 +15,7 @@ from dataclasses import dataclass
 from oddsbench.chain.round_distribution import RoundDistribution
 from oddsbench.core.game import Game
 from oddsbench.core.settings import DEFAULTS, SessionRequest, Settings
-from oddsbench.core.work import NO_WORK, Work
+from oddsbench.core.work import NO_WORK, Work, budgeted
 from oddsbench.model.defaults import DEFAULT_PLANS, NO_GOAL_DEFAULT_PLANS
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.strategy.no_goal_play import NoGoalFigures
@@ -93,6 +93,7 @@ def session_round(game: Game, strategy: str | None, max_states: int | None = Non
     return round_distribution_of(game.ruleset, policy_of(game.ruleset, strategy))
 
 
+@budgeted
 def sessions(game: Game, settings: Settings = DEFAULTS, work: Work = NO_WORK) -> SessionResults:
     """Every plan of ``settings.session`` (default timid and bold), with a goal or with none."""
     request = settings.session or SessionRequest()
@@ -163,6 +164,7 @@ def _no_goal(
     return solve_no_goal_play(outcomes, bet, session.bankroll, check=request.check, **common)
 
 
+@budgeted
 def still_playing(results: SessionResults, plan: str, rounds: Sequence[int], work: Work = NO_WORK) -> tuple[float, ...]:
     """The chance that a plan's session is still going after each number of rounds (decimals: for a chart).
 
