@@ -19,7 +19,6 @@ from oddsbench.model.defaults import DEFAULT_EXACT_BITS, ROUND_EXACT_LIMIT
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.figure import Figure
 from oddsbench.model.numbers import QQ, Rational, log10_abs, to_float
-from oddsbench.solve.cancel import SolveCancelled
 from oddsbench.solve.linear import (
     ExactTooLarge,
     FloatSingular,
@@ -31,7 +30,6 @@ from oddsbench.solve.linear import (
 )
 
 DEFAULT_EXACT_LIMIT = ROUND_EXACT_LIMIT
-DEFAULT_STEP_BUDGET = 20_000_000
 RELATIVE_TOLERANCE = 1e-9
 ZERO_TOLERANCE = 1e-12
 NEAR_SINGULAR = 1e7  # condition number past which the float engine may lose 7 of its 16 digits
@@ -337,38 +335,11 @@ def _by_result(chain: RoundChain, ends: dict[str, Figure]) -> dict[str, Figure]:
 def _by_step(
     chain: RoundChain, rounds: int, exact: bool, notes: list[str], should_stop: Callable[[], bool] | None
 ) -> dict[str, Figure]:
-    """Chance of being in each end state after ``rounds`` steps: repeated products with P."""
-    size = len(chain.names)
-    n = chain.transient_count
-    use_exact = exact and rounds * max(len(chain.edges), 1) <= DEFAULT_STEP_BUDGET
-    if exact and not use_exact:
-        notes.append(
-            f"chances by step {rounds:,}: exact products skipped (over {DEFAULT_STEP_BUDGET:,} "
-            "edge updates); decimals are from the float engine"
-        )
-    source = np.fromiter((e.source for e in chain.edges), dtype=np.int64)
-    target = np.fromiter((e.target for e in chain.edges), dtype=np.int64)
-    prob = np.fromiter((to_float(e.prob) for e in chain.edges), dtype=float)
-    floats = np.zeros(size)
-    floats[0] = 1.0
-    values = [QQ(0)] * size
-    values[0] = QQ(1)
-    for step in range(rounds):
-        if should_stop is not None and step % 64 == 0 and should_stop():
-            raise SolveCancelled
-        moved = np.zeros(size)
-        moved[n:] = floats[n:]
-        np.add.at(moved, target, floats[source] * prob)
-        floats = moved
-        if use_exact:
-            nxt = [QQ(0)] * n + values[n:]
-            for edge in chain.edges:
-                weight = values[edge.source]
-                if weight != 0:
-                    nxt[edge.target] += weight * edge.prob
-            values = nxt
-    result = {}
-    for j, name in enumerate(chain.ends):
-        exact_value = values[n + j] if use_exact else None
-        result[name] = _checked(f"end_probability_by_step[{name}]", exact_value, floats[n + j], notes)
-    return result
+    """Chance of being in each end state after ``rounds`` steps (``solve/by_step.py``)."""
+    from oddsbench.solve.by_step import end_chances_by_step
+
+    exact_values, decimals = end_chances_by_step(chain, rounds, exact, notes, should_stop)
+    return {
+        name: _checked(f"end_probability_by_step[{name}]", exact_values[j], decimals[j], notes)
+        for j, name in enumerate(chain.ends)
+    }

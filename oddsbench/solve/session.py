@@ -18,9 +18,11 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from oddsbench.chain.bankroll import FLOOR, GOAL, KIND_NAMES, RUIN, BankrollChain
+from oddsbench.model import budget
 from oddsbench.model.numbers import QQ, Rational, to_float
-from oddsbench.solve.cancel import SolveCancelled
-from oddsbench.solve.linear import factor_exact, factor_float, identity_minus, identity_minus_float
+from oddsbench.solve.by_step import require_exact_steps
+from oddsbench.solve.linear import ExactTooLarge, factor_exact, factor_float, identity_minus, identity_minus_float
+from oddsbench.solve.linear.costs import ExactClock
 from oddsbench.solve.round import Figure
 
 DEFAULT_EXACT_LIMIT = 3_000
@@ -85,12 +87,18 @@ def solve_session(
             )
         use_exact = use_exact and budget_ok
         raw_decimal = _forward_decimal(chain, max_rounds)
-        raw_exact = _forward_exact(chain, max_rounds, should_stop) if use_exact else None
         series = _capped_series_decimal(chain, max_rounds)
-        series_exact = _capped_series_exact(chain, max_rounds, should_stop) if use_exact else None
+        raw_exact = series_exact = None
+        if use_exact:
+            capped = _exact_or_note(lambda: _capped_exact(chain, max_rounds, should_stop), notes, "time cap")
+            raw_exact, series_exact = capped or (None, None)
+            use_exact = capped is not None
     else:
-        raw_decimal = _absorbing_decimal(chain)
-        raw_exact = _absorbing_exact(chain, should_stop) if use_exact else None
+        raw_decimal = _absorbing_decimal(chain, should_stop)
+        raw_exact = None
+        if use_exact:
+            raw_exact = _exact_or_note(lambda: _absorbing_exact(chain, should_stop), notes, "session")
+            use_exact = raw_exact is not None
         series = raw_decimal["series"]
         series_exact = raw_exact["series"] if raw_exact else None
     figures, final = _figures(chain, raw_exact, raw_decimal, notes, max_rounds)
@@ -101,7 +109,11 @@ def solve_session(
         if use_exact and not exact_within:
             notes.append(f"figures within {horizon:,} rounds: exact stepping skipped; decimals only")
         within_decimal = _forward_decimal(chain, horizon)
-        within_exact = _forward_exact(chain, horizon, should_stop) if exact_within else None
+        within_exact = None
+        if exact_within:
+            within_exact = _exact_or_note(
+                lambda: _stepped_exact(chain, horizon, should_stop), notes, f"figures within {horizon:,} rounds"
+            )
         within_figures, after = _figures(chain, within_exact, within_decimal, notes, horizon, prefix="within")
         figures.update(within_figures)
     goal_series, goal_exact = _series(chain, series, series_exact)
@@ -124,6 +136,29 @@ def solve_session(
     )
 
 
+def _exact_or_note(compute: Callable, notes: list[str], what: str):
+    """The exact result, or None with a note when exact arithmetic would not fit the work budget."""
+    try:
+        return compute()
+    except ExactTooLarge as error:
+        notes.append(f"{what}: exact arithmetic stopped: {error}; decimals are from the float engine")
+        return None
+
+
+def _stepped_exact(chain: BankrollChain, steps: int, should_stop) -> dict | None:
+    """``_forward_exact`` once its cost is known to fit (``by_step.require_exact_steps``)."""
+    probabilities = [outcome.prob for outcome in chain.distribution.outcomes]
+    require_exact_steps(probabilities, chain.target.size, steps, f"{steps:,} exact rounds")
+    return _forward_exact(chain, steps, should_stop)
+
+
+def _capped_exact(chain: BankrollChain, steps: int, should_stop) -> tuple[dict | None, list | None]:
+    """The exact session and goal series with a time cap: forward and backward stepping."""
+    probabilities = [outcome.prob for outcome in chain.distribution.outcomes]
+    require_exact_steps(probabilities, 2 * chain.target.size, steps, f"{steps:,} exact rounds")
+    return _forward_exact(chain, steps, should_stop), _capped_series_exact(chain, steps, should_stop)
+
+
 def exact_work(chain: BankrollChain) -> int:
     """Estimated cost of the exact solve: entries of L and U (no reordering) times the state count.
 
@@ -144,7 +179,7 @@ def _rhs_columns(chain: BankrollChain):
     return goal_columns, staked_unit
 
 
-def _absorbing_decimal(chain: BankrollChain) -> dict:
+def _absorbing_decimal(chain: BankrollChain, should_stop=None) -> dict:
     n = chain.size
     goal_columns, staked_unit = _rhs_columns(chain)
     r = chain.r_matrix()
@@ -152,7 +187,7 @@ def _absorbing_decimal(chain: BankrollChain) -> dict:
     if n == 0:
         return {"absorbed": np.zeros(len(values)), "start_absorbed": True, "series": np.zeros(0)}
     # value-major bankroll levels: eliminated from the top while the band's fill fits
-    lu = factor_float(identity_minus_float(chain.q_matrix()), order="from-top")
+    lu = factor_float(identity_minus_float(chain.q_matrix()), order="from-top", should_stop=should_stop)
     r_goal = np.asarray(r[:, goal_columns].sum(axis=1)).ravel()
     staked = chain.bets.astype(float) * to_float(staked_unit)
     solved = lu.solve(np.column_stack([r_goal, np.ones(n), staked]))
@@ -220,6 +255,8 @@ def _forward_decimal(chain: BankrollChain, steps: int) -> dict:
     d[chain.start] = 1.0
     rounds = second = spent = 0.0
     for step in range(steps):
+        if step % 64 == 0:
+            budget.check(f"the session stepped over {steps:,} rounds")
         alive = d.sum()
         if alive == 0.0:
             break
@@ -241,9 +278,10 @@ def _forward_exact(chain: BankrollChain, steps: int, should_stop) -> dict | None
     d: dict[int, Rational] = {chain.start: QQ(1)}
     absorbed = [QQ(0)] * len(chain.absorbing_values)
     rounds = second = spent = QQ(0)
+    clock = ExactClock(should_stop, steps, "stepping")
     for step in range(steps):
-        if should_stop is not None and step % 64 == 0 and should_stop():
-            raise SolveCancelled
+        if step % 64 == 0:
+            clock.poll(step)
         if not d:
             break
         alive = sum(d.values(), QQ(0))
@@ -272,8 +310,13 @@ def _capped_series_decimal(chain: BankrollChain, steps: int) -> np.ndarray:
     r = chain.r_matrix()
     r_goal = np.asarray(r[:, chain.absorbing_kinds == GOAL].sum(axis=1)).ravel()
     h = np.zeros(n)
-    for _ in range(steps):
-        h = q @ h + r_goal
+    for step in range(steps):
+        if step % 64 == 0:
+            budget.check(f"the goal chances within {steps:,} rounds")
+        moved = q @ h + r_goal
+        if np.array_equal(moved, h):  # a fixed point in floating point: every further round gives it again
+            break
+        h = moved
     return h
 
 
@@ -285,9 +328,10 @@ def _capped_series_exact(chain: BankrollChain, steps: int, should_stop) -> list 
     goal_set = set(np.flatnonzero(chain.absorbing_kinds == GOAL).tolist())
     r_goal = [sum((p for a, p in row.items() if a in goal_set), QQ(0)) for row in r_rows]
     h = [QQ(0)] * n
+    clock = ExactClock(should_stop, steps, "stepping")
     for step in range(steps):
-        if should_stop is not None and step % 64 == 0 and should_stop():
-            raise SolveCancelled
+        if step % 64 == 0:
+            clock.poll(step)
         h = [r_goal[i] + sum((p * h[j] for j, p in q_rows[i].items()), QQ(0)) for i in range(n)]
     return h
 
