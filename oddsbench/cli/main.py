@@ -64,6 +64,7 @@ def main(argv: Sequence[str] | None = None, hard_limits: bool = False) -> int:
     """Run one command; ``hard_limits`` (the real process, not a test calling in) also caps this
     process's memory at the budget, so an allocation past it fails instead of swapping."""
     from oddsbench.model import budget as budgets
+    from oddsbench.model.families import state_limit
 
     for stream in (sys.stdout, sys.stderr):
         if hasattr(stream, "reconfigure"):
@@ -76,7 +77,7 @@ def main(argv: Sequence[str] | None = None, hard_limits: bool = False) -> int:
     try:
         if args.command is None:
             return open_command.run_workbench(None)
-        with budgets.scope(budget):
+        with budgets.scope(budget), state_limit(getattr(args, "max_states", None)):
             return int(args.run(args) or 0)
     except RulesetError as error:
         for problem in error.problems:

@@ -121,6 +121,8 @@ def _memory_now() -> int:
 def seconds_text(seconds: float) -> str:
     if not math.isfinite(seconds):
         return "without end"
+    if seconds < 0.1:
+        return f"{seconds * 1000:.0f} ms"
     if seconds < 10:
         return f"{seconds:.1f} s"
     if seconds < 7200:

@@ -9,10 +9,12 @@ shows the same columns.
 from __future__ import annotations
 
 import dataclasses
+import time
 from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 
 from oddsbench.chain.round_chain import build_round_chain
+from oddsbench.model import budget
 from oddsbench.model.defaults import DEFAULT_EXACT_BITS, DEFAULT_MAX_STATES, ROUND_EXACT_LIMIT
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.ruleset import Ruleset, Strategy
@@ -151,13 +153,25 @@ def solve_rounds(
     max_states: int = DEFAULT_MAX_STATES,
     exact_bits: int | None = DEFAULT_EXACT_BITS,
 ) -> RoundResults:
-    """Solve one round per (start state, strategy name or None), in order."""
+    """Solve one round per (start state, strategy name or None), in order.
+
+    The first column is timed: when the others, at its pace, would not fit the time left in the
+    work budget, they are refused in one line before any of them starts.
+    """
     columns = []
-    for start, strategy in plays:
+    for number, (start, strategy) in enumerate(plays):
+        began = time.monotonic()
         policy = policy_of(ruleset, strategy)
         chain = build_round_chain(starting_at(ruleset, start), policy, max_states)
         figures = solve_round(chain, rounds, exact_limit, should_stop, exact_bits)
         columns.append(RoundColumn(figures.start, strategy, policy, figures))
+        if number == 0 and len(plays) > 1:
+            each = time.monotonic() - began
+            what = "start states" if compared == "starts" else "plays"
+            budget.require(
+                f"solving {len(plays) - 1:,} more {what} side by side ({budget.seconds_text(each)} each)",
+                seconds=each * (len(plays) - 1),
+            )
     return RoundResults(ruleset.title, tuple(columns), compared)
 
 
