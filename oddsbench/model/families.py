@@ -41,7 +41,7 @@ MAX_FAMILY_COMBINATIONS = 2_000_000  # index values tried, kept or not: a filter
 # or an outcome table also costs its own bookkeeping. Measured: about 1.7 microseconds a step.
 STEPS_PER_SECOND = 400_000
 READING_SHARE = 0.5  # of the time left in the work budget, for expanding families
-TABLE_STEPS = 10
+TABLE_STEPS = 30  # a table also costs its reading: the loader parses each rendered value again
 CHECK_EVERY_STEPS = 100_000
 
 FAMILY_KEYS = frozenset({"state", "index", "let", "when", "outcomes", "choices", "result", "about"})

@@ -31,11 +31,12 @@ from oddsbench.solve.cancel import SolveCancelled, StopCheck
 
 POLL_SECONDS = 0.05
 _READY, _OK, _ERROR, _MEMORY = "ready", "ok", "error", "memory"
+_in_child = [False]  # inside a detached child, nested long calls simply run (the parent watches them all)
 
 
 def can_detach() -> bool:
-    """Whether this platform forks (POSIX); elsewhere long calls run in place."""
-    return hasattr(os, "fork") and sys.platform != "win32"
+    """Whether a long call can run detached here: a POSIX system, and not already in a detached child."""
+    return hasattr(os, "fork") and sys.platform != "win32" and not _in_child[0]
 
 
 def _die_with_parent() -> None:
@@ -49,6 +50,7 @@ def _die_with_parent() -> None:
 
 
 def _child(connection, make: Callable, args: tuple, serve: bool, memory_bytes: int | None) -> None:
+    _in_child[0] = True
     signal.signal(signal.SIGINT, signal.SIG_IGN)
     signal.signal(signal.SIGTERM, signal.SIG_DFL)
     _die_with_parent()
@@ -111,6 +113,7 @@ class Detached:
     def __init__(self, make: Callable, args: tuple, what: str, should_stop: StopCheck = None) -> None:
         self.what = what
         self.should_stop = should_stop
+        self._finaliser = None
         self.attributes = self._start(make, args, serve=True)
 
     def _start(self, make: Callable, args: tuple, serve: bool) -> Any:
@@ -142,9 +145,9 @@ class Detached:
     def _receive(self) -> Any:
         connection, process = self._connection, self._process
         while not connection.poll(POLL_SECONDS):
+            budget.check(self.what)
             if self.should_stop is not None and self.should_stop():
                 raise SolveCancelled
-            budget.check(self.what)
             if not process.is_alive() and not connection.poll(0):
                 raise _ended(self.what, process.exitcode)
         try:
@@ -159,7 +162,8 @@ class Detached:
         return value
 
     def close(self) -> None:
-        self._finaliser()
+        if self._finaliser is not None:
+            self._finaliser()
 
 
 def _end(process, connection) -> None:
@@ -191,6 +195,7 @@ def run_detached(function: Callable, args: tuple, what: str, should_stop: StopCh
     runner = Detached.__new__(Detached)
     runner.what = what
     runner.should_stop = should_stop
+    runner._finaliser = None
     try:
         return runner._start(function, args, serve=False)
     finally:

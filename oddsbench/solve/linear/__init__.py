@@ -79,6 +79,9 @@ def factor_float(
     (``DetachedFactors``) that Ctrl-C, ``should_stop`` and the deadline can abandon.
     """
     cost = float_cost(system, order)
+    if order == "from-top" and cost.memory > budget.memory_left():
+        order = "fill-reducing"  # the band would not fit: let COLAMD look for less fill
+        cost = float_cost(system, order)
     budget.require(f"the float factorisation of {cost.size:,} states", memory=cost.memory)
     if cost.detach and can_detach():
         return DetachedFactors(system, order, should_stop)

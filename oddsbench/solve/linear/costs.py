@@ -11,6 +11,7 @@ multiply-and-subtract timed on them, times the entries a solve touches.
 
 from __future__ import annotations
 
+import math
 import time
 from collections.abc import Callable, Sequence
 from dataclasses import dataclass
@@ -26,6 +27,8 @@ POLL_ROWS = 64
 POLL_OPERATIONS = 4096
 SAMPLE_REPEATS = 3
 MIN_FORECAST_SECONDS = 0.5  # the pace of the first rows is not read before this
+FORECAST_ROWS = 8
+MAX_GROWTH_POWER = 4.0
 SOLVE_WORK_FACTOR = 0.5  # measured: a solve row costs about half a timed multiply-subtract per entry touched
 
 
@@ -39,13 +42,20 @@ def bits(value: Rational) -> int:
 
 class ExactClock:
     """Polled inside exact elimination and solves: the caller's cancel check, the budget's
-    deadline and memory guard, and the share of both that exact arithmetic may use."""
+    deadline and memory guard, and the share of both that exact arithmetic may use.
+
+    It also forecasts: rows of an elimination grow dearer as numbers and fill grow (a dense
+    system's row i costs about i^2), so the time to come is read from how the time so far grew
+    with the rows done (T(i) ~ i^m, m fitted between half-way and now, 1 <= m <= 4), and the work
+    stops as soon as the forecast exceeds what is left, not when the time has run out.
+    """
 
     def __init__(self, should_stop: Callable[[], bool] | None, size: int, doing: str) -> None:
         self.should_stop = should_stop
         self.size = size
         self.doing = doing
         self.began = time.monotonic()
+        self.history: list[tuple[int, float]] = []
 
     def poll(self, done: int) -> None:
         """Stop with ``SolveCancelled``, ``OverBudget`` or ``ExactTooLarge``; ``done`` of ``size`` rows are done."""
@@ -67,14 +77,26 @@ class ExactClock:
                 f"(raise it with {budget.MEMORY_OPTION})"
             )
         spent = time.monotonic() - self.began
-        if done >= POLL_ROWS and spent > MIN_FORECAST_SECONDS:
-            ahead = spent / done * (self.size - done)  # at the pace so far (rows of a walk only grow dearer)
-            if ahead > left:
-                raise ExactTooLarge(
-                    f"the exact {self.doing} would take about {seconds_text(spent + ahead)} ({where} after "
-                    f"{seconds_text(spent)}), more than exact arithmetic's share of the time budget "
-                    f"(raise it with {TIME_OPTION})"
-                )
+        total = self.forecast(done, spent)
+        if total - spent > left:
+            raise ExactTooLarge(
+                f"the exact {self.doing} would take about {seconds_text(total)} ({where} after "
+                f"{seconds_text(spent)}), more than exact arithmetic's share of the time budget "
+                f"(raise it with {TIME_OPTION})"
+            )
+
+    def forecast(self, done: int, spent: float) -> float:
+        """Seconds the whole work will take, from its pace so far (``spent`` while it is not readable)."""
+        if done > 0:
+            self.history.append((done, spent))
+        if done < FORECAST_ROWS or spent < MIN_FORECAST_SECONDS or done >= self.size:
+            return spent
+        half = next(((d, t) for d, t in self.history if 2 * d >= done), None)
+        power = 1.0
+        if half is not None and 0 < half[0] < done and 0 < half[1] < spent:
+            power = math.log(spent / half[1]) / math.log(done / half[0])
+        power = min(max(power, 1.0), MAX_GROWTH_POWER)
+        return spent * (self.size / done) ** power
 
 
 def _largest(values: Sequence[Rational]) -> int:
