@@ -22,6 +22,7 @@ from dataclasses import dataclass
 from oddsbench.model import budget as budgets
 from oddsbench.model.budget import Budget, OverBudget
 from oddsbench.solve.cancel import SolveCancelled as Cancelled
+from oddsbench.solve.cancel import cancellable
 
 __all__ = ["Budget", "Cancelled", "NO_WORK", "OverBudget", "Work", "budgeted"]
 
@@ -63,7 +64,7 @@ class Work:
         chosen = self.budget
         if chosen is None and budgets.current() is None:
             chosen = Budget()
-        with budgets.scope(chosen):
+        with budgets.scope(chosen), cancellable(self.should_stop):
             yield
 
 

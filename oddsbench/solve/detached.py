@@ -20,6 +20,7 @@ import functools
 import os
 import signal
 import sys
+import time
 import weakref
 from collections.abc import Callable
 from typing import Any
@@ -27,7 +28,7 @@ from typing import Any
 from oddsbench.model import budget
 from oddsbench.model.budget import Budget
 from oddsbench.model.errors import OddsbenchError
-from oddsbench.solve.cancel import SolveCancelled, StopCheck
+from oddsbench.solve.cancel import SolveCancelled, StopCheck, current_stop
 
 POLL_SECONDS = 0.05
 _READY, _OK, _ERROR, _MEMORY = "ready", "ok", "error", "memory"
@@ -39,7 +40,8 @@ def can_detach() -> bool:
     return hasattr(os, "fork") and sys.platform != "win32" and not _in_child[0]
 
 
-def _die_with_parent() -> None:
+def die_with_parent() -> None:
+    """Ask the system to kill this process when its parent ends (Linux; elsewhere nothing)."""
     try:
         import ctypes
 
@@ -53,7 +55,7 @@ def _child(connection, make: Callable, args: tuple, serve: bool, memory_bytes: i
     _in_child[0] = True
     signal.signal(signal.SIGINT, signal.SIG_IGN)
     signal.signal(signal.SIGTERM, signal.SIG_DFL)
-    _die_with_parent()
+    die_with_parent()
     quiet = os.open(os.devnull, os.O_WRONLY)
     os.dup2(quiet, 1)
     os.dup2(quiet, 2)
@@ -113,6 +115,7 @@ class Detached:
     def __init__(self, make: Callable, args: tuple, what: str, should_stop: StopCheck = None) -> None:
         self.what = what
         self.should_stop = should_stop
+        self.seconds: float | None = None
         self._finaliser = None
         self.attributes = self._start(make, args, serve=True)
 
@@ -144,9 +147,13 @@ class Detached:
 
     def _receive(self) -> Any:
         connection, process = self._connection, self._process
+        began = time.monotonic()
         while not connection.poll(POLL_SECONDS):
             budget.check(self.what)
-            if self.should_stop is not None and self.should_stop():
+            if self.seconds is not None and time.monotonic() - began > self.seconds:
+                raise OddsbenchError(f"{self.what}: no answer within {self.seconds:g} s")
+            asked = self.should_stop or current_stop()
+            if asked is not None and asked():
                 raise SolveCancelled
             if not process.is_alive() and not connection.poll(0):
                 raise _ended(self.what, process.exitcode)
@@ -188,13 +195,17 @@ def _ended(what: str, exitcode: int | None) -> OddsbenchError:
     return OddsbenchError(f"{what} ended without an answer (exit status {exitcode})")
 
 
-def run_detached(function: Callable, args: tuple, what: str, should_stop: StopCheck = None) -> Any:
-    """``function(*args)`` in a child process the caller can abandon (in place where there is no fork)."""
+def run_detached(
+    function: Callable, args: tuple, what: str, should_stop: StopCheck = None, seconds: float | None = None
+) -> Any:
+    """``function(*args)`` in a child process the caller can abandon (in place where there is no fork);
+    ``seconds`` bounds the wait (one line when it runs out) besides the work budget's deadline."""
     if not can_detach():
         return function(*args)
     runner = Detached.__new__(Detached)
     runner.what = what
     runner.should_stop = should_stop
+    runner.seconds = seconds
     runner._finaliser = None
     try:
         return runner._start(function, args, serve=False)

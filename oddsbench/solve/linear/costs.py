@@ -20,7 +20,7 @@ from oddsbench.model import budget
 from oddsbench.model.budget import TIME_OPTION, seconds_text
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.numbers import QQ, Rational
-from oddsbench.solve.cancel import SolveCancelled
+from oddsbench.solve.cancel import SolveCancelled, current_stop
 
 EXACT_MEMORY_SHARE = 0.6  # of the memory budget: exact factors past it give way to decimals
 POLL_ROWS = 64
@@ -59,7 +59,8 @@ class ExactClock:
 
     def poll(self, done: int) -> None:
         """Stop with ``SolveCancelled``, ``OverBudget`` or ``ExactTooLarge``; ``done`` of ``size`` rows are done."""
-        if self.should_stop is not None and self.should_stop():
+        asked = self.should_stop or current_stop()
+        if asked is not None and asked():
             raise SolveCancelled
         budget.check()
         current = budget.current()
