@@ -8,6 +8,8 @@ import pytest
 
 ROOT = Path(__file__).resolve().parent.parent
 RULESETS = ROOT / "rulesets"
+# Every named betting plan once, with amounts that fit small bankrolls (session unit and property tests).
+NAMED_PLANS = ("timid", "bold", "flat:2", "fraction:1/3", "kelly", "kelly:1/2", "martingale:1:3", "paroli:1:2")
 
 
 @pytest.fixture(autouse=True)

@@ -5,7 +5,9 @@ from __future__ import annotations
 import argparse
 import os
 import sys
-from collections.abc import Sequence
+from collections.abc import Iterator, Sequence
+from contextlib import contextmanager
+from typing import NoReturn, TextIO
 
 from oddsbench import __version__
 from oddsbench.cli import (
@@ -19,7 +21,8 @@ from oddsbench.cli import (
     sweep_command,
 )
 from oddsbench.cli.options import add_budget, budget_of
-from oddsbench.model.errors import OddsbenchError, RulesetError
+from oddsbench.model.errors import OddsbenchError, RulesetError, one_line
+from oddsbench.model.visible import visible
 
 COMMANDS = (
     check_command,
@@ -39,8 +42,62 @@ EXIT_TERMINATED = 143
 WITHOUT_BUDGET = ("open",)  # the workbench bounds each analysis itself, not the session
 
 
+class OneLineParser(argparse.ArgumentParser):
+    """argparse with a bad option as one line (and exit 2), not the whole usage block."""
+
+    def error(self, message: str) -> NoReturn:
+        self.exit(EXIT_BAD_INPUT, f"{self.prog}: {message} (see {self.prog} --help)\n")
+
+
+# Options whose value may start with a minus sign (a losing net result, a negative amount):
+# argparse would take ``--round -1:1/2,...`` for two options, so such a value is joined to its
+# option as ``--round=-1:1/2,...`` before parsing.
+SIGNED_VALUE_OPTIONS = frozenset(
+    {"--round", "--floor", "--bankroll", "--goal", "--min-bet", "--max-bet", "--unit", "--plan"}
+)
+
+
+def joined_signed_values(argv: Sequence[str]) -> list[str]:
+    """``--round -1:1/2`` as ``--round=-1:1/2`` (only for a value that starts with a minus and a digit)."""
+    joined: list[str] = []
+    pending = False
+    for arg in argv:
+        if pending and len(arg) > 1 and arg[0] == "-" and (arg[1].isdigit() or arg[1] in "./("):
+            joined[-1] = f"{joined[-1]}={arg}"
+        else:
+            joined.append(arg)
+        pending = arg in SIGNED_VALUE_OPTIONS
+    return joined
+
+
+class VisibleStream:
+    """A text stream whose text is written through ``visible``: nothing a file holds (a title, a
+    name, a path) can drive the terminal. ``raw`` is the stream underneath (for our own progress bar)."""
+
+    def __init__(self, raw: TextIO) -> None:
+        self.raw = raw
+
+    def write(self, text: str) -> int:
+        self.raw.write(visible(text, multiline=True))
+        return len(text)
+
+    def __getattr__(self, name: str):
+        return getattr(self.raw, name)
+
+
+@contextmanager
+def visible_output() -> Iterator[None]:
+    """stdout and stderr made visible while one command runs (the workbench draws its own screen)."""
+    streams = sys.stdout, sys.stderr
+    sys.stdout, sys.stderr = VisibleStream(sys.stdout), VisibleStream(sys.stderr)
+    try:
+        yield
+    finally:
+        sys.stdout, sys.stderr = streams
+
+
 def build_parser() -> argparse.ArgumentParser:
-    parser = argparse.ArgumentParser(
+    parser = OneLineParser(
         prog="oddsbench",
         description="Exact and decimal mathematics of games of chance: house edge, risk of ruin, "
         "durations, strategies. Run without a command to open the workbench.",
@@ -63,14 +120,20 @@ class Terminated(BaseException):
 def main(argv: Sequence[str] | None = None, hard_limits: bool = False) -> int:
     """Run one command; ``hard_limits`` (the real process, not a test calling in) also caps this
     process's memory at the budget, so an allocation past it fails instead of swapping."""
-    from oddsbench.model import budget as budgets
-    from oddsbench.model.families import state_limit
-
     for stream in (sys.stdout, sys.stderr):
         if hasattr(stream, "reconfigure"):
             stream.reconfigure(errors="backslashreplace")  # odd names never crash the output
     parser = build_parser()
-    args = parser.parse_args(argv)
+    with visible_output():  # the workbench draws on the terminal itself (sys.__stderr__), not through these
+        args = parser.parse_args(joined_signed_values(sys.argv[1:] if argv is None else argv))
+        return _run(args, hard_limits)
+
+
+def _run(args: argparse.Namespace, hard_limits: bool = False) -> int:
+    """One command under its work budget, with every expected failure turned into its exit code and one line."""
+    from oddsbench.model import budget as budgets
+    from oddsbench.model.families import state_limit
+
     budget = budget_of(args)
     if hard_limits and budget is not None:
         budgets.limit_process_memory(budget.memory_mb)
@@ -84,7 +147,7 @@ def main(argv: Sequence[str] | None = None, hard_limits: bool = False) -> int:
             print(problem, file=sys.stderr)
         return EXIT_BAD_INPUT
     except OddsbenchError as error:
-        print(f"oddsbench: {error}", file=sys.stderr)
+        print(one_line(f"oddsbench: {error}"), file=sys.stderr)
         return EXIT_BAD_INPUT
     except KeyboardInterrupt:
         print("oddsbench: interrupted", file=sys.stderr)
@@ -98,8 +161,7 @@ def main(argv: Sequence[str] | None = None, hard_limits: bool = False) -> int:
         os.dup2(devnull, sys.stdout.fileno())
         return EXIT_BROKEN_PIPE
     except MemoryError:
-        shown = budget or budgets.Budget()
-        print(f"oddsbench: {budgets.over_memory('out of memory', shown)}", file=sys.stderr)
+        print(f"oddsbench: {budgets.over_memory('out of memory', budget or budgets.Budget())}", file=sys.stderr)
         return EXIT_BAD_INPUT
     except Exception as error:  # the last line of defence: one line, never a traceback
         if os.environ.get("ODDSBENCH_DEBUG"):

@@ -185,7 +185,7 @@ class RulesetDocument:
             table["result"] = "win"
         else:
             table["outcomes"] = _multiline_array()
-        states.append(name, table)
+        self._parts("states")[-1].append(name, table)
 
     def rename_state(self, old: str, new: str) -> int:
         """Rename a state and every reference to it (start, targets, strategies); returns the count."""
@@ -197,7 +197,7 @@ class RulesetDocument:
             return 0
         if new in states:
             raise DocumentError(f"a state named {new!r} already exists")
-        _rename_key(states, old, new)
+        _rename_key(next(part for part in self._parts("states") if old in part), old, new)
         changed = 1
         head = self._table("ruleset")
         if head is not None and head.get("start") == old:
@@ -206,9 +206,10 @@ class RulesetDocument:
         for state_name in self.state_names():
             for where in self.outcome_lists(state_name):
                 for item in self._list(where, create=False) or []:
-                    if isinstance(item, dict) and item.get("to") == old:
-                        item["to"] = new
-                        changed += 1
+                    changed += _retarget(item, old, new)
+        for family in (self._table("families") or {}).values():
+            for item in _family_outcomes(family):  # a family's targets are templates: braces doubled
+                changed += _retarget(item, _template(old), _template(new))
         strategies = self._table("strategies")
         for body in (strategies or {}).values():
             if isinstance(body, dict) and old in body:
@@ -283,6 +284,17 @@ class RulesetDocument:
         self._doc.append(key, table)
         return self._doc[key]
 
+    def _parts(self, key: str) -> list[Any]:
+        """The tables that hold a top-level table's keys, in file order.
+
+        A table written in pieces (``[states.a]``, then ``[families.x]``, then ``[states.b]``, as
+        the dealer rulesets do) reads as one out-of-order proxy, which can neither append nor
+        rename: those edits go to the piece that holds the key, and a new key to the last piece.
+        """
+        pieces = [item for name, item in self._doc.body if name is not None and name.key == key]
+        tables = [item for item in pieces if isinstance(item, Table)]
+        return tables or [self._doc[key]]
+
     def _state(self, name: str) -> Any:
         states = self._table("states")
         if states is None or name not in states or not isinstance(states[name], dict):
@@ -347,6 +359,37 @@ def _inline(fields: dict[str, Any]) -> InlineTable:
     body = ", ".join(f"{tomlkit.key(key).as_string()} = {tomlkit.item(fields[key]).as_string()}" for key in ordered)
     parsed = tomlkit.parse(f"x = {{ {body} }}" if body else "x = {}")
     return parsed["x"]
+
+
+def _template(name: str) -> str:
+    """A state name as a family template writes it (``{`` and ``}`` doubled)."""
+    return name.replace("{", "{{").replace("}", "}}")
+
+
+def _family_outcomes(family: Any) -> list[Any]:
+    """Every outcome table of one family, under ``outcomes`` and under each choice."""
+    if not isinstance(family, dict):
+        return []
+    lists = [family.get("outcomes")]
+    if isinstance(family.get("choices"), dict):
+        lists += list(family["choices"].values())
+    return [item for listed in lists if isinstance(listed, list) for item in listed]
+
+
+def _retarget(item: Any, old: str, new: str) -> int:
+    """Point an outcome's ``to`` (a name, or each case of a list) from ``old`` to ``new``; the count."""
+    if not isinstance(item, dict):
+        return 0
+    target = item.get("to")
+    if target == old:
+        item["to"] = new
+        return 1
+    changed = 0
+    for case in target if isinstance(target, list) else []:
+        if isinstance(case, dict) and case.get("to") == old:
+            case["to"] = new
+            changed += 1
+    return changed
 
 
 def _multiline_array() -> Array:

@@ -2,43 +2,26 @@
 
 Reading never raises for a bad file: each problem becomes a ``Problem`` line naming the file,
 the state and the field, and the caller decides (the CLI exits 2, the TUI shows it inline).
+This module reads the bytes and the TOML; ``document_checks`` checks the raw document,
+``ruleset_reader`` builds the ruleset, ``validate`` checks the result.
 """
 
 from __future__ import annotations
 
 import tomllib
-from collections.abc import Callable, Mapping
-from dataclasses import dataclass
+from collections.abc import Mapping
+from dataclasses import dataclass, replace
 from pathlib import Path
-from typing import Any
 
-from oddsbench.model.errors import Problem, RulesetError, shown_name, type_name
-from oddsbench.model.expr import ExpressionError, evaluate, names_in, parse
-from oddsbench.model.families import (
-    FamilyMember,
-    expand_families,
-    expand_plain_state,
-    rule_actions,
-    uses_family_outcomes,
-)
-from oddsbench.model.numbers import QQ, Rational, text
-from oddsbench.model.ruleset import Outcome, Ruleset, State, Strategy
+from oddsbench.model.document_checks import document_problems
+from oddsbench.model.errors import Problem, RulesetError
+from oddsbench.model.families import FamilyMember
+from oddsbench.model.file_read import FileRefused, read_text_capped
+from oddsbench.model.numbers import Rational, text
+from oddsbench.model.ruleset import Ruleset
+from oddsbench.model.ruleset_reader import RulesetReader
 
 MAX_FILE_BYTES = 2_000_000
-MAX_NAME_LENGTH = 200
-MAX_NESTING = 32
-FORMAT_VERSION = 1
-
-RULESET_KEYS = frozenset({"title", "about", "start", "stake", "version"})
-STATE_KEYS = frozenset({"outcomes", "choices", "result", "about"})
-OUTCOME_KEYS = frozenset({"to", "prob", "pay", "stake", "note"})
-TOP_KEYS = frozenset({"ruleset", "params", "states", "strategies", "session", "families"})
-
-# Hooks through which later layers of the file format (families of states) extend reading
-# without this module knowing them: each takes the raw document, the source name and the
-# problem list, and returns extra raw state tables to read as if written out by hand.
-StateExpander = Callable[[dict[str, Any], str, list[Problem], dict[str, Rational]], dict[str, Any]]
-STATE_EXPANDERS: list[StateExpander] = []
 
 
 @dataclass(frozen=True)
@@ -47,6 +30,7 @@ class LoadResult:
 
     ruleset: Ruleset | None
     problems: tuple[Problem, ...]
+    text: str | None = None  # the file's text as read (once: what was checked is what is kept)
 
     @property
     def errors(self) -> tuple[Problem, ...]:
@@ -67,23 +51,11 @@ def read_ruleset_file(path: str | Path, params: ParamOverrides | None = None) ->
     evaluated, so later parameters and every outcome that depend on them follow.
     """
     path = Path(path)
-    source = path.name
     try:
-        if path.is_dir():
-            return _failed(source, "is a folder, not a ruleset file")
-        size = path.stat().st_size
-        if size > MAX_FILE_BYTES:
-            return _failed(source, f"file is {size:,} bytes, over the limit of {MAX_FILE_BYTES:,}")
-        raw = path.read_bytes()
-    except FileNotFoundError:
-        return _failed(source, "no such file")
-    except OSError as error:
-        return _failed(source, f"cannot be read: {error.strerror or error}")
-    try:
-        content = raw.decode("utf-8")
-    except UnicodeDecodeError as error:
-        return _failed(source, f"is not UTF-8 text (bad byte at position {error.start})")
-    return read_ruleset_text(content, source, params)
+        content = read_text_capped(path, MAX_FILE_BYTES, "is a folder, not a ruleset file")
+    except FileRefused as refused:
+        return _failed(path.name, str(refused))
+    return replace(read_ruleset_text(content, path.name, params), text=content)
 
 
 def read_ruleset_text(content: str, source: str = "<text>", params: ParamOverrides | None = None) -> LoadResult:
@@ -103,28 +75,63 @@ def read_ruleset_text(content: str, source: str = "<text>", params: ParamOverrid
     problems = document_problems(document, source)
     if problems:
         return LoadResult(None, tuple(problems))
-    reader = _Reader(source, problems, params)
+    reader = RulesetReader(source, problems, params)
     ruleset = reader.read(document)
     if ruleset is not None:
         from oddsbench.model.validate import validate
 
-        problems.extend(family_origin(problem, reader.members) for problem in validate(ruleset))
+        problems.extend(validate(ruleset))
+    problems = one_per_cause(problems, reader.members)
     has_error = any(problem.is_error for problem in problems)
     return LoadResult(None if has_error else ruleset, tuple(problems))
 
 
+def _member_state(problem: Problem, members: dict[str, FamilyMember]) -> str | None:
+    """The family-made state a problem is placed in, or None."""
+    if not members or not problem.where.startswith("state '"):
+        return None
+    name = problem.where[len("state '") :].split("'", 1)[0]
+    return name if name in members else None
+
+
 def family_origin(problem: Problem, members: dict[str, FamilyMember]) -> Problem:
     """A problem in a state made by a family, with the family and index values added to its place."""
-    if not members or not problem.where.startswith("state '"):
+    name = _member_state(problem, members)
+    if name is None:
         return problem
-    name = problem.where[len("state '") :].split("'", 1)[0]
-    member = members.get(name)
-    if member is None:
-        return problem
+    member = members[name]
     index = ", ".join(f"{variable}={text(value)}" for variable, value in member.index)
     place = f"state {name!r}"
     where = problem.where.replace(place, f"{place} (family {member.family!r} at {index})", 1)
     return Problem(problem.source, where, problem.message, problem.severity)
+
+
+def one_per_cause(problems: list[Problem], members: dict[str, FamilyMember]) -> list[Problem]:
+    """Each problem with its family origin, a problem repeated in many members of one family (the same
+    field, the same message, the member's own name aside) as one line: the first, with the count of the rest.
+    """
+    kept: list[Problem] = []
+    first: dict[tuple[str, ...], int] = {}
+    repeats: dict[int, int] = {}
+    for problem in problems:
+        name = _member_state(problem, members)
+        if name is None:
+            kept.append(problem)
+            continue
+        rest = problem.where[len(f"state {name!r}") :]
+        cause = (problem.severity, members[name].family, rest.replace(name, "\0"), problem.message.replace(name, "\0"))
+        if cause in first:
+            repeats[first[cause]] = repeats.get(first[cause], 1) + 1
+            continue
+        first[cause] = len(kept)
+        kept.append(family_origin(problem, members))
+    for at, count in repeats.items():
+        problem = kept[at]
+        family = members[_member_state(problem, members) or ""].family
+        more = count - 1
+        message = f"{problem.message} (the same in {more:,} more state{'' if more == 1 else 's'} of family {family!r})"
+        kept[at] = Problem(problem.source, problem.where, message, problem.severity)
+    return kept
 
 
 def load_ruleset(path: str | Path, params: ParamOverrides | None = None) -> Ruleset:
@@ -145,377 +152,3 @@ def _unwrap(result: LoadResult) -> Ruleset:
 
 def _failed(source: str, message: str) -> LoadResult:
     return LoadResult(None, (Problem(source, "", message),))
-
-
-def describe_value(value: Any) -> str:
-    """A short echo of a field's value for messages: strings quoted (unprintable characters
-    escaped, so a file cannot send terminal control codes through a message), long ones cut."""
-    if isinstance(value, str):
-        shown = '"' + "".join(c if c.isprintable() else repr(c)[1:-1] for c in value[:80]) + '"'
-    else:
-        shown = repr(value)
-    return shown if len(shown) <= 60 else shown[:57] + '..."'
-
-
-def _bad_character(value: str, multiline: bool) -> str | None:
-    """The first character a shared file must not carry: control codes (which can drive a
-    terminal) and the direction overrides that make text display in a different order."""
-    for character in value:
-        code = ord(character)
-        if character in "\t\n\r" and multiline:
-            continue
-        if code < 32 or 127 <= code < 160 or 0x202A <= code <= 0x202E or 0x2066 <= code <= 0x2069:
-            return f"U+{code:04X}"
-    return None
-
-
-def document_problems(document: dict[str, Any], source: str) -> list[Problem]:
-    """One walk over the raw document (no recursion): nesting depth and forbidden characters
-    in every key and text value, each named by its dotted path."""
-    problems: list[Problem] = []
-    pending: list[tuple[str, Any, int]] = [("", document, 0)]
-    while pending:
-        path, value, depth = pending.pop()
-        if depth > MAX_NESTING:
-            problems.append(Problem(source, path[:120], f"nested more than {MAX_NESTING} levels deep"))
-            continue
-        if isinstance(value, dict):
-            for key, item in value.items():
-                step = f"{path}.{_path_key(key)}" if path else _path_key(key)
-                bad = _bad_character(key, multiline=False)
-                if bad:
-                    problems.append(Problem(source, step, f"the name contains the control character {bad}"))
-                    continue
-                pending.append((step, item, depth + 1))
-        elif isinstance(value, list):
-            pending.extend((f"{path}[{index}]", item, depth + 1) for index, item in enumerate(value, start=1))
-        elif isinstance(value, str):
-            bad = _bad_character(value, multiline=True)
-            if bad:
-                problems.append(Problem(source, path, f"contains the control character {bad}"))
-    return sorted(problems, key=lambda problem: problem.where)
-
-
-def _path_key(key: str) -> str:
-    plain = key.replace("-", "").replace("_", "").isalnum() and key.isascii()
-    return key if plain else shown_name(key)
-
-
-class _Reader:
-    """One pass over the TOML document; records problems instead of raising."""
-
-    def __init__(self, source: str, problems: list[Problem], overrides: ParamOverrides | None = None) -> None:
-        self.source = source
-        self.problems = problems
-        self.params: dict[str, Rational] = {}
-        self.failed_params: set[str] = set()
-        self.members: dict[str, FamilyMember] = {}
-        self.overrides = dict(overrides or {})
-
-    def error(self, where: str, message: str) -> None:
-        self.problems.append(Problem(self.source, where, message))
-
-    def warn(self, where: str, message: str) -> None:
-        self.problems.append(Problem(self.source, where, message, "warning"))
-
-    def unknown_keys(self, table: dict[str, Any], known: frozenset[str], where: str) -> None:
-        for key in table:
-            if key not in known:
-                self.warn(where, f"unknown field {shown_name(key)} is ignored")
-
-    def value(self, raw: Any, where: str, env: dict[str, Rational] | None = None) -> Rational | None:
-        """An exact value from a TOML integer or an expression string; None after an error."""
-        if isinstance(raw, bool):
-            self.error(where, "must be a number or an expression in quotes, not true/false")
-            return None
-        if isinstance(raw, int):
-            return QQ(raw)
-        if isinstance(raw, float):
-            if raw != raw or raw in (float("inf"), float("-inf")):
-                self.error(where, f"must be a finite number, not {raw}")
-            else:
-                self.error(where, f'write decimals in quotes ("{raw}") so they stay exact')
-            return None
-        if not isinstance(raw, str):
-            self.error(where, f"must be a number or an expression in quotes, not {type_name(raw)}")
-            return None
-        try:
-            tree = parse(raw)
-            broken = sorted(names_in(tree) & self.failed_params)
-            if broken:
-                self.error(where, f"uses parameter {shown_name(broken[0])}, which has an error")
-                return None
-            return evaluate(tree, self.params if env is None else env)
-        except ExpressionError as error:
-            self.error(where, str(error))
-            return None
-        except RecursionError:
-            self.error(where, "expression nested too deeply")
-            return None
-
-    def text_field(self, table: dict[str, Any], key: str, where: str, required: bool) -> str | None:
-        if key not in table:
-            if required:
-                self.error(where, f"missing required field {key!r}")
-            return None
-        raw = table[key]
-        if not isinstance(raw, str):
-            self.error(f"{where}, {key}", f"must be text, not {type_name(raw)}")
-            return None
-        return raw
-
-    def read(self, document: dict[str, Any]) -> Ruleset | None:
-        self.unknown_keys(document, TOP_KEYS, "")
-        head = document.get("ruleset")
-        if not isinstance(head, dict):
-            self.error("", "missing [ruleset] table" if head is None else "[ruleset] must be a table")
-            head = {}
-        self.unknown_keys(head, RULESET_KEYS, "[ruleset]")
-        version = head.get("version", FORMAT_VERSION)
-        if isinstance(version, bool) or version != FORMAT_VERSION:
-            self.error(
-                "[ruleset], version",
-                f"format version {describe_value(version)} is not supported (this oddsbench reads version "
-                f"{FORMAT_VERSION})",
-            )
-        title = self.text_field(head, "title", "[ruleset]", required=True)
-        about = self.text_field(head, "about", "[ruleset]", required=False) or ""
-        start = self.text_field(head, "start", "[ruleset]", required=True)
-        if start is not None and not start.strip():
-            self.error("[ruleset], start", "must name a state, not be blank")
-        stake = self.value(head.get("stake", 1), "[ruleset], stake")
-        if stake is not None and stake < 0:
-            self.error("[ruleset], stake", f"cannot be negative, got {text(stake)}")
-        self.read_params(document.get("params", {}))
-        states = self.read_states(document)
-        strategies = self.read_strategies(document.get("strategies", {}))
-        session = document.get("session", {})
-        if not isinstance(session, dict):
-            self.error("[session]", f"must be a table, not {type_name(session)}")
-            session = {}
-        if any(problem.is_error for problem in self.problems):
-            return None
-        return Ruleset(
-            title=title or "",
-            about=about,
-            start=start or "",
-            stake=stake,
-            states=tuple(states),
-            source=self.source,
-            params=tuple(self.params.items()),
-            strategies=tuple(strategies),
-            session=session,
-        )
-
-    def read_params(self, raw: Any) -> None:
-        if not isinstance(raw, dict):
-            self.error("[params]", f"must be a table, not {type_name(raw)}")
-            return
-        for name, value in raw.items():
-            where = f"param {shown_name(name)}"
-            if len(name) > MAX_NAME_LENGTH:
-                self.error(where, f"name longer than {MAX_NAME_LENGTH} characters")
-                continue
-            try:
-                parse(name)
-                if set(names_in(parse(name))) != {name}:
-                    raise ExpressionError("not a plain name")
-            except ExpressionError:
-                rule = "letters, digits and _ (not starting with a digit or '__')"
-                self.error(where, f"a parameter name must be {rule}")
-                continue
-            if name in self.overrides:
-                self.params[name] = self.overrides[name]
-                continue
-            result = self.value(value, where)
-            if result is None:
-                self.failed_params.add(name)
-            else:
-                self.params[name] = result
-        for name in self.overrides:
-            if name not in raw:
-                known = ", ".join(repr(key) for key in raw) or "none"
-                self.error(
-                    f"param {name!r}", f"cannot be set: the file has no such parameter (its parameters: {known})"
-                )
-
-    def read_states(self, document: dict[str, Any]) -> list[State]:
-        raw_states = document.get("states")
-        if raw_states is None:
-            raw_states = {}
-        if not isinstance(raw_states, dict):
-            self.error("[states]", f"must be a table, not {type_name(raw_states)}")
-            return []
-        tables: dict[str, Any] = {}
-        for name, table in raw_states.items():
-            if uses_family_outcomes(table):
-                table = expand_plain_state(name, table, self.source, self.problems, self.params)
-                if table is None:
-                    continue
-            tables[name] = table
-        expansion = expand_families(document, self.source, self.problems, self.params)
-        self.members = expansion.members
-        for name, table in expansion.tables.items():
-            if name in tables:
-                self.error(
-                    f"state {name!r}", f"defined twice (by hand and by family {expansion.members[name].family!r})"
-                )
-                continue
-            tables[name] = table
-        for expand in STATE_EXPANDERS:
-            for name, table in expand(document, self.source, self.problems, self.params).items():
-                if name in tables:
-                    self.error(f"state {shown_name(name)}", "defined twice (by hand and by a family)")
-                    continue
-                tables[name] = table
-        if not tables:
-            self.error("[states]", "no states: a ruleset needs at least one state")
-        return [state for name, table in tables.items() if (state := self.read_state(name, table))]
-
-    def read_state(self, name: str, table: Any) -> State | None:
-        where = f"state {shown_name(name)}"
-        if not name.strip():
-            self.error(where, "a state name must not be blank")
-            return None
-        if len(name) > MAX_NAME_LENGTH:
-            self.error(where, f"name longer than {MAX_NAME_LENGTH} characters")
-            return None
-        if not isinstance(table, dict):
-            self.error(where, f"must be a table, not {type_name(table)}")
-            return None
-        self.unknown_keys(table, STATE_KEYS, where)
-        result = self.text_field(table, "result", where, required=False)
-        if result is not None and len(result) > MAX_NAME_LENGTH:
-            self.error(f"{where}, result", f"longer than {MAX_NAME_LENGTH} characters")
-            return None
-        outcomes: tuple[Outcome, ...] = ()
-        choices: list[tuple[str, tuple[Outcome, ...]]] = []
-        if "outcomes" in table and "choices" in table:
-            self.error(where, "has both 'outcomes' and 'choices': a state has one or the other")
-            return None
-        if "outcomes" in table:
-            outcomes = self.read_outcomes(table["outcomes"], where, "outcomes")
-            if not outcomes and isinstance(table["outcomes"], list) and not table["outcomes"]:
-                self.warn(where, "'outcomes' is empty, so this state ends the round")
-        if "choices" in table:
-            raw_choices = table["choices"]
-            if not isinstance(raw_choices, dict) or not raw_choices:
-                self.error(f"{where}, choices", "must be a table of action = [outcomes]")
-                return None
-            for action, raw in raw_choices.items():
-                if len(action) > MAX_NAME_LENGTH:
-                    too_long = f"name longer than {MAX_NAME_LENGTH} characters"
-                    self.error(f"{where}, choice {shown_name(action)}", too_long)
-                    return None
-                listed = self.read_outcomes(raw, f"{where}, choice {shown_name(action)}", "outcomes")
-                if listed:
-                    choices.append((action, listed))
-        return State(name=name, outcomes=outcomes, choices=tuple(choices), result=result)
-
-    def read_outcomes(self, raw: Any, where: str, field_name: str) -> tuple[Outcome, ...]:
-        if not isinstance(raw, list):
-            self.error(f"{where}, {field_name}", f"must be a list of outcome tables, not {type_name(raw)}")
-            return ()
-        read: list[tuple[dict[str, Any], Rational | None, str]] = []
-        failed = False
-        for index, item in enumerate(raw, start=1):
-            place = f"{where}, outcome {index}"
-            if not isinstance(item, dict):
-                self.error(place, f'must be a table like {{ to = "...", prob = "..." }}, not {type_name(item)}')
-                failed = True
-                continue
-            self.unknown_keys(item, OUTCOME_KEYS, place)
-            if "to" not in item:
-                self.error(place, "missing required field 'to'")
-                failed = True
-            elif not isinstance(item["to"], str):
-                self.error(f"{place}, to", f"must be a state name in quotes, not {type_name(item['to'])}")
-                failed = True
-            elif len(item["to"]) > MAX_NAME_LENGTH:
-                self.error(f"{place}, to", f"state name longer than {MAX_NAME_LENGTH} characters")
-                failed = True
-            prob = None
-            if "prob" in item:
-                prob = self.value(item["prob"], f"{place}, prob {describe_value(item['prob'])}")
-                if prob is None:
-                    failed = True
-                elif prob < 0 or prob > 1:
-                    self.error(
-                        f"{place}, prob {describe_value(item['prob'])}", f"must be between 0 and 1, got {text(prob)}"
-                    )
-                    failed = True
-            read.append((item, prob, place))
-        explicit = sum((prob for item, prob, _ in read if prob is not None), QQ(0))
-        omitted = [place for item, prob, place in read if "prob" not in item]
-        share = QQ(0)
-        if omitted and not failed:
-            leftover = QQ(1) - explicit
-            if leftover < 0:
-                self.error(
-                    where,
-                    f"given probabilities already sum to {text(explicit)}, more than 1, "
-                    f"so nothing is left for the {len(omitted)} outcome(s) without 'prob'",
-                )
-                failed = True
-            else:
-                share = leftover / len(omitted)
-        outcomes: list[Outcome] = []
-        for item, prob, place in read:
-            pay = self.value(item.get("pay", 0), f"{place}, pay {describe_value(item.get('pay', 0))}")
-            stake = self.value(item.get("stake", 0), f"{place}, stake {describe_value(item.get('stake', 0))}")
-            if stake is not None and stake < 0:
-                self.error(f"{place}, stake", f"extra stake cannot be negative, got {text(stake)}")
-                failed = True
-            note = item.get("note", "")
-            if not isinstance(note, str):
-                self.error(f"{place}, note", f"must be text, not {type_name(note)}")
-                failed = True
-            if pay is None or stake is None or failed:
-                failed = True
-                continue
-            outcomes.append(
-                Outcome(
-                    to=item["to"],
-                    prob=prob if prob is not None else share,
-                    pay=pay,
-                    stake=stake,
-                    note=note,
-                    prob_given=prob is not None,
-                )
-            )
-        return () if failed else tuple(outcomes)
-
-    def read_strategies(self, raw: Any) -> list[Strategy]:
-        if not isinstance(raw, dict):
-            self.error("[strategies]", f"must be a table, not {type_name(raw)}")
-            return []
-        strategies = []
-        for name, table in raw.items():
-            where = f"strategy {shown_name(name)}"
-            if len(name) > MAX_NAME_LENGTH:
-                self.error(where, f"name longer than {MAX_NAME_LENGTH} characters")
-                continue
-            if not isinstance(table, dict):
-                self.error(where, f'must be a table of state = "action", not {type_name(table)}')
-                continue
-            actions = []
-            default = None
-            rules = table.get("rules")
-            for state_name, action in table.items():
-                if state_name == "rules":
-                    continue
-                if not isinstance(action, str):
-                    self.error(f"{where}, {shown_name(state_name)}", f"action must be text, not {type_name(action)}")
-                    continue
-                if len(action) > MAX_NAME_LENGTH or len(state_name) > MAX_NAME_LENGTH:
-                    self.error(f"{where}, {shown_name(state_name)}", f"name longer than {MAX_NAME_LENGTH} characters")
-                    continue
-                if state_name == "default":
-                    default = action
-                else:
-                    actions.append((state_name, action))
-            if rules is not None:
-                explicit = {state_name for state_name, _ in actions}
-                actions += rule_actions(rules, where, self.members, self.params, explicit, self.problems, self.source)
-            strategies.append(Strategy(name=name, actions=tuple(actions), default=default))
-        return strategies

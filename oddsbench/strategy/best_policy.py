@@ -19,18 +19,17 @@ from __future__ import annotations
 from collections.abc import Callable
 from dataclasses import dataclass
 
-import numpy as np
-
+from oddsbench.chain.decision_chain import build_decision_chain
 from oddsbench.chain.round_chain import build_round_chain
+from oddsbench.model.defaults import ROUND_EXACT_LIMIT
 from oddsbench.model.errors import OddsbenchError
-from oddsbench.model.numbers import QQ, Rational, text, to_float
+from oddsbench.model.figure import Figure
+from oddsbench.model.numbers import QQ, text, to_float
 from oddsbench.model.ruleset import Ruleset
-from oddsbench.model.validate import reachable_from, successor_graph
-from oddsbench.solve.linear import factor_exact, factor_float, identity_minus, identity_minus_float
-from oddsbench.solve.round import Figure, RoundFigures, solve_round
+from oddsbench.solve.round import RoundFigures, solve_round
+from oddsbench.strategy.decision_process import DecisionProcess
 from oddsbench.strategy.goals import Goal, goal_named
 
-DEFAULT_EXACT_LIMIT = 5_000
 MAX_ITERATIONS = 1_000
 DECIMAL_TOLERANCE = 1e-11  # relative: small chances (1e-20) still compare
 
@@ -103,149 +102,15 @@ class StrategyCheck:
     notes: tuple[str, ...]
 
 
-@dataclass(frozen=True)
-class _Step:
-    target: int  # transient index, or -1 for an end state
-    prob: Rational
-    reward: Rational
-    prob_float: float
-    reward_float: float
-
-
-class _Process:
-    """States reachable from the start under some play; transient ones indexed, start first."""
-
-    def __init__(self, ruleset: Ruleset, goal: Goal) -> None:
-        by_name = {state.name: state for state in ruleset.states}
-        reachable = reachable_from(ruleset.start, successor_graph(ruleset.states))
-        ordered = [name for name in ruleset.state_names if name in reachable and not by_name[name].is_end]
-        if ruleset.start in ordered:
-            ordered.remove(ruleset.start)
-            ordered.insert(0, ruleset.start)
-        self.names = ordered
-        self.index = {name: i for i, name in enumerate(ordered)}
-        self.decision = [by_name[name].is_decision for name in ordered]
-        self.actions: list[tuple[str | None, ...]] = []
-        self.steps: list[list[tuple[_Step, ...]]] = []
-        for name in ordered:
-            state = by_name[name]
-            options = state.choices if state.is_decision else ((None, state.outcomes),)
-            self.actions.append(tuple(action for action, _ in options))
-            self.steps.append([self._steps(outcomes, by_name, goal) for _, outcomes in options])
-
-    def _steps(self, outcomes, by_name, goal: Goal) -> tuple[_Step, ...]:
-        steps = []
-        for outcome in outcomes:
-            if outcome.prob == 0:
-                continue
-            target = by_name[outcome.to]
-            result = target.result if target.is_end else None
-            reward = goal.reward(outcome.pay, result)
-            target_index = self.index.get(outcome.to, -1)
-            steps.append(_Step(target_index, outcome.prob, reward, to_float(outcome.prob), to_float(reward)))
-        return tuple(steps)
-
-    def ends_surely(self, policy: list[int], members: list[int] | None = None) -> set[int]:
-        """Transient states from which the round surely ends under ``policy`` (reverse search)."""
-        members = list(range(len(self.names))) if members is None else members
-        backward: dict[int, list[int]] = {}
-        done: set[int] = set()
-        stack = []
-        for i in members:
-            for step in self.steps[i][policy[i]]:
-                if step.target < 0:
-                    if i not in done:
-                        done.add(i)
-                        stack.append(i)
-                else:
-                    backward.setdefault(step.target, []).append(i)
-        while stack:
-            for source in backward.get(stack.pop(), ()):
-                if source not in done:
-                    done.add(source)
-                    stack.append(source)
-        return done
-
-    def surely_ending_policy(self) -> list[int]:
-        """A first play under which every state surely ends: grow the set that can reach an end."""
-        count = len(self.names)
-        policy = [0] * count
-        settled = [False] * count
-        changed = True
-        while changed:
-            changed = False
-            for i in range(count):
-                if settled[i]:
-                    continue
-                for a, steps in enumerate(self.steps[i]):
-                    if any(step.target < 0 or settled[step.target] for step in steps):
-                        policy[i], settled[i], changed = a, True, True
-                        break
-        if not all(settled):
-            stuck = self.names[settled.index(False)]
-            raise OddsbenchError(f"state {stuck!r}: no play ends the round from here")
-        return policy
-
-    def evaluate_exact(self, policy: list[int], members: list[int], should_stop=None) -> dict[int, Rational]:
-        position = {state: k for k, state in enumerate(members)}
-        rows: list[dict[int, Rational]] = []
-        rhs: list[Rational] = []
-        for i in members:
-            row: dict[int, Rational] = {}
-            total = QQ(0)
-            for step in self.steps[i][policy[i]]:
-                total += step.prob * step.reward
-                if step.target >= 0:
-                    k = position[step.target]
-                    row[k] = row.get(k, QQ(0)) + step.prob
-            rows.append(row)
-            rhs.append(total)
-        values = factor_exact(identity_minus(rows), should_stop=should_stop).solve(rhs) if members else []
-        return {i: values[k] for k, i in enumerate(members)}
-
-    def evaluate_decimal(self, policy: list[int], members: list[int]) -> dict[int, float]:
-        from scipy.sparse import csc_matrix
-
-        position = {state: k for k, state in enumerate(members)}
-        data, rows, cols = [], [], []
-        rhs = np.zeros(len(members))
-        for k, i in enumerate(members):
-            for step in self.steps[i][policy[i]]:
-                rhs[k] += step.prob_float * step.reward_float
-                if step.target >= 0:
-                    rows.append(k)
-                    cols.append(position[step.target])
-                    data.append(step.prob_float)
-        q = csc_matrix((data, (rows, cols)), shape=(len(members), len(members)))
-        values = factor_float(identity_minus_float(q)).solve(rhs) if members else np.zeros(0)
-        return {i: float(values[k]) for k, i in enumerate(members)}
-
-    def q_value(self, i: int, a: int, values: dict, zero) -> object | None:
-        """E[reward + V(next)] of action ``a`` in state ``i``; None where a target has no value."""
-        total = zero
-        exact = not isinstance(zero, float)
-        for step in self.steps[i][a]:
-            after = zero
-            if step.target >= 0:
-                if step.target not in values:
-                    return None
-                after = values[step.target]
-            if exact:
-                total += step.prob * (step.reward + after)
-            else:
-                total += step.prob_float * (step.reward_float + after)
-        return total
-
-
 def best_policy(
     ruleset: Ruleset,
     goal: str = "max-return",
-    exact_limit: int = DEFAULT_EXACT_LIMIT,
+    exact_limit: int = ROUND_EXACT_LIMIT,
     should_stop: Callable[[], bool] | None = None,
 ) -> BestPolicy:
     """Policy iteration for ``goal`` from the ruleset's start, with its optimality certificate."""
     chosen_goal = goal_named(goal)
-    process = _Process(ruleset, chosen_goal)
+    process = DecisionProcess(build_decision_chain(ruleset), chosen_goal)
     notes: list[str] = []
     count = len(process.names)
     exact = count <= exact_limit
@@ -293,7 +158,7 @@ def best_policy(
             )
     policy = _break_ties(process, policy, values, zero, exact)
     certificate = _certify(process, policy, values, zero, exact, chosen_goal)
-    reached = _reached(process, policy)
+    reached = process.reached(policy)
     value = _figure(values[0], chosen_goal.sign, exact)
     chosen = {process.names[i]: process.actions[i][policy[i]] for i in range(count) if process.decision[i]}
     figures = solve_round(build_round_chain(ruleset, chosen), exact_limit=exact_limit, should_stop=should_stop)
@@ -317,7 +182,7 @@ def check_strategy(
     ruleset: Ruleset,
     strategy: str,
     goal: str = "max-return",
-    exact_limit: int = DEFAULT_EXACT_LIMIT,
+    exact_limit: int = ROUND_EXACT_LIMIT,
     should_stop: Callable[[], bool] | None = None,
 ) -> StrategyCheck:
     """Hold a named strategy against ``goal``: every single change of action that would improve it."""
@@ -327,7 +192,7 @@ def check_strategy(
     except KeyError:
         known = ", ".join(s.name for s in ruleset.strategies) or "none defined"
         raise OddsbenchError(f"{ruleset.source}: unknown strategy {strategy!r} (known: {known})") from None
-    process = _Process(ruleset, chosen_goal)
+    process = DecisionProcess(build_decision_chain(ruleset), chosen_goal)
     by_name = {state.name: state for state in ruleset.states}
     policy = []
     for i, name in enumerate(process.names):
@@ -361,7 +226,7 @@ def check_strategy(
     exact = len(region) <= exact_limit
     values = process.evaluate_exact(policy, region, should_stop) if exact else process.evaluate_decimal(policy, region)
     zero = QQ(0) if exact else 0.0
-    reached = _reached(process, policy)
+    reached = process.reached(policy)
     improvements = []
     for i in region:
         if not process.decision[i]:
@@ -408,7 +273,7 @@ def _better(q, than, exact: bool) -> bool:
     return q > than + DECIMAL_TOLERANCE * max(abs(q), abs(than))
 
 
-def _break_ties(process: _Process, policy: list[int], values: dict, zero, exact: bool) -> list[int]:
+def _break_ties(process: DecisionProcess, policy: list[int], values: dict, zero, exact: bool) -> list[int]:
     """Report the first-listed of exactly equal best actions, where the round still surely ends."""
     if not exact:
         return policy
@@ -428,7 +293,7 @@ def _break_ties(process: _Process, policy: list[int], values: dict, zero, exact:
     return policy
 
 
-def _certify(process: _Process, policy: list[int], values: dict, zero, exact: bool, goal: Goal) -> Certificate:
+def _certify(process: DecisionProcess, policy: list[int], values: dict, zero, exact: bool, goal: Goal) -> Certificate:
     holds = True
     pairs = 0
     decision_states = 0
@@ -482,18 +347,6 @@ def _certify(process: _Process, policy: list[int], values: dict, zero, exact: bo
         largest_gain=_figure(largest, 1, exact),
         statement=statement,
     )
-
-
-def _reached(process: _Process, policy: list[int]) -> set[int]:
-    seen = {0}
-    stack = [0]
-    while stack:
-        i = stack.pop()
-        for step in process.steps[i][policy[i]]:
-            if step.target >= 0 and step.target not in seen:
-                seen.add(step.target)
-                stack.append(step.target)
-    return seen
 
 
 def _figure(value, sign: int, exact: bool) -> Figure:

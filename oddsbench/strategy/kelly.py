@@ -14,8 +14,8 @@ import math
 from dataclasses import dataclass
 
 from oddsbench.chain.round_distribution import RoundDistribution
+from oddsbench.model.figure import Figure
 from oddsbench.model.numbers import QQ, Rational, to_float
-from oddsbench.solve.round import Figure
 
 
 @dataclass(frozen=True)

@@ -49,15 +49,9 @@ class NoGoalWalk:
     grid: Rational  # one grid step, money
     jumps: Law  # net result per round at the full bet, in steps -> chance
     bottom: tuple[tuple[Rational, Law], ...]  # cut bets (money) and their laws, lowest level first
-    bankroll_grid: int  # bankroll in steps
-    low: int  # lowest bankroll (steps) that still plays
-    level: int  # bankroll_grid - low + 1: ruin is this walk at 0 or below
+    low: int  # lowest bankroll (steps) that still plays: the ruin line is just below it
+    level: int  # bankroll (steps) - low + 1: ruin is this walk at 0 or below
     rules: TableRules  # the session rules the walk was built with
-
-    @property
-    def need_grid(self) -> int:
-        """Bankroll (steps) needed to play one more round: the ruin line is just below it."""
-        return self.low
 
     @property
     def full_bet_from(self) -> Rational:
@@ -154,7 +148,6 @@ def no_goal_walk(
         grid=rules.step,
         jumps=law_of(full),
         bottom=tuple(bottom),
-        bankroll_grid=held,
         low=low,
         level=held - low + 1,
         rules=rules,

@@ -10,10 +10,14 @@ from collections.abc import Callable
 from dataclasses import dataclass
 from pathlib import Path
 
+from tomlkit.exceptions import TOMLKitError
+
 from oddsbench.model.atomic_write import write_text_atomically
 from oddsbench.model.document import DocumentError, RulesetDocument, parse_document
 from oddsbench.model.errors import OddsbenchError, Problem
+from oddsbench.model.file_read import FileRefused, read_text_capped
 from oddsbench.model.history import History, Step
+from oddsbench.model.load import MAX_FILE_BYTES
 from oddsbench.tui.bundled import is_bundled
 
 Edit = Callable[[RulesetDocument], object]
@@ -41,11 +45,9 @@ class EditSession:
     @classmethod
     def open(cls, path: Path) -> EditSession:
         try:
-            text = path.read_text(encoding="utf-8")
-        except UnicodeDecodeError:
-            raise OddsbenchError(f"{path}: is not UTF-8 text") from None
-        except OSError as error:
-            raise OddsbenchError(f"{path}: cannot be read: {error.strerror or error}") from None
+            text = read_text_capped(path, MAX_FILE_BYTES, "is a folder, not a ruleset file")
+        except FileRefused as refused:
+            raise OddsbenchError(f"{path}: {refused}") from None
         return cls(text, path)
 
     @property
@@ -80,6 +82,13 @@ class EditSession:
         except DocumentError as error:
             self._load(before)
             return EditOutcome(False, str(error))
+        except (TOMLKitError, AttributeError, TypeError, KeyError, IndexError) as error:
+            # tomlkit meets a layout it cannot edit in place: refuse the edit, keep every byte
+            self._load(before)
+            return EditOutcome(
+                False,
+                f"this file's layout cannot take that edit ({type(error).__name__}): make it in the Source view (F6)",
+            )
         after = self.document.text()
         self.history.record(after, label, field)
         return EditOutcome(after != before)

@@ -73,31 +73,3 @@ def test_digits_option_gives_more_proved_digits(capsys):
         "40",
     )
     assert code == 0 and "0.4492810267455924639962977056298622755981" in out
-
-
-def test_no_goal_is_the_limit_of_bounded_sessions_as_the_goal_grows():
-    # same rules as bounded sessions (cut bets near the bottom): goal 600 is already within 1e-5
-    from oddsbench.chain.round_distribution import parse_round_text
-    from oddsbench.model.numbers import QQ
-    from oddsbench.strategy.no_goal_play import solve_no_goal_play
-    from oddsbench.strategy.session import SessionSettings, analyse_session
-
-    for spelled, bet, bankroll in (
-        ("1:51/100,-1:49/100", 2, 7),
-        ("3/2:1/2,-1:1/2", 2, 5),
-        ("2:1/5,1:2/5,-1:2/5", 3, 4),
-    ):
-        distribution = parse_round_text(spelled)
-        bounded = [
-            analyse_session(
-                distribution, SessionSettings(bankroll=QQ(bankroll), goal=QQ(goal)), f"flat:{bet}", exact_limit=0
-            )
-            .figures["ruin_probability"]
-            .decimal
-            for goal in (100, 600)
-        ]
-        no_goal = solve_no_goal_play(
-            [(o.net, o.prob) for o in distribution.outcomes], bet, bankroll, cover=distribution.cover, check=False
-        ).ruin.ruin.value
-        assert bounded[0] <= bounded[1] <= no_goal + 1e-12
-        assert no_goal - bounded[1] < 1e-5

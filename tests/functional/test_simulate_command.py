@@ -1,4 +1,5 @@
-"""``oddsbench simulate``: estimate, interval and exact value side by side; bad input exits 2."""
+"""``oddsbench simulate``: estimate, interval and exact value side by side, for rounds and for sessions;
+bad input exits 2."""
 
 import json
 from pathlib import Path
@@ -6,7 +7,8 @@ from pathlib import Path
 from oddsbench.cli.main import main
 from oddsbench.report.cautions import CAUTIONS
 
-PASS_LINE = str(Path(__file__).resolve().parents[2] / "rulesets" / "pass-line.toml")
+RULESETS = Path(__file__).resolve().parents[2] / "rulesets"
+PASS_LINE = str(RULESETS / "pass-line.toml")
 
 
 def test_simulate_prints_the_estimate_its_interval_and_7_495(capsys):
@@ -59,3 +61,27 @@ def test_the_best_play_for_a_goal_is_simulated_against_its_exact_figures(capsys,
     names = {item["name"] for item in body["rounds"]["estimates"]}
     # a turn of Pig stakes nothing, so there is no house edge to estimate (as in `solve`)
     assert "house_edge" not in names and "expected_net" in names
+
+
+def test_simulate_with_session_options_prints_each_plan_beside_the_solver(capsys):
+    wheel = str(RULESETS / "single-zero-wheel.toml")
+    args = ["simulate", wheel, "--bankroll", "5", "--goal", "10", "--plan", "flat:1", "--plan", "bold"]
+    assert main(args + ["--trials", "20000", "--seed", "3"]) == 0
+    out = capsys.readouterr().out
+    assert "plan 'flat:1'" in out and "plan 'bold'" in out and "goal probability" in out
+    # bold play from 5 to 10 at even money: one spin, goal chance 18/37 (Dubins and Savage; arithmetic)
+    assert "18/37" in out and "OUTSIDE" not in out and CAUTIONS[0] in out
+
+
+def test_simulate_sessions_as_json_lists_each_plan(capsys):
+    wheel = str(RULESETS / "single-zero-wheel.toml")
+    assert main(["simulate", wheel, "--session", "--plan", "bold", "--trials", "5000", "--seed", "1", "--json"]) == 0
+    body = json.loads(capsys.readouterr().out)
+    (plan,) = body["sessions"]["plans"]
+    assert plan["plan"] == "bold" and plan["outside"] == [] and body["sessions"]["settings"]["bankroll"] == "100"
+    assert body["rounds"] is None and body["outside"] == []
+
+
+def test_sessions_need_a_bankroll_and_a_goal(capsys, tmp_path):
+    assert main(["simulate", str(RULESETS / "pass-line.toml"), "--plan", "bold", "--trials", "10"]) == 2
+    assert "session needs --bankroll" in capsys.readouterr().err

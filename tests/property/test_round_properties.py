@@ -95,21 +95,3 @@ def test_sparse_lu_matches_sympy_fraction_free_solve(text):
     rows = identity_minus(chain.q_rows())
     rhs = [QQ(1)] * chain.transient_count
     assert factor_exact(rows).solve(rhs) == factor_exact(rows, method="fraction-free").solve(rhs)
-
-
-def test_net_variance_matches_enumeration_for_two_step_round():
-    # Two fair coin steps paying +1 or -1 each: net is -2, 0, 2 with chances 1/4, 1/2, 1/4,
-    # so variance 2 (direct enumeration).
-    text = """
-[ruleset]
-title = "two coins"
-start = "a"
-[states.a]
-outcomes = [ { to = "b", pay = 1 }, { to = "b", pay = -1 } ]
-[states.b]
-outcomes = [ { to = "end", pay = 1 }, { to = "end", pay = -1 } ]
-[states.end]
-"""
-    figures = solve_round(build_round_chain(load_ruleset_text(text)))
-    assert figures.figures["net_variance"].exact == 2
-    assert figures.figures["expected_net"].exact == 0

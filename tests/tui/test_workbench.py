@@ -271,8 +271,8 @@ async def test_escape_cancels_a_long_solve_and_keeps_the_workbench_responsive(tm
     import asyncio
     import threading
 
-    from oddsbench.solve.cancel import SolveCancelled
     from oddsbench.tui import analysis
+    from oddsbench.tui.analysis import SolveCancelled
 
     asked, released, ended, outcome = threading.Event(), threading.Event(), threading.Event(), []
     solve = analysis.solve_round_text
@@ -316,3 +316,21 @@ async def test_escape_cancels_a_long_solve_and_keeps_the_workbench_responsive(tm
         await pilot.press("f3")  # the workbench answers the next key
         await pilot.pause()
         assert app.workbench.query_one("#views").current == "round" and app.return_code is None
+
+
+async def test_an_unexpected_error_in_a_solve_is_shown_in_place_and_the_workbench_stays(tmp_path, monkeypatch):
+    from oddsbench.tui import analysis
+
+    def broken_solve(ruleset, strategy, should_stop=None):
+        raise RuntimeError("a bug in the engine")
+
+    monkeypatch.setattr(analysis, "solve_round_text", broken_solve)
+    app = app_on(copy_ruleset("pass-line.toml", tmp_path), tmp_path)
+    async with app.run_test(size=(100, 30)) as pilot:
+        await settle(pilot)
+        assert app.return_code is None and not app.workbench.solving
+        assert app.workbench.status_note == "the round could not be solved: a bug in the engine"
+        assert app.workbench.result is None
+        await pilot.press("f3")  # the workbench answers the next key
+        await pilot.pause()
+        assert app.workbench.query_one("#views").current == "round"

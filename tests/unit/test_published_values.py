@@ -143,3 +143,21 @@ def test_lantern_dice_edge_counts_the_raise_as_staked():
     assert exact(figures, "expected_staked") == QQ(5, 3)
     assert exact(figures, "house_edge") == QQ(1, 30)
     assert figures.result_probability["push"].exact == QQ(1, 6)
+
+
+def test_net_variance_matches_enumeration_for_two_step_round():
+    # Two fair coin steps paying +1 or -1 each: net is -2, 0, 2 with chances 1/4, 1/2, 1/4,
+    # so variance 2 (direct enumeration).
+    text = """
+[ruleset]
+title = "two coins"
+start = "a"
+[states.a]
+outcomes = [ { to = "b", pay = 1 }, { to = "b", pay = -1 } ]
+[states.b]
+outcomes = [ { to = "end", pay = 1 }, { to = "end", pay = -1 } ]
+[states.end]
+"""
+    figures = solve_text(text)
+    assert figures.figures["net_variance"].exact == 2
+    assert figures.figures["expected_net"].exact == 0

@@ -62,36 +62,3 @@ def test_the_same_seed_gives_the_same_sessions():
     first, _ = checks_for("pass-line.toml", SessionSettings(QQ(5), QQ(10)), "flat:1", trials=5_000, seed=4)
     again, _ = checks_for("pass-line.toml", SessionSettings(QQ(5), QQ(10)), "flat:1", trials=5_000, seed=4)
     assert first.ends == again.ends and first.rounds.mean == again.rounds.mean
-
-
-def test_simulate_with_session_options_prints_each_plan_beside_the_solver(capsys):
-    from oddsbench.cli.main import main
-    from oddsbench.report.cautions import CAUTIONS
-
-    wheel = str(RULESETS / "single-zero-wheel.toml")
-    args = ["simulate", wheel, "--bankroll", "5", "--goal", "10", "--plan", "flat:1", "--plan", "bold"]
-    assert main(args + ["--trials", "20000", "--seed", "3"]) == 0
-    out = capsys.readouterr().out
-    assert "plan 'flat:1'" in out and "plan 'bold'" in out and "goal probability" in out
-    # bold play from 5 to 10 at even money: one spin, goal chance 18/37 (Dubins and Savage; arithmetic)
-    assert "18/37" in out and "OUTSIDE" not in out and CAUTIONS[0] in out
-
-
-def test_simulate_sessions_as_json_lists_each_plan(capsys):
-    import json
-
-    from oddsbench.cli.main import main
-
-    wheel = str(RULESETS / "single-zero-wheel.toml")
-    assert main(["simulate", wheel, "--session", "--plan", "bold", "--trials", "5000", "--seed", "1", "--json"]) == 0
-    body = json.loads(capsys.readouterr().out)
-    (plan,) = body["sessions"]["plans"]
-    assert plan["plan"] == "bold" and plan["outside"] == [] and body["sessions"]["settings"]["bankroll"] == "100"
-    assert body["rounds"] is None and body["outside"] == []
-
-
-def test_sessions_need_a_bankroll_and_a_goal(capsys, tmp_path):
-    from oddsbench.cli.main import main
-
-    assert main(["simulate", str(RULESETS / "pass-line.toml"), "--plan", "bold", "--trials", "10"]) == 2
-    assert "session needs --bankroll" in capsys.readouterr().err

@@ -1,32 +1,37 @@
 """The workbench: edit the game on the left, see every figure, exact beside decimal, everywhere.
 
 The screen owns the open file (an ``EditSession``). Editors post ``EditRequested``; the screen
-applies the edit, records it for undo, refreshes the editors from the document and starts a
-worker that reads the new text (the problems of ``oddsbench check``) and solves the round.
+applies the edit, records it for undo, refreshes the editors from the document and starts the
+background jobs (``background.py``): read the new text (the problems of ``oddsbench check``), then
+solve the round; strategies and sessions when their view is shown. Every job's end is handled once,
+in ``on_worker_state_changed``. Saving, the recovery copy and the list's commands live beside it.
 """
 
 from __future__ import annotations
 
+from functools import partial
 from pathlib import Path
 
 from rich.text import Text
-from textual import on, work
+from textual import on
 from textual.app import ComposeResult
 from textual.binding import Binding
-from textual.containers import Horizontal, Vertical
 from textual.screen import Screen
-from textual.widgets import ContentSwitcher, Footer, ProgressBar, Static, TextArea
-from textual.worker import get_current_worker
+from textual.widgets import ContentSwitcher, Static, TextArea
+from textual.worker import Worker, WorkerState
 
 from oddsbench.model.document import DocumentError
 from oddsbench.model.errors import OddsbenchError, Problem
 from oddsbench.model.places import place_of
-from oddsbench.model.recovery import discard_recovery, write_recovery
 from oddsbench.tui import analysis
 from oddsbench.tui.analysis import Reading, RoundFailure, RoundResult
 from oddsbench.tui.editing import EditSession
-from oddsbench.tui.screens.dialogs import AskName, Choose
-from oddsbench.tui.widgets.cautions import CautionsBar
+from oddsbench.tui.screens.workbench import background
+from oddsbench.tui.screens.workbench.background import READ, ROUND, SESSIONS, STRATEGIES, Comparison, Job
+from oddsbench.tui.screens.workbench.commands import param_command, state_command
+from oddsbench.tui.screens.workbench.layout import workbench_layout
+from oddsbench.tui.screens.workbench.recovery import RecoveryCopy
+from oddsbench.tui.screens.workbench.saving import ask_save_path, saved_message
 from oddsbench.tui.widgets.edits import EditRequested
 from oddsbench.tui.widgets.fields import Field
 from oddsbench.tui.widgets.figures import FiguresTable, SummaryLine
@@ -36,15 +41,8 @@ from oddsbench.tui.widgets.sessions import SessionsPanel
 from oddsbench.tui.widgets.setup_editor import ParamsEditor, SessionEditor, SetupEditor
 from oddsbench.tui.widgets.state_editor import StateEditor
 from oddsbench.tui.widgets.strategies import StrategiesPanel
+from oddsbench.tui.widgets.topbar import TopBar
 
-VIEWS = (
-    ("edit", "Edit", "f2"),
-    ("round", "Round", "f3"),
-    ("strategies", "Strategies", "f4"),
-    ("sessions", "Sessions", "f5"),
-    ("source", "Source", "f6"),
-)
-SHORT_LABELS = {"strategies": "Strat", "sessions": "Sess", "source": "Src"}
 GOALS = ("max-return", "max-win", "min-loss", "min-steps")
 WIDE = 150
 
@@ -84,51 +82,26 @@ class WorkbenchScreen(Screen):
         self.entry: str | None = None
         self.force_fields = False  # set while undo/redo/source edits put document values into fields
         self.goal = GOALS[0]
-        self.strategies_result = None
-        self.strategies_key: tuple | None = None
-        self.strategies_busy = False
+        self.strategy_comparison = Comparison()
         self.plans = analysis.DEFAULT_PLANS
-        self.sessions_result = None
-        self.sessions_key: tuple | None = None
-        self.sessions_busy = False
-        self.recovery_for: Path | None = None  # the path whose recovery copy this screen wrote
-        self.recovery_failed = False
+        self.session_comparison = Comparison()
+        self.recovery = RecoveryCopy()
+        self.jobs: dict[Worker, Job] = {}  # the background jobs running, by their worker
+
+    @property
+    def strategies_result(self):
+        """The strategies side by side (or why they could not be solved), as last solved."""
+        return self.strategy_comparison.result
+
+    @property
+    def sessions_result(self):
+        """The plans' sessions side by side (or why they could not be solved), as last solved."""
+        return self.session_comparison.result
 
     # ----- layout -----
 
     def compose(self) -> ComposeResult:
-        yield Static("", id="topbar")
-        with ContentSwitcher(initial="edit", id="views"):
-            with Horizontal(id="edit"):
-                yield Navigator(id="navigator")
-                with Vertical(id="editor-area"):
-                    with ContentSwitcher(initial="state-editor", id="editors"):
-                        yield SetupEditor(id="setup-editor")
-                        yield ParamsEditor(id="params-editor")
-                        yield SessionEditor(id="session-editor")
-                        yield StateEditor(id="state-editor")
-                    yield ProblemsPanel(id="problems")
-                with Vertical(id="side-figures"):
-                    yield Static("", classes="figures-heading", id="side-heading")
-                    yield FiguresTable(id="side-table")
-            with Vertical(id="round"):
-                yield Static("", classes="figures-heading", id="round-heading")
-                yield ProgressBar(total=None, show_eta=False, show_percentage=False, id="progress")
-                yield FiguresTable(id="round-table")
-                yield Static("", id="round-notes")
-            with Vertical(id="strategies"):
-                yield StrategiesPanel(id="strategies-panel")
-            with Vertical(id="sessions"):
-                yield SessionsPanel(", ".join(analysis.DEFAULT_PLANS), id="sessions-panel")
-            with Vertical(id="source"):
-                yield Static(
-                    "The file as text: anything the forms do not cover. Edits here are undoable too.",
-                    classes="editor-heading",
-                )
-                yield TextArea("", id="source-text", soft_wrap=False, show_line_numbers=True)
-        yield SummaryLine("", id="summary")
-        yield CautionsBar(id="cautions")
-        yield Footer()
+        yield from workbench_layout()
 
     def on_mount(self) -> None:
         self.query_one("#progress").display = False
@@ -171,26 +144,13 @@ class WorkbenchScreen(Screen):
 
     def sync_recovery(self) -> None:
         """Unsaved changes are kept in a recovery copy; back at the saved text, the copy goes."""
-        path = self.session.path
-        if self.session.dirty and path is not None:
-            if self.recovery_for is not None and self.recovery_for != path:
-                discard_recovery(self.recovery_for)
-            try:
-                write_recovery(path, self.session.text, self.session.saved_text)
-            except OddsbenchError as error:
-                if not self.recovery_failed:
-                    self.notify(f"no recovery copy: {error}", severity="warning")
-                self.recovery_failed = True
-                return
-            self.recovery_for = path
-        else:
-            self.drop_recovery()
+        warning = self.recovery.sync(self.session)
+        if warning:
+            self.notify(warning, severity="warning")
 
     def drop_recovery(self) -> None:
         """The unsaved changes were saved or given up: their recovery copy is no longer wanted."""
-        if self.recovery_for is not None:
-            discard_recovery(self.recovery_for)
-            self.recovery_for = None
+        self.recovery.drop()
 
     def _failing_states(self, problems: tuple[Problem, ...]) -> set[str]:
         return {place.state for p in problems if p.is_error if (place := place_of(p)).state}
@@ -215,26 +175,8 @@ class WorkbenchScreen(Screen):
             self.query_one(StateEditor).show(document, entry[len(STATE) :], problems)
 
     def _update_topbar(self) -> None:
-        wide = self.app.size.width >= 100
-        text = Text()
-        if wide:
-            text.append(" oddsbench ", style="bold reverse")
         current = self.query_one("#views", ContentSwitcher).current
-        for view, label, key in VIEWS:
-            style = "bold reverse" if view == current else "dim"
-            shown = label if wide else SHORT_LABELS.get(view, label)
-            text.append(f" {key.upper()} {shown} ", style=style)
-        path = self.session.path
-        text.append(f"  {path.name if path else 'new ruleset'}")
-        if self.session.read_only and path is not None and wide:
-            text.append(" (bundled)", style="dim")
-        if self.session.dirty:
-            text.append(" ● modified" if wide else " ●", style="bold yellow")
-        if self.solving:
-            text.append("  solving… Esc cancels", style="bold magenta")
-        elif self.status_note:
-            text.append(f"  {self.status_note}", style="magenta")
-        self.query_one("#topbar", Static).update(text)
+        self.query_one(TopBar).show(current, self.session, self.solving, self.status_note)
 
     def _fill_source(self) -> None:
         area = self.query_one("#source-text", TextArea)
@@ -243,34 +185,58 @@ class WorkbenchScreen(Screen):
 
     # ----- background reading and solving -----
 
+    def _start(self, job: Job, work, *args) -> None:
+        """Run one job in a thread worker; a newer job of its group replaces (cancels) the older."""
+        worker = self.run_worker(
+            partial(work, *args), name=job.kind, group=job.group, exclusive=True, thread=True, exit_on_error=False
+        )
+        self.jobs[worker] = job
+
+    def on_worker_state_changed(self, event: Worker.StateChanged) -> None:
+        """Every job ends here once: with its result, with an error shown in its place, or cancelled (None)."""
+        job = self.jobs.get(event.worker)
+        if job is None or event.state not in (WorkerState.SUCCESS, WorkerState.ERROR, WorkerState.CANCELLED):
+            return
+        del self.jobs[event.worker]
+        result = None
+        if event.state == WorkerState.SUCCESS:
+            result = event.worker.result
+        elif event.state == WorkerState.ERROR and not background.is_cancellation(event.worker.error):
+            result = job.failure(event.worker.error)
+        ended = {
+            READ: self._read,
+            ROUND: self._solved,
+            STRATEGIES: self._strategies_done,
+            SESSIONS: self._sessions_done,
+        }
+        ended[job.kind](job.key, result)
+
     def analyse(self) -> None:
         self.generation += 1
-        self._analyse(self.session.text, self.session.source, self.strategy, self.generation)
+        self._start(Job(READ, self.generation), background.read, self.session.text, self.session.source)
 
-    @work(thread=True, exclusive=True, group="analysis")
-    def _analyse(self, text: str, source: str, strategy: str | None, generation: int) -> None:
-        from oddsbench.core.work import Cancelled as SolveCancelled
-
-        worker = get_current_worker()
-        reading = analysis.read(text, source)
-        if worker.is_cancelled:
+    def _read(self, generation: int, reading: Reading | RoundFailure | None) -> None:
+        """The new text is read: show its problems, then solve the round if it is valid."""
+        if reading is None or generation != self.generation:
             return
-        self.app.call_from_thread(self._show_reading, generation, reading)
-        if reading.ruleset is None:
+        if isinstance(reading, RoundFailure):
+            self._show_result(generation, reading)
             return
+        self._show_reading(generation, reading)
         ruleset = reading.ruleset
+        if ruleset is None:
+            return
+        strategy = self.strategy
         if ruleset.has_decisions and strategy not in {s.name for s in ruleset.strategies}:
             strategy = ruleset.strategies[0].name if ruleset.strategies else None
-        self.app.call_from_thread(self._set_solving, generation, True)
-        try:
-            result = analysis.solve_round_text(ruleset, strategy, should_stop=lambda: worker.is_cancelled)
-        except SolveCancelled:
-            self.app.call_from_thread(self._cancelled, generation)
-            return
-        except (OddsbenchError, ArithmeticError, ValueError, MemoryError) as error:
-            result = RoundFailure(f"the round could not be solved: {error}")
-        if not worker.is_cancelled:
-            self.app.call_from_thread(self._show_result, generation, result)
+        self._set_solving(generation, True)
+        self._start(Job(ROUND, generation), background.solve_round, ruleset, strategy)
+
+    def _solved(self, generation: int, result: RoundResult | RoundFailure | None) -> None:
+        if result is None:
+            self._cancelled(generation)
+        else:
+            self._show_result(generation, result)
 
     def _show_reading(self, generation: int, reading: Reading) -> None:
         if generation != self.generation:
@@ -352,47 +318,19 @@ class WorkbenchScreen(Screen):
     def compare_strategies(self) -> None:
         """Solve every strategy and the best play, unless this text and goal are solved already."""
         ruleset = self.reading.ruleset if self.reading else None
-        if ruleset is None:
-            return
-        key = (self.session.text, self.goal)
-        if key == self.strategies_key:
-            return
-        self.strategies_key = key
-        self.strategies_busy = True
-        self._show_strategies()
-        self._compare(ruleset, self.goal, key)
-
-    @work(thread=True, exclusive=True, group="strategies")
-    def _compare(self, ruleset, goal: str, key: tuple) -> None:
-        from oddsbench.core.work import Cancelled as SolveCancelled
-
-        worker = get_current_worker()
-        try:
-            result = analysis.strategies_text(ruleset, goal, should_stop=lambda: worker.is_cancelled)
-        except SolveCancelled:
-            self.app.call_from_thread(self._strategies_cancelled, key)
-            return
-        except (ArithmeticError, ValueError, MemoryError) as error:
-            result = RoundFailure(f"the strategies could not be solved: {error}")
-        if not worker.is_cancelled:
-            self.app.call_from_thread(self._strategies_done, key, result)
+        comparison = self.strategy_comparison
+        if ruleset is not None and comparison.ask((self.session.text, self.goal)):
+            self._show_strategies()
+            self._start(Job(STRATEGIES, comparison.key), background.compare_strategies, ruleset, self.goal)
 
     def _strategies_done(self, key: tuple, result) -> None:
-        if key != self.strategies_key:
-            return
-        self.strategies_busy = False
-        self.strategies_result = result
-        self._show_strategies()
-
-    def _strategies_cancelled(self, key: tuple) -> None:
-        if key == self.strategies_key:
-            self.strategies_busy = False
-            self.strategies_key = None
+        if self.strategy_comparison.ended(key, result):
             self._show_strategies()
 
     def _show_strategies(self) -> None:
         stale = self.reading is not None and self.reading.ruleset is None
-        self.query_one(StrategiesPanel).show(self.strategies_result, stale=stale, busy=self.strategies_busy)
+        comparison = self.strategy_comparison
+        self.query_one(StrategiesPanel).show(comparison.result, stale=stale, busy=comparison.busy)
 
     def _session_problem(self) -> str | None:
         """The first problem of the [session] table, as the sessions command words it."""
@@ -406,48 +344,21 @@ class WorkbenchScreen(Screen):
         return None
 
     def compare_sessions(self) -> None:
+        """Solve every plan's session, unless this text, these plans and this strategy are solved already."""
         ruleset = self.reading.ruleset if self.reading else None
-        if ruleset is None:
-            return
-        key = (self.session.text, self.plans, self.strategy)
-        if key == self.sessions_key:
-            return
-        self.sessions_key = key
-        self.sessions_busy = True
-        self._show_sessions()
-        self._sessions(ruleset, self.strategy, self.plans, key)
-
-    @work(thread=True, exclusive=True, group="sessions")
-    def _sessions(self, ruleset, strategy, plans, key: tuple) -> None:
-        from oddsbench.core.work import Cancelled as SolveCancelled
-
-        worker = get_current_worker()
-        try:
-            result = analysis.sessions_text(ruleset, strategy, plans, should_stop=lambda: worker.is_cancelled)
-        except SolveCancelled:
-            self.app.call_from_thread(self._sessions_cancelled, key)
-            return
-        except (ArithmeticError, ValueError, MemoryError) as error:
-            result = RoundFailure(f"the sessions could not be solved: {error}")
-        if not worker.is_cancelled:
-            self.app.call_from_thread(self._sessions_done, key, result)
+        comparison = self.session_comparison
+        if ruleset is not None and comparison.ask((self.session.text, self.plans, self.strategy)):
+            self._show_sessions()
+            self._start(Job(SESSIONS, comparison.key), background.compare_sessions, ruleset, self.strategy, self.plans)
 
     def _sessions_done(self, key: tuple, result) -> None:
-        if key != self.sessions_key:
-            return
-        self.sessions_busy = False
-        self.sessions_result = result
-        self._show_sessions()
-
-    def _sessions_cancelled(self, key: tuple) -> None:
-        if key == self.sessions_key:
-            self.sessions_busy = False
-            self.sessions_key = None
+        if self.session_comparison.ended(key, result):
             self._show_sessions()
 
     def _show_sessions(self) -> None:
         stale = self.reading is not None and self.reading.ruleset is None
-        self.query_one(SessionsPanel).show(self.sessions_result, stale=stale, busy=self.sessions_busy)
+        comparison = self.session_comparison
+        self.query_one(SessionsPanel).show(comparison.result, stale=stale, busy=comparison.busy)
 
     @on(SessionsPanel.PlansChanged)
     def _plans_changed(self, event: SessionsPanel.PlansChanged) -> None:
@@ -491,73 +402,14 @@ class WorkbenchScreen(Screen):
     @on(Navigator.StateCommand)
     def _state_command(self, event: Navigator.StateCommand) -> None:
         event.stop()
-        document = self.session.document
-        if document is None:
-            return
-        names = set(document.state_names())
-
-        def free(name: str) -> str | None:
-            if not name:
-                return "a state name is needed"
-            return f"a state named {name!r} already exists" if name in names else None
-
-        if event.command in {"add", "add-end"}:
-            kind = "end" if event.command == "add-end" else "outcomes"
-
-            def added(name: str | None) -> None:
-                if name:
-                    self.post_message(
-                        EditRequested(lambda doc: doc.add_state(name, kind), f"new state {name}", select=STATE + name)
-                    )
-
-            question = "Name of the new end state" if kind == "end" else "Name of the new state"
-            self.app.push_screen(AskName(question, check=free), added)
-        elif event.command == "rename":
-            old = event.state
-
-            def renamed(name: str | None) -> None:
-                if name and name != old:
-                    self.post_message(
-                        EditRequested(
-                            lambda doc: doc.rename_state(old, name), f"rename {old} to {name}", select=STATE + name
-                        )
-                    )
-
-            self.app.push_screen(
-                AskName(
-                    f"Rename state {old!r} (every reference follows)",
-                    old,
-                    check=lambda n: None if n == old else free(n),
-                ),
-                renamed,
-            )
-        elif event.command == "delete":
-            name = event.state
-            self.post_message(EditRequested(lambda doc: doc.delete_state(name), f"delete state {name}"))
-            self.notify(f"deleted state {name!r}: Ctrl+Z brings it back")
+        if self.session.document is not None:
+            state_command(self, self.session.document, event.command, event.state)
 
     @on(ParamsEditor.ParamCommand)
     def _param_command(self, event: ParamsEditor.ParamCommand) -> None:
         event.stop()
-        document = self.session.document
-        if document is None:
-            return
-        if event.command == "add":
-            taken = {name for name, _ in document.params()}
-
-            def check(name: str) -> str | None:
-                if not name.isidentifier():
-                    return "a parameter name must be letters, digits and _ (not starting with a digit)"
-                return f"a parameter named {name!r} already exists" if name in taken else None
-
-            def added(name: str | None) -> None:
-                if name:
-                    self.post_message(EditRequested(lambda doc: doc.add_param(name, "0"), f"new parameter {name}"))
-
-            self.app.push_screen(AskName("Name of the new parameter", check=check), added)
-        elif event.command == "delete" and event.name:
-            name = event.name
-            self.post_message(EditRequested(lambda doc: doc.delete_param(name), f"delete parameter {name}"))
+        if self.session.document is not None:
+            param_command(self, self.session.document, event.command, event.name)
 
     @on(TextArea.Changed, "#source-text")
     def _source_changed(self, event: TextArea.Changed) -> None:
@@ -614,16 +466,14 @@ class WorkbenchScreen(Screen):
             self.force_fields = False
 
     def action_escape(self) -> None:
-        if self.solving or self.strategies_busy or self.sessions_busy:
-            if self.solving:
-                self.workers.cancel_group(self, "analysis")
-                self._cancelled(self.generation)
-            if self.strategies_busy:
-                self.workers.cancel_group(self, "strategies")
-                self._strategies_cancelled(self.strategies_key)
-            if self.sessions_busy:
-                self.workers.cancel_group(self, "sessions")
-                self._sessions_cancelled(self.sessions_key)
+        busy = {
+            "analysis": self.solving,
+            "strategies": self.strategy_comparison.busy,
+            "sessions": self.session_comparison.busy,
+        }
+        if any(busy.values()):
+            for group in (group for group, running in busy.items() if running):
+                self.workers.cancel_group(self, group)  # each job's end is shown in on_worker_state_changed
             return
         if self.query_one("#views", ContentSwitcher).current == "edit":
             # Esc in a field goes back to the table of its editor, where it is shown (an end state has
@@ -658,38 +508,7 @@ class WorkbenchScreen(Screen):
         self._save(None)
 
     def action_save_as(self) -> None:
-        path = self.session.path
-        suggested = self.folder / path.name if path is not None else self.folder / "new-game.toml"
-        if path is not None and not self.session.read_only:
-            suggested = path
-
-        def check(value: str) -> str | None:
-            if not value:
-                return "a file name is needed"
-            target = Path(value).expanduser()
-            if target.is_dir():
-                return f"{value} is a folder"
-            if not target.parent.is_dir():
-                return f"no folder {target.parent}"
-            return None
-
-        def chosen(value: str | None) -> None:
-            if not value:
-                return
-            target = Path(value).expanduser()
-            if target.exists() and target != self.session.path:
-
-                def answered(answer: str) -> None:
-                    if answer == "o":
-                        self._save(target)
-
-                self.app.push_screen(
-                    Choose(f"{target} exists. Overwrite it?", [("o", "Overwrite"), ("c", "Cancel")]), answered
-                )
-                return
-            self._save(target)
-
-        self.app.push_screen(AskName("Save as (path)", str(suggested), check=check), chosen)
+        ask_save_path(self.app, self.session, self.folder, self._save)
 
     def _save(self, path: Path | None) -> bool:
         try:
@@ -697,11 +516,8 @@ class WorkbenchScreen(Screen):
         except (OddsbenchError, DocumentError) as error:
             self.notify(str(error), severity="error")
             return False
-        errors = [p for p in (self.reading.problems if self.reading else ()) if p.is_error]
-        message = f"saved {saved}"
-        if errors:
-            message += f" (with {len(errors)} problem(s): `oddsbench check` will report them)"
-        self.notify(message, severity="warning" if errors else "information")
+        message, severity = saved_message(saved, self.reading.problems if self.reading else ())
+        self.notify(message, severity=severity)
         self.sync_recovery()
         self._update_topbar()
         return True

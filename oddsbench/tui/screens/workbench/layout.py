@@ -1,0 +1,55 @@
+"""Where everything sits on the workbench: the view switcher (edit, round, strategies, sessions,
+source), and the summary, cautions and keys that stay below every view."""
+
+from __future__ import annotations
+
+from textual.app import ComposeResult
+from textual.containers import Horizontal, Vertical
+from textual.widgets import ContentSwitcher, Footer, ProgressBar, Static, TextArea
+
+from oddsbench.tui import analysis
+from oddsbench.tui.widgets.cautions import CautionsBar
+from oddsbench.tui.widgets.figures import FiguresTable, SummaryLine
+from oddsbench.tui.widgets.navigator import Navigator
+from oddsbench.tui.widgets.problems import ProblemsPanel
+from oddsbench.tui.widgets.sessions import SessionsPanel
+from oddsbench.tui.widgets.setup_editor import ParamsEditor, SessionEditor, SetupEditor
+from oddsbench.tui.widgets.state_editor import StateEditor
+from oddsbench.tui.widgets.strategies import StrategiesPanel
+from oddsbench.tui.widgets.topbar import TopBar
+
+
+def workbench_layout() -> ComposeResult:
+    """The widgets of one workbench, by id; the styles are in ``tui/styles/workbench.tcss``."""
+    yield TopBar("", id="topbar")
+    with ContentSwitcher(initial="edit", id="views"):
+        with Horizontal(id="edit"):
+            yield Navigator(id="navigator")
+            with Vertical(id="editor-area"):
+                with ContentSwitcher(initial="state-editor", id="editors"):
+                    yield SetupEditor(id="setup-editor")
+                    yield ParamsEditor(id="params-editor")
+                    yield SessionEditor(id="session-editor")
+                    yield StateEditor(id="state-editor")
+                yield ProblemsPanel(id="problems")
+            with Vertical(id="side-figures"):
+                yield Static("", classes="figures-heading", id="side-heading")
+                yield FiguresTable(id="side-table")
+        with Vertical(id="round"):
+            yield Static("", classes="figures-heading", id="round-heading")
+            yield ProgressBar(total=None, show_eta=False, show_percentage=False, id="progress")
+            yield FiguresTable(id="round-table")
+            yield Static("", id="round-notes")
+        with Vertical(id="strategies"):
+            yield StrategiesPanel(id="strategies-panel")
+        with Vertical(id="sessions"):
+            yield SessionsPanel(", ".join(analysis.DEFAULT_PLANS), id="sessions-panel")
+        with Vertical(id="source"):
+            yield Static(
+                "The file as text: anything the forms do not cover. Edits here are undoable too.",
+                classes="editor-heading",
+            )
+            yield TextArea("", id="source-text", soft_wrap=False, show_line_numbers=True)
+    yield SummaryLine("", id="summary")
+    yield CautionsBar(id="cautions")
+    yield Footer()

@@ -1,0 +1,61 @@
+"""Saving the open file: where Save as suggests, what it refuses, and what the workbench says after."""
+
+from __future__ import annotations
+
+from collections.abc import Callable
+from pathlib import Path
+
+from textual.app import App
+
+from oddsbench.model.errors import Problem
+from oddsbench.tui.editing import EditSession
+from oddsbench.tui.screens.dialogs import AskName, Choose
+
+
+def suggested_path(session: EditSession, folder: Path) -> Path:
+    """The file itself, unless it is bundled (then a copy in the working folder) or new."""
+    path = session.path
+    if path is not None and not session.read_only:
+        return path
+    return folder / path.name if path is not None else folder / "new-game.toml"
+
+
+def path_problem(value: str) -> str | None:
+    """Why the typed path cannot be saved to, or None."""
+    if not value:
+        return "a file name is needed"
+    target = Path(value).expanduser()
+    if target.is_dir():
+        return f"{value} is a folder"
+    if not target.parent.is_dir():
+        return f"no folder {target.parent}"
+    return None
+
+
+def ask_save_path(app: App, session: EditSession, folder: Path, save: Callable[[Path], object]) -> None:
+    """Ask for a path, and before overwriting another existing file, then ``save`` to it."""
+
+    def chosen(value: str | None) -> None:
+        if not value:
+            return
+        target = Path(value).expanduser()
+        if target.exists() and target != session.path:
+
+            def answered(answer: str) -> None:
+                if answer == "o":
+                    save(target)
+
+            app.push_screen(Choose(f"{target} exists. Overwrite it?", [("o", "Overwrite"), ("c", "Cancel")]), answered)
+            return
+        save(target)
+
+    app.push_screen(AskName("Save as (path)", str(suggested_path(session, folder)), check=path_problem), chosen)
+
+
+def saved_message(saved: Path, problems: tuple[Problem, ...]) -> tuple[str, str]:
+    """The notification after a save and its severity: a file with errors is saved, and said so."""
+    errors = [p for p in problems if p.is_error]
+    message = f"saved {saved}"
+    if errors:
+        message += f" (with {len(errors)} problem(s): `oddsbench check` will report them)"
+    return message, "warning" if errors else "information"
