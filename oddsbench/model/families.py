@@ -460,6 +460,7 @@ class _Family:
         self._current = "state"
         self.tried = [MAX_FAMILY_COMBINATIONS]
         self.steps: _Steps | None = None
+        self.states_left = MAX_FAMILY_STATES
         where = f"family {name!r}"
         if not isinstance(raw, dict):
             raise FamilyError(f"{where}: must be a table, not {type_name(raw)}")
@@ -510,10 +511,11 @@ class _Family:
         """Steps of one index combination: its lets, its condition, its name."""
         return TABLE_STEPS + sum(steps_in(node) for _, node in self.lets) + steps_in(self.when) + self.state.steps
 
-    def outcome_steps(self, params: Mapping[str, Rational]) -> int:
-        """Steps of one member's outcome tables, where their ranges are fixed."""
+    def outcome_steps(self, params: Mapping[str, Rational]) -> tuple[int, int]:
+        """(steps, tables) of one member's outcome tables, where their ranges are fixed."""
         listed = list(self.outcomes or []) + [outcome for _, outcomes in self.choices for outcome in outcomes]
-        return sum(outcome.steps * outcome.tables_per_member(params) for outcome in listed)
+        tables = [outcome.tables_per_member(params) for outcome in listed]
+        return sum(outcome.steps * count for outcome, count in zip(listed, tables)), sum(tables)
 
     def members(self, params: dict[str, Rational]) -> Iterator[tuple[dict[str, Rational], str]]:
         env: dict[str, Rational] = params
@@ -523,10 +525,14 @@ class _Family:
                 f"family {self.name!r}: index ranges give {count:,} combinations, over the limit of "
                 f"{MAX_FAMILY_COMBINATIONS:,}"
             )
+        if count is not None and self.when is None and count > self.states_left:
+            raise _too_many_states(self.name, self.states_left)
         each = self.member_steps()
         if count is not None and self.steps is not None:
-            work = count * (each + (0 if self.when is not None else self.outcome_steps(params)))
-            if work > self.steps.left:
+            outcome_steps, tables = self.outcome_steps(params) if self.when is None else (0, 0)
+            work = count * (each + outcome_steps)
+            # past the combination limit that limit speaks first; the running count bounds the rest
+            if count * (1 + tables) <= self.tried[0] and work > self.steps.left:
                 combinations = "index combination" if count == 1 else "index combinations"
                 shown = f"about {work:,} expression steps to expand ({count:,} {combinations}, {work // count:,} each)"
                 raise FamilyError(f"family {self.name!r}: " + self.steps.over(shown))
@@ -597,6 +603,15 @@ class _Family:
         return listed
 
 
+def _too_many_states(name: str, cap: int) -> FamilyError:
+    if cap < MAX_FAMILY_STATES:
+        return FamilyError(
+            f"family {name!r}: families expand to more than {cap:,} states, over the state limit "
+            "(raise it with --max-states)"
+        )
+    return FamilyError(f"family {name!r}: families expand to more than {MAX_FAMILY_STATES:,} states (the limit)")
+
+
 def expand_families(
     document: dict[str, Any], source: str, problems: list[Problem], params: dict[str, Rational]
 ) -> FamilyExpansion:
@@ -622,6 +637,7 @@ def expand_families(
             family = _Family(name, body, params, warn)
             family.tried = tried
             family.steps = steps
+            family.states_left = states_left
             found: dict[str, dict[str, Rational]] = {}
             for env, state in family.members(params):
                 if state in found:
@@ -632,14 +648,7 @@ def expand_families(
                     raise FamilyError(f"family {name!r}{_where(env, family.variables)}: state {state!r} is made twice")
                 states_left -= 1
                 if states_left < 0:
-                    if states_cap < MAX_FAMILY_STATES:
-                        raise FamilyError(
-                            f"family {name!r}: families expand to more than {states_cap:,} states, over the state "
-                            "limit (raise it with --max-states)"
-                        )
-                    raise FamilyError(
-                        f"family {name!r}: families expand to more than {MAX_FAMILY_STATES:,} states (the limit)"
-                    )
+                    raise _too_many_states(name, states_cap)
                 found[state] = env
             for state, env in found.items():
                 tables[state] = family.table(env, budget)
