@@ -179,6 +179,8 @@ def require(what: str, seconds: float = 0.0, memory: float = 0.0) -> None:
     if budget is None:
         return
     left = budget.left()
+    if seconds > 0 and left <= 0:
+        raise over_time(what, budget)
     if seconds > left:
         raise OverBudget(
             f"{what} would take about {seconds_text(seconds)}, more than the {seconds_text(max(left, 0))} left "

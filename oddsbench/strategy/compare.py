@@ -184,26 +184,28 @@ def solve_rounds(
 ) -> RoundResults:
     """Solve one round per (start state, strategy name or None), in order.
 
-    The first column is timed: when the others, at its pace, would not fit the time left in the
-    work budget, they are refused in one line before any of them starts.
+    The columns are timed as they go: as soon as the rest, at the pace so far, would not fit the
+    time left in the work budget, they are refused in one line.
     """
     columns = []
     shared = _shared_deal(ruleset, [start for start, _ in plays], max_states)
-    for number, (start, strategy) in enumerate(plays):
-        began = time.monotonic()
+    began = time.monotonic()
+    for number, (start, strategy) in enumerate(plays, start=1):
         played = shared(start) or starting_at(ruleset, start, max_states)
         policy = policy_of(played, strategy)
         chain = build_round_chain(played, policy, max_states)
         figures = with_hands(_started(ruleset, start), solve_round(chain, rounds, exact_limit, should_stop, exact_bits))
         columns.append(RoundColumn(figures.start, strategy, policy, figures))
-        if number == 0 and len(plays) > 1:
-            each = time.monotonic() - began
-            what = "start states" if compared == "starts" else "plays"
-            budget.require(
-                f"solving {len(plays) - 1:,} more {what} side by side ({budget.seconds_text(each)} each)",
-                seconds=each * (len(plays) - 1),
-            )
+        _require_the_rest(len(plays) - number, (time.monotonic() - began) / number, compared)
     return RoundResults(ruleset.title, tuple(columns), compared)
+
+
+def _require_the_rest(left: int, each: float, compared: str | None) -> None:
+    if left > 0:
+        what = "start states" if compared == "starts" else "plays"
+        budget.require(
+            f"solving {left:,} more {what} side by side ({budget.seconds_text(each)} each)", seconds=each * left
+        )
 
 
 def compare_strategies(
