@@ -2,10 +2,11 @@
 
 The distribution over states is stepped forward N times. In floating point each step is one
 sparse product; once the mass left in transient states is exactly 0 (it underflows after a few
-thousand steps in most rounds) every further step gives the same numbers, so the loop stops
-there: ``--rounds 100000`` on the pass line costs what its first 2,000 steps cost. A round whose
-mass drains slowly is estimated first and refused in one line when its steps would not fit the
-time left. Exact products are the truth where they fit: their numbers grow by the bits of the
+thousand steps in most rounds), or the numbers stop changing (a mass stuck at the bottom of the
+float range), every further step gives the same numbers, so the loop stops there: ``--rounds
+100000`` on the pass line costs what its first 3,000 steps cost. The steps still needed are
+forecast from how fast the mass falls, and refused in one line when they would not fit the time
+left. Exact products are the truth where they fit: their numbers grow by the bits of the
 probabilities' denominators at every step, so their cost is estimated from that growth, and
 they stop (decimals only, with a note) when exact arithmetic's share of the budget runs out.
 """
@@ -26,6 +27,8 @@ from oddsbench.solve.linear.costs import ExactClock, ExactTooLarge, fastest
 
 MAX_SAMPLE_BITS = 200_000_000  # numbers this large at the last step: hopeless without timing them
 POLL_STEPS = 64
+FORECAST_STEPS = 4 * POLL_STEPS  # how often the steps still needed are forecast
+SMALLEST_FLOAT = 5e-324
 
 
 def end_chances_by_step(
@@ -56,23 +59,35 @@ def _floats(chain: RoundChain, rounds: int, should_stop: Callable[[], bool] | No
     state = np.zeros(size)
     state[0] = 1.0
     began = time.monotonic()
+    earlier = (0, 1.0)  # (step, mass left in transient states) at the last forecast
     for step in range(rounds):
         if step % POLL_STEPS == 0:
             if should_stop is not None and should_stop():
                 raise SolveCancelled
             budget.check(f"chances by step {rounds:,}")
-            if step == 4 * POLL_STEPS:
-                _require_float_steps(rounds - step, (time.monotonic() - began) / step)
+            if step and step % FORECAST_STEPS == 0:
+                mass = float(state[:n].sum())
+                needed = min(rounds - step, _steps_to_drain(earlier, (step, mass)))
+                each = (time.monotonic() - began) / step
+                budget.require(f"stepping {needed:,} more rounds in floating point", seconds=needed * each)
+                earlier = (step, mass)
         moved = forward @ state[:n]
         moved[n:] += state[n:]
-        state = moved
-        if not state[:n].any():  # nothing left to move: every further step is the same
+        if not moved[:n].any() or np.array_equal(moved, state):  # every further step gives the same numbers
+            state = moved
             break
+        state = moved
     return state[n:]
 
 
-def _require_float_steps(steps: int, each: float) -> None:
-    budget.require(f"stepping {steps:,} more rounds in floating point", seconds=steps * each)
+def _steps_to_drain(earlier: tuple[int, float], now: tuple[int, float]) -> float:
+    """Steps until the mass left in transient states underflows to 0, at the rate it fell lately
+    (infinite when it does not fall)."""
+    (first, before), (last, after) = earlier, now
+    if after <= 0 or before <= 0 or after >= before or last <= first:
+        return math.inf if after > 0 else 0
+    rate = math.log(after / before) / (last - first)  # log of the factor per step, < 0
+    return math.log(SMALLEST_FLOAT / after) / rate
 
 
 def _require_exact(chain: RoundChain, rounds: int) -> None:
