@@ -69,6 +69,12 @@ def run_bounded(*args: str, cwd: Path, ceiling: float = CEILING) -> Run:
     )
 
 
+def _head(title: str, start: str, *tables: str) -> str:
+    """The ``[ruleset]`` table (a stake of 1) and the plain end states every generated file starts with."""
+    ends = "".join(f"[states.{name}]\n" for name in tables)
+    return f'[ruleset]\ntitle = "{title}"\nstart = "{start}"\nstake = 1\n{ends}'
+
+
 def walk(states: int, probability: str = "4/9 + 1/(10^59 + 7)") -> str:
     """A walk over ``states`` levels whose one probability may have a 60-digit denominator."""
     return f"""[ruleset]
@@ -106,40 +112,36 @@ def long_condition(length: int = 1977) -> str:
 def combinations(low: int = 0, high: int = 1413, condition: str | None = None) -> str:
     """A 2 KB family over (high - low + 1)^2 index combinations (2M by default) with a long ``when``."""
     condition = condition or long_condition()
-    return f"""[ruleset]
-title = "combinations"
-start = "end"
-[states.end]
-[families.f]
+    return (
+        _head("combinations", "end", "end")
+        + f"""[families.f]
 state = "f-{{a}}-{{b}}"
 index = {{ a = [{low}, {high}], b = [{low}, {high}] }}
 when = "{condition}"
 outcomes = [{{ to = "end" }}]
 """
+    )
 
 
 def many_lets(members: int = 100_000) -> str:
     """``members`` members, each with 8 ``let`` values."""
     lets = "\n".join(f'let.v{i} = "t * {i + 1} + 1/{i + 2}"' for i in range(8))
-    return f"""[ruleset]
-title = "lets"
-start = "s-1"
-[states.end]
-[families.s]
+    return (
+        _head("lets", "s-1", "end")
+        + f"""[families.s]
 state = "s-{{t}}"
 index = {{ t = [1, {members}] }}
 {lets}
 outcomes = [{{ to = "end", pay = "v0 + v1 + v2 + v3 + v4 + v5 + v6 + v7" }}]
 """
+    )
 
 
 def star(branches: int) -> str:
     """A hub with ``branches`` branches, each ending in its own end state: 2 x branches + 2 states."""
-    return f"""[ruleset]
-title = "star {branches}"
-start = "hub-0"
-stake = 1
-[states.back]
+    return (
+        _head(f"star {branches}", "hub-0")
+        + f"""[states.back]
 result = "push"
 [families.hub]
 state = "hub-{{z}}"
@@ -154,30 +156,26 @@ state = "e-{{i}}"
 index = {{ i = [1, {branches}] }}
 result = "win"
 """
+    )
 
 
 def fan_out(outcomes: int = 1_000_000) -> str:
     """One state with ``outcomes`` outcomes."""
-    return f"""[ruleset]
-title = "fan-out"
-start = "hub-0"
-stake = 1
-[states.end]
-[families.hub]
+    return (
+        _head("fan-out", "hub-0", "end")
+        + f"""[families.hub]
 state = "hub-{{z}}"
 index = {{ z = [0, 0] }}
 outcomes = [{{ each = {{ i = [1, {outcomes}] }}, to = "end", prob = "1/{outcomes}", pay = "i % 7 - 3" }}]
 """
+    )
 
 
 def dense(states: int = 500) -> str:
     """Every state reaches every state, each chance with its own denominator."""
-    return f"""[ruleset]
-title = "dense"
-start = "s-1"
-stake = 1
-[states.end]
-[families.s]
+    return (
+        _head("dense", "s-1", "end")
+        + f"""[families.s]
 state = "s-{{i}}"
 index = {{ i = [1, {states}] }}
 outcomes = [
@@ -185,6 +183,7 @@ outcomes = [
   {{ to = "end", pay = 1 }},
 ]
 """
+    )
 
 
 def wide_round(half: int = 100) -> str:
