@@ -20,11 +20,13 @@ from __future__ import annotations
 from collections.abc import Iterable
 from dataclasses import dataclass
 from math import gcd, lcm
-
-import numpy as np
+from typing import TYPE_CHECKING
 
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.numbers import QQ, Rational, denominator, is_integer, numerator, text, to_int
+
+if TYPE_CHECKING:
+    import numpy as np
 
 
 def rational_gcd(values: Iterable[Rational]) -> Rational:
@@ -66,6 +68,8 @@ def floor_times(values, fraction: Rational):
     numpy's int64 when every product fits, Python's integers otherwise (results past
     ``MACHINE_BET`` are cut to it: a bet no grid bankroll covers).
     """
+    import numpy as np  # here, not at the top: reading a ruleset must not load numpy
+
     top, bottom = numerator(fraction), denominator(fraction)
     if isinstance(values, int):
         return (values * top) // bottom
@@ -78,6 +82,8 @@ def floor_times(values, fraction: Rational):
 
 def machine_bets(planned) -> np.ndarray:
     """Planned bets (betting units, whole numbers of any size) as an int64 array, each cut to ``MACHINE_BET``."""
+    import numpy as np
+
     if isinstance(planned, np.ndarray) and planned.dtype != object:
         return planned.astype(np.int64)
     return np.vectorize(lambda bet: min(int(bet), MACHINE_BET), otypes=[np.int64])(np.asarray(planned, dtype=object))
@@ -102,7 +108,7 @@ def whole_units(label: str, value: Rational, unit: Rational) -> int:
     """A bet amount in betting units: whole and at least one, or refused in one line."""
     count = value / unit
     if not is_integer(count) or count < 1:
-        raise OddsbenchError(f"{label} {text(value)} must be a whole, positive number of betting units")
+        raise OddsbenchError(f"{label} {text(value)} must be a whole, positive number of betting units of {text(unit)}")
     return to_int(count)
 
 
@@ -152,6 +158,8 @@ class TableRules:
         For arrays the limits are cut to ``MACHINE_BET``: no bankroll on a grid covers that much, so
         the bet placed is the same, and a minimum of 10^60 units cannot overflow 64-bit integers.
         """
+        import numpy as np
+
         if not isinstance(planned, np.ndarray):
             raised = max(planned, self.min_bet)
             return raised if self.max_bet is None else min(raised, self.max_bet)
@@ -160,6 +168,8 @@ class TableRules:
 
     def largest_bet(self, values):
         """The largest bet each playing bankroll may place: what it covers, cut to the table maximum."""
+        import numpy as np
+
         cap = self.coverable(values)
         if self.max_bet is None:
             return cap
@@ -167,6 +177,8 @@ class TableRules:
 
     def placed(self, planned, values):
         """The bet actually placed: ``table_bet(planned)`` cut to what the bankroll covers (the cut bet)."""
+        import numpy as np
+
         covered = self.coverable(values)
         bet = self.table_bet(planned)
         if isinstance(bet, np.ndarray) or isinstance(covered, np.ndarray):

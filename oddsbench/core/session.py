@@ -19,7 +19,7 @@ from oddsbench.core.settings import DEFAULTS, SessionRequest, Settings
 from oddsbench.core.work import NO_WORK, Work
 from oddsbench.model.defaults import DEFAULT_PLANS, NO_GOAL_DEFAULT_PLANS
 from oddsbench.model.errors import OddsbenchError
-from oddsbench.strategy.plans import PROGRESSIONS, Plan, parse_plan
+from oddsbench.strategy.plans import Plan, parse_plan
 from oddsbench.strategy.session import SessionFigures, SessionSettings, merge_settings, settings_from_table
 
 if TYPE_CHECKING:
@@ -159,25 +159,20 @@ def _no_goal(
     distribution: RoundDistribution, session: SessionSettings, plan: Plan, request: SessionRequest, work: Work
 ) -> NoGoalFigures:
     """One plan played until ruin, with the session rules (cut bets, the ruin level, table limits)."""
-    from oddsbench.strategy.no_goal_play import solve_no_goal_play, solve_no_goal_progression
+    from oddsbench.strategy.no_goal_play import solve_no_goal
 
-    outcomes = [(o.net, o.prob) for o in distribution.outcomes]
-    common = dict(
-        cover=distribution.cover,
-        digits=request.digits,
-        unit=session.unit,
+    return solve_no_goal(
+        distribution,
+        plan,
+        session.bankroll,
+        floor=session.floor or 0,
         min_bet=session.min_bet,
         max_bet=session.max_bet,
-        floor=session.floor or 0,
+        unit=session.unit,
+        digits=request.digits,
+        check=request.check,
         should_stop=work.should_stop,
     )
-    if plan.kind in PROGRESSIONS:
-        return solve_no_goal_progression(outcomes, plan.kind, plan.amount, plan.series, session.bankroll, **common)
-    if plan.kind == "flat":
-        bet = plan.amount
-    else:  # timid: always the table minimum
-        bet = session.min_bet or session.unit or 1
-    return solve_no_goal_play(outcomes, bet, session.bankroll, check=request.check, **common)
 
 
 def still_playing(results: SessionResults, plan: str, rounds: Sequence[int], work: Work = NO_WORK) -> tuple[float, ...]:

@@ -10,19 +10,14 @@ import numpy as np
 
 from oddsbench.chain.bankroll import BankrollGrid
 from oddsbench.chain.round_distribution import RoundDistribution
-from oddsbench.chain.session_rules import floor_times, machine_bets
+from oddsbench.chain.session_rules import floor_times, machine_bets, whole_units
 from oddsbench.model.errors import OddsbenchError
-from oddsbench.model.numbers import Rational, is_integer, text, to_int
+from oddsbench.model.numbers import Rational
 from oddsbench.strategy.plans import PROGRESSIONS, Plan
 
 
 def _units(plan: Plan, amount: Rational, grid: BankrollGrid) -> int:
-    count = amount / grid.unit
-    if not is_integer(count):
-        raise OddsbenchError(
-            f"--plan {plan.spelling!r}: bet {text(amount)} is not a whole number of betting units of {text(grid.unit)}"
-        )
-    return to_int(count)
+    return whole_units(f"--plan {plan.spelling!r}: bet", amount, grid.unit)
 
 
 def planned_bets(
