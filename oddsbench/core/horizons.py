@@ -76,15 +76,10 @@ def horizon(game: Game, rounds: Sequence[int], settings: Settings = DEFAULTS, wo
 
 
 def _ruleset_law(game: Game, settings: Settings, work: Work):
-    from oddsbench.core.rounds import round_figures
-    from oddsbench.strategy.compare import names_several
+    from oddsbench.core.rounds import one_play, round_figures
 
     ruleset = game.need_ruleset("a horizon")
-    if names_several(settings.starts):
-        raise OddsbenchError(f"{ruleset.source}: a horizon repeats one round: name one start state, not several")
-    if ruleset.has_decisions and len(settings.strategies) != 1:
-        known = ", ".join(s.name for s in ruleset.strategies) or "none defined"
-        raise OddsbenchError(f"{ruleset.source}: has decision states: choose one --strategy NAME (known: {known})")
+    one_play(ruleset, settings, "a horizon")
     column = round_figures(game, dataclasses.replace(settings, rounds=None), work).columns[0]
     figures = column.figures
     table = figures.return_table

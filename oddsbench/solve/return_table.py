@@ -63,6 +63,7 @@ class ReturnTable:
     shares: tuple[PayShare, ...]
     chances: dict[str, Figure]
     notes: tuple[str, ...] = ()
+    nodes: int = 0  # transient states of the chain over (state, pay so far)
 
 
 def net_sd(variance: Figure, staked: Figure) -> Figure:
@@ -124,7 +125,7 @@ def return_table(
     if len(shares) > SHARE_LIMIT:
         notes.append(f"shares of the return: the {SHARE_LIMIT:,} largest of {len(shares):,} paying steps are listed")
         shares = sorted(shares, key=lambda s: -abs(s.contribution))[:SHARE_LIMIT]
-    return ReturnTable(listed, len(ordered), tuple(shares), chances, tuple(notes))
+    return ReturnTable(listed, len(ordered), tuple(shares), chances, tuple(notes), law.nodes)
 
 
 def _chance(value: Rational) -> Figure:

@@ -96,8 +96,10 @@ def solve_round(
     exact_limit: int = DEFAULT_EXACT_LIMIT,
     should_stop: Callable[[], bool] | None = None,
     exact_bits: int | None = DEFAULT_EXACT_BITS,
+    with_return_table: bool = True,
 ) -> RoundFigures:
-    """Solve a round chain both ways and collect figures, notes and checks."""
+    """Solve a round chain both ways and collect figures, notes and checks (``with_return_table``
+    False skips the net law and the hit, push and loss chances: a caller that needs only moments)."""
     notes: list[str] = []
     exact = None
     if chain.transient_count <= exact_limit:
@@ -134,7 +136,10 @@ def solve_round(
     with np.errstate(all="ignore"):
         figures, ends = _figures(chain, exact, decimal, notes)
     results = _by_result(chain, ends)
-    table = _return_table(chain, figures, exact is not None, exact_limit, should_stop, exact_bits, notes)
+    _add_net_sd(figures)
+    table = None
+    if with_return_table:
+        table = _return_table(chain, figures, exact is not None, exact_limit, should_stop, exact_bits, notes)
     by_step: dict[str, Figure] = {}
     if rounds is not None:
         by_step = _by_step(chain, rounds, exact is not None, notes, should_stop)
@@ -155,6 +160,19 @@ def solve_round(
     )
 
 
+def _add_net_sd(figures: dict[str, Figure]) -> None:
+    """``net_sd`` right after ``net_variance``, where something is staked."""
+    if "house_edge" not in figures:
+        return
+    ordered = {}
+    for name, figure in figures.items():
+        ordered[name] = figure
+        if name == "net_variance":
+            ordered["net_sd"] = net_sd(figure, figures["expected_staked"])
+    figures.clear()
+    figures.update(ordered)
+
+
 def _return_table(
     chain: RoundChain,
     figures: dict[str, Figure],
@@ -164,16 +182,8 @@ def _return_table(
     exact_bits: int | None,
     notes: list[str],
 ) -> ReturnTable | None:
-    """Add ``net_sd`` (where something is staked) and, where exact arithmetic ran, the hit, push and
-    loss chances to ``figures``; return the table (None, with a note, when it is not listed)."""
-    if "house_edge" in figures:
-        with_sd = {}
-        for name, figure in figures.items():
-            with_sd[name] = figure
-            if name == "net_variance":
-                with_sd["net_sd"] = net_sd(figure, figures["expected_staked"])
-        figures.clear()
-        figures.update(with_sd)
+    """Where exact arithmetic ran, add the hit, push and loss chances to ``figures``; return the
+    table (None, with a note, when it is not listed)."""
     if not exact:
         notes.append("return table (net law; hit, push and loss chances) not listed: it needs exact arithmetic")
         return None

@@ -60,6 +60,10 @@ def round_law(
     n = chain.transient_count
     if n == 0:
         return RoundLaw({(QQ(0), QQ(0)): QQ(1)}, (), 1)
+    if drifting_loop(chain):
+        raise ProductTooLarge(
+            f"{chain.title}: a loop of the round keeps adding pay or stake, so the round's result has no bound"
+        )
     out: list[list[int]] = [[] for _ in range(n)]
     for k, edge in enumerate(chain.edges):
         out[edge.source].append(k)
@@ -116,6 +120,42 @@ def round_law(
                 key = nodes[target][1:]
                 ending[key] = ending.get(key, QQ(0)) + flow
     return RoundLaw(ending, tuple(taken), len(transient))
+
+
+def drifting_loop(chain: RoundChain) -> bool:
+    """Whether some loop of the round adds pay or stake (the pay so far then has no bound).
+
+    Every loop inside a strongly connected set of states adds nothing exactly when each state can
+    be given a potential (pay, stake) with every edge inside the set adding the difference of its
+    ends' potentials; one walk per set checks it, so the product walk is never started in vain.
+    """
+    from oddsbench.model.validate import strongly_connected
+
+    n = chain.transient_count
+    inside: list[list] = [[] for _ in range(n)]
+    for edge in chain.edges:
+        if edge.target < n:
+            inside[edge.source].append(edge)
+    sets = strongly_connected(range(n), lambda i: [edge.target for edge in inside[i]])
+    member = {state: k for k, states in enumerate(sets) for state in states}
+    potential: dict[int, tuple] = {}
+    for states in sets:
+        root = next(iter(states))
+        potential[root] = (QQ(0), QQ(0))
+        pending = [root]
+        while pending:
+            state = pending.pop()
+            pay, stake = potential[state]
+            for edge in inside[state]:
+                if member[edge.target] != member[state]:
+                    continue
+                wanted = (pay + edge.pay, stake + edge.stake)
+                if edge.target not in potential:
+                    potential[edge.target] = wanted
+                    pending.append(edge.target)
+                elif potential[edge.target] != wanted:
+                    return True
+    return False
 
 
 def round_distribution(chain: RoundChain, limit: int = PRODUCT_LIMIT) -> RoundDistribution:
