@@ -40,7 +40,9 @@ _MULTI_LINE = str.maketrans({**_ESCAPES, ord("\t"): "\t", ord("\n"): "\n"})
 def visible(text: str, multiline: bool = False) -> str:
     """``text`` with every control and direction character written as its escape (``\\x1b``).
 
-    ``multiline`` keeps tabs and newlines (a carriage return is still shown: it can overwrite
-    a line on a terminal).
+    ``multiline`` keeps tabs, newlines and Windows line ends (a lone carriage return is shown:
+    it can overwrite a line on a terminal).
     """
-    return text.translate(_MULTI_LINE if multiline else _SINGLE_LINE)
+    if not multiline:
+        return text.translate(_SINGLE_LINE)
+    return "\r\n".join(part.translate(_MULTI_LINE) for part in text.split("\r\n"))  # Windows line ends stay

@@ -4,11 +4,11 @@ from __future__ import annotations
 
 from typing import TYPE_CHECKING, Any
 
-from oddsbench.model.figure import Figure
+from oddsbench.model.figure import FLOAT_TINY, Figure
 from oddsbench.model.numbers import text
 from oddsbench.report.cautions import caution_block
 from oddsbench.report.json_output import envelope
-from oddsbench.report.numbers_text import decimal_text, exact_text, render_table
+from oddsbench.report.numbers_text import exact_text, figure_decimal_text, render_table, shown_log10
 from oddsbench.report.return_table_report import net_law_json, return_shares_json, return_table_text
 
 if TYPE_CHECKING:  # result types only: the core (and the engines behind it) load when a question is asked
@@ -42,7 +42,7 @@ def figure_label(name: str, rounds: int | None = None) -> str:
 
 def figure_cells(figure: Figure, percent: bool = False, width: int | None = 40) -> tuple[str, str]:
     """(exact, decimal) text of one figure."""
-    return exact_text(figure.exact, width), decimal_text(figure.decimal, figure.exact, percent)
+    return exact_text(figure.exact, width), figure_decimal_text(figure, percent)
 
 
 def round_rows(figures: RoundFigures) -> list[tuple[str, str, str]]:
@@ -96,7 +96,20 @@ def round_text(figures: RoundFigures, strategy: str | None = None) -> str:
 
 
 def figure_json(figure: Figure) -> dict[str, Any]:
-    return {"exact": None if figure.exact is None else text(figure.exact), "decimal": figure.decimal}
+    """``{"exact", "decimal", "log10"}``: ``log10`` (of the size) only where a float cannot hold the
+    value, and then ``decimal`` is null; ``digits`` where the float engine vouches for fewer than all."""
+    power = shown_log10(figure)
+    decimal = figure.decimal
+    if power is not None or (decimal != 0 and abs(decimal) < FLOAT_TINY):
+        decimal = None
+    out: dict[str, Any] = {
+        "exact": None if figure.exact is None else text(figure.exact),
+        "decimal": decimal,
+        "log10": power,
+    }
+    if figure.digits is not None:
+        out["digits"] = figure.digits
+    return out
 
 
 def round_result_json(figures: RoundFigures, strategy: str | None = None) -> dict[str, Any]:

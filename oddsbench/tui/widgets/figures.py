@@ -6,6 +6,7 @@ from rich.text import Text
 from textual.widgets import DataTable, Static
 
 from oddsbench.tui.analysis import RoundResult
+from oddsbench.tui.plain import plain
 
 
 class FiguresTable(DataTable):
@@ -23,7 +24,7 @@ class FiguresTable(DataTable):
         row = self.cursor_row
         self.clear()
         for quantity, exact, decimal in result.rows:
-            self.add_row(quantity, Text(exact, justify="right"), Text(decimal, justify="right"))
+            self.add_row(plain(quantity), Text(exact, justify="right"), Text(decimal, justify="right"))
         if self.row_count:
             self.move_cursor(row=min(row, self.row_count - 1))
 

@@ -11,6 +11,7 @@ from textual.widgets import DataTable, Input, Label, Static
 from textual_plotext import PlotextPlot
 
 from oddsbench.tui.analysis import RoundFailure, SessionsResult
+from oddsbench.tui.plain import plain
 from oddsbench.tui.widgets.fields import Field
 
 
@@ -55,7 +56,7 @@ class SessionsPanel(VerticalScroll):
 
     def show_plan_problem(self, message: str) -> None:
         shown = self.query_one("#plans-message", Static)
-        shown.update(message)
+        shown.update(plain(message))
         shown.set_class(bool(message), "-error")
 
     def show(self, result: SessionsResult | RoundFailure | None, stale: bool = False, busy: bool = False) -> None:
@@ -79,9 +80,9 @@ class SessionsPanel(VerticalScroll):
         table.display = True
         charts.display = bool(result.series)  # play with no goal has no goal chance and no length to draw
         table.clear(columns=True)
-        table.add_columns(*result.headers)
+        table.add_columns(*[plain(header) for header in result.headers])
         for row in result.rows:
-            table.add_row(row[0], *[Text(cell, justify="right") for cell in row[1:]])
+            table.add_row(plain(row[0]), *[Text(cell, justify="right") for cell in row[1:]])
         self._chart(
             "#goal-chart",
             "chance of the goal by starting bankroll",
@@ -97,7 +98,7 @@ class SessionsPanel(VerticalScroll):
             "rounds",
         )
         notes = self.query_one("#sessions-notes", Static)
-        notes.update("\n".join(f"note: {note}" for note in result.notes))
+        notes.update(plain("\n".join(f"note: {note}" for note in result.notes)))
 
     def _chart(self, selector: str, title: str, result: SessionsResult, pick, xlabel: str) -> None:
         widget = self.query_one(selector, PlotextPlot)

@@ -8,6 +8,7 @@ from textual.containers import VerticalScroll
 from textual.widgets import DataTable, Static
 
 from oddsbench.tui.analysis import RoundFailure, StrategiesResult
+from oddsbench.tui.plain import plain
 
 
 class StrategiesPanel(VerticalScroll):
@@ -39,7 +40,7 @@ class StrategiesPanel(VerticalScroll):
         table.display = bool(result.headers)
         table.clear(columns=True)
         if result.headers:
-            table.add_columns(*result.headers)
+            table.add_columns(*[plain(header) for header in result.headers])
             for row in result.rows:
-                table.add_row(row[0], *[Text(cell, justify="right") for cell in row[1:]])
-        best.update(Text(f"Best play (goal {result.goal}, g changes it)\n", style="bold") + Text(result.best))
+                table.add_row(plain(row[0]), *[Text(cell, justify="right") for cell in row[1:]])
+        best.update(Text(f"Best play (goal {result.goal}, g changes it)\n", style="bold") + plain(result.best))

@@ -18,6 +18,12 @@ from oddsbench.tui.widgets.state_editor import StateEditor
 from oddsbench.tui.widgets.strategies import StrategiesPanel
 from oddsbench.tui.widgets.topbar import TopBar
 
+SOURCE_HEADING = "The file as text: anything the forms do not cover. Edits here are undoable too."
+SOURCE_HEADING_CONTROLS = (
+    "The file as text. It holds control characters, shown here as escapes such as \\x1b: "
+    "an edit here writes them as shown."
+)
+
 
 def workbench_layout() -> ComposeResult:
     """The widgets of one workbench, by id; the styles are in ``tui/styles/workbench.tcss``."""
@@ -46,8 +52,9 @@ def workbench_layout() -> ComposeResult:
             yield SessionsPanel(", ".join(analysis.DEFAULT_PLANS), id="sessions-panel")
         with Vertical(id="source"):
             yield Static(
-                "The file as text: anything the forms do not cover. Edits here are undoable too.",
+                SOURCE_HEADING,
                 classes="editor-heading",
+                id="source-heading",
             )
             yield TextArea("", id="source-text", soft_wrap=False, show_line_numbers=True)
     yield SummaryLine("", id="summary")

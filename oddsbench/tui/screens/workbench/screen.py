@@ -20,18 +20,21 @@ from textual.screen import Screen
 from textual.widgets import ContentSwitcher, Static, TextArea
 from textual.worker import Worker, WorkerState
 
+from oddsbench.model.atomic_write import DiskChanged
 from oddsbench.model.document import DocumentError
 from oddsbench.model.errors import OddsbenchError, Problem
 from oddsbench.model.places import place_of
+from oddsbench.model.visible import visible
 from oddsbench.tui import analysis
 from oddsbench.tui.analysis import Reading, RoundFailure, RoundResult
 from oddsbench.tui.editing import EditSession
+from oddsbench.tui.plain import plain
 from oddsbench.tui.screens.workbench import background
 from oddsbench.tui.screens.workbench.background import READ, ROUND, SESSIONS, STRATEGIES, Comparison, Job
 from oddsbench.tui.screens.workbench.commands import param_command, state_command
-from oddsbench.tui.screens.workbench.layout import workbench_layout
+from oddsbench.tui.screens.workbench.layout import SOURCE_HEADING, SOURCE_HEADING_CONTROLS, workbench_layout
 from oddsbench.tui.screens.workbench.recovery import RecoveryCopy
-from oddsbench.tui.screens.workbench.saving import ask_save_path, saved_message
+from oddsbench.tui.screens.workbench.saving import ask_about_disk_change, ask_save_path, saved_message
 from oddsbench.tui.widgets.edits import EditRequested
 from oddsbench.tui.widgets.fields import Field
 from oddsbench.tui.widgets.figures import FiguresTable, SummaryLine
@@ -112,6 +115,9 @@ class WorkbenchScreen(Screen):
         self.refresh_document(STATE + start if start and start in document.state_names() else None)
         self.query_one(Navigator).focus()
 
+    def on_unmount(self) -> None:
+        self.recovery.release()
+
     def on_resize(self, event) -> None:
         self._fit_width(event.size.width)
 
@@ -180,8 +186,11 @@ class WorkbenchScreen(Screen):
 
     def _fill_source(self) -> None:
         area = self.query_one("#source-text", TextArea)
-        if area.text != self.session.text:
-            area.load_text(self.session.text)
+        shown = visible(self.session.text, multiline=True)
+        if area.text != shown:
+            area.load_text(shown)
+        heading = SOURCE_HEADING if shown == self.session.text else SOURCE_HEADING_CONTROLS
+        self.query_one("#source-heading", Static).update(heading)
 
     # ----- background reading and solving -----
 
@@ -313,7 +322,7 @@ class WorkbenchScreen(Screen):
         for table in self.query(FiguresTable).results(FiguresTable):
             table.show(result)
         notes = self.query_one("#round-notes", Static)
-        notes.update("\n".join(f"note: {note}" for note in result.notes))
+        notes.update(plain("\n".join(f"note: {note}" for note in result.notes)))
 
     def compare_strategies(self) -> None:
         """Solve every strategy and the best play, unless this text and goal are solved already."""
@@ -414,7 +423,7 @@ class WorkbenchScreen(Screen):
     @on(TextArea.Changed, "#source-text")
     def _source_changed(self, event: TextArea.Changed) -> None:
         text = event.text_area.text
-        if text != self.session.text:
+        if text != visible(self.session.text, multiline=True):  # an edit, not the file shown
             self.session.replace_text(text)
             self._refresh_forced()
 
@@ -510,9 +519,12 @@ class WorkbenchScreen(Screen):
     def action_save_as(self) -> None:
         ask_save_path(self.app, self.session, self.folder, self._save)
 
-    def _save(self, path: Path | None) -> bool:
+    def _save(self, path: Path | None, overwrite: bool = False) -> bool:
         try:
-            saved = self.session.save(path)
+            saved = self.session.save(path, overwrite)
+        except DiskChanged as changed:
+            ask_about_disk_change(self.app, str(changed), lambda: self._save(path, overwrite=True), self.action_save_as)
+            return False
         except (OddsbenchError, DocumentError) as error:
             self.notify(str(error), severity="error")
             return False
