@@ -61,15 +61,12 @@ def register(commands) -> None:
 
 
 def run(args: argparse.Namespace) -> int:
-    from oddsbench.cli.options import load_game, settings_of
-    from oddsbench.core import horizon, inline_round
-    from oddsbench.model.errors import OddsbenchError
+    from oddsbench.cli.options import file_or_round, settings_of
+    from oddsbench.core import horizon
     from oddsbench.report.horizon_report import horizon_json, horizon_text
     from oddsbench.report.json_output import dumps
 
-    if (args.file is None) == (args.round is None):
-        raise OddsbenchError("horizon: give a ruleset FILE or --round NET:PROB,..., not both and not neither")
-    game = inline_round(args.round) if args.round is not None else load_game(args.file)
+    game = file_or_round(args, "horizon")
     settings = settings_of(args, rounds=None)
     results = horizon(game, args.rounds, settings)
     print(dumps(horizon_json(results)) if args.json else horizon_text(results))

@@ -8,6 +8,7 @@ from __future__ import annotations
 
 from typing import TYPE_CHECKING, Any
 
+from oddsbench.model.figure import Figure
 from oddsbench.model.numbers import Rational, text, to_float
 from oddsbench.report.numbers_text import decimal_text, exact_text, render_table
 
@@ -21,8 +22,11 @@ SHARE_HEADERS = ["step", "pay", "times taken", "share of expected net", "decimal
 
 
 def value_json(value: Rational) -> dict[str, Any]:
-    """``{"exact": "7/495", "decimal": 0.0141...}`` for an exact value."""
-    return {"exact": text(value), "decimal": to_float(value)}
+    """``{"exact": "7/495", "decimal": 0.0141..., "log10": null}`` for an exact value (a power of ten
+    in ``log10`` where a float cannot hold it, as every figure)."""
+    from oddsbench.report.round_report import figure_json  # round_report lists this module's tables
+
+    return figure_json(Figure(value, to_float(value)))
 
 
 def step_label(source: str, action: str | None, target: str) -> str:

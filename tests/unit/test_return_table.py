@@ -181,3 +181,11 @@ def test_a_product_chain_over_the_exact_limit_is_not_listed():
     assert isinstance(engine.return_table(chain, exact_limit=3), str)
     figures = solve_round(chain, exact_limit=chain.transient_count)  # the round fits; its product chain fits too
     assert figures.return_table is not None
+
+
+def test_a_chance_below_the_float_range_is_a_power_of_ten_in_json_never_0():
+    from oddsbench.report.return_table_report import value_json
+
+    tiny = value_json(QQ(1, 10**400))
+    assert tiny == {"exact": "1/" + "1" + "0" * 400, "decimal": None, "log10": pytest.approx(-400)}
+    assert value_json(QQ(7, 495)) == {"exact": "7/495", "decimal": 7 / 495, "log10": None}
