@@ -12,7 +12,7 @@ from dataclasses import dataclass
 
 from oddsbench.core.game import Game
 from oddsbench.core.settings import DEFAULTS, Settings
-from oddsbench.core.work import NO_WORK, Work
+from oddsbench.core.work import NO_WORK, Work, budgeted
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.figure import Figure
 from oddsbench.model.numbers import QQ, Rational, to_float
@@ -44,6 +44,7 @@ class HorizonResults:
         return Figure(value, to_float(value))
 
 
+@budgeted
 def horizon(game: Game, rounds: Sequence[int], settings: Settings = DEFAULTS, work: Work = NO_WORK) -> HorizonResults:
     """The law of the total net after each N in ``rounds`` independent rounds, played as ``settings`` says."""
     if not rounds:

@@ -11,7 +11,7 @@ from typing import TYPE_CHECKING
 
 from oddsbench.core.game import Game
 from oddsbench.core.settings import DEFAULTS, Settings
-from oddsbench.core.work import NO_WORK, Work
+from oddsbench.core.work import NO_WORK, Work, budgeted
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.ruleset import Ruleset
 from oddsbench.strategy.compare import (
@@ -39,6 +39,7 @@ class BestResults:
     checks: tuple[StrategyCheck, ...] = ()
 
 
+@budgeted
 def round_figures(game: Game, settings: Settings = DEFAULTS, work: Work = NO_WORK) -> RoundResults:
     """Every figure of one round; side by side for several start states or several strategies.
 
@@ -86,6 +87,7 @@ def one_play(ruleset: Ruleset, settings: Settings, question: str) -> str | None:
     return settings.strategies[0] if settings.strategies else None
 
 
+@budgeted
 def best_play(game: Game, settings: Settings = DEFAULTS, work: Work = NO_WORK) -> BestResults:
     """The best action in every decision state for ``settings.best_goal``, its value and certificate."""
     from oddsbench.strategy.best_policy import best_policy
@@ -95,6 +97,7 @@ def best_play(game: Game, settings: Settings = DEFAULTS, work: Work = NO_WORK) -
     return BestResults(ruleset.title, ruleset.start, best.goal, best)
 
 
+@budgeted
 def check_strategy(game: Game, name: str, settings: Settings = DEFAULTS, work: Work = NO_WORK) -> BestResults:
     """Hold a named strategy against ``settings.best_goal``: every state where one change of action does better."""
     from oddsbench.strategy.best_policy import check_strategy as held_against
