@@ -40,8 +40,8 @@ HINTS = {
 class PartCell(Field):
     """One cell of a part's row."""
 
-    def __init__(self, kind: str, row: int, column: str, placeholder: str, width: int) -> None:
-        super().__init__(f"{kind}:{row}:{column}", placeholder, classes="part-cell")
+    def __init__(self, kind: str, row: int, column: str, placeholder: str, width: int, value: str = "") -> None:
+        super().__init__(f"{kind}:{row}:{column}", placeholder, value=visible(value), classes="part-cell")
         self.kind = kind
         self.row = row
         self.column = column
@@ -65,7 +65,8 @@ class PartRow(Horizontal):
         for position, (column, placeholder, width) in enumerate(COLUMNS[self.kind]):
             if position:
                 yield Label(BETWEEN[self.kind][position - 1], classes="part-between")
-            yield PartCell(self.kind, self.index, column, placeholder, width)
+            value = self.values[position] if position < len(self.values) else ""
+            yield PartCell(self.kind, self.index, column, placeholder, width, value)
         yield Static("", classes="field-message")
 
     def on_mount(self) -> None:
