@@ -18,9 +18,10 @@ from oddsbench.chain.deal import HandCounts
 from oddsbench.chain.round_chain import RoundChain
 from oddsbench.model.defaults import DEFAULT_EXACT_BITS, ROUND_EXACT_LIMIT
 from oddsbench.model.errors import OddsbenchError
-from oddsbench.model.figure import FLOAT_TINY, Figure
-from oddsbench.model.numbers import QQ, Rational, log10_abs, to_float
+from oddsbench.model.figure import Figure
+from oddsbench.model.numbers import QQ, Rational, to_float
 from oddsbench.solve.cancel import SolveCancelled
+from oddsbench.solve.checked import Tolerance, checked_figure
 from oddsbench.solve.linear import (
     ExactTooLarge,
     FloatSingular,
@@ -32,10 +33,8 @@ from oddsbench.solve.linear import (
 
 DEFAULT_EXACT_LIMIT = ROUND_EXACT_LIMIT
 DEFAULT_STEP_BUDGET = 20_000_000
-RELATIVE_TOLERANCE = 1e-9
-ZERO_TOLERANCE = 1e-12
+TOLERANCE = Tolerance(relative=1e-9, absolute=1e-12)
 NEAR_SINGULAR = 1e7  # condition number past which the float engine may lose 7 of its 16 digits
-UNRELIABLE_TINY = 1e-300
 
 FIGURE_ORDER = (
     "expected_net",
@@ -110,7 +109,7 @@ def solve_round(
             f"limit of {exact_limit:,} (raise it with --exact-limit); decimals are from the float engine"
         )
     try:
-        with np.errstate(all="ignore"):  # inf and nan are caught and named by _checked
+        with np.errstate(all="ignore"):  # inf and nan are caught and named by checked_figure
             decimal = _decimal_moments(chain)
     except FloatSingular:
         if exact is None:
@@ -314,9 +313,14 @@ def _figures(chain: RoundChain, exact: _Moments | None, decimal: _Moments, notes
             values_exact["house_edge"] = -exact.net / staked
             values_exact["return_to_player"] = 1 + exact.net / staked
     digits = _vouched_digits(decimal.condition)
-    figures = {name: _checked(name, values_exact[name], values_decimal[name], notes, digits) for name in order}
+    figures = {
+        name: checked_figure(name, values_exact[name], values_decimal[name], notes, TOLERANCE, None, digits)
+        for name in order
+    }
     ends = {
-        name: _checked(f"end_probability[{name}]", exact.end[j] if exact else None, decimal.end[j], notes, digits)
+        name: checked_figure(
+            f"end_probability[{name}]", exact.end[j] if exact else None, decimal.end[j], notes, TOLERANCE, None, digits
+        )
         for j, name in enumerate(chain.ends)
     }
     variance = figures.get("net_variance")
@@ -327,39 +331,6 @@ def _figures(chain: RoundChain, exact: _Moments | None, decimal: _Moments, notes
         )
         figures["net_variance"] = Figure(None, variance.decimal, None, 1)
     return figures, ends
-
-
-def _checked(name: str, exact: Rational | None, decimal: float, notes: list[str], digits: int | None = None) -> Figure:
-    """The figure to show, with a note where the float engine disagrees with the exact one; a decimal
-    alone carries the digits its solve vouches for."""
-    decimal = float(decimal)
-    if exact is None:
-        if not np.isfinite(decimal):
-            notes.append(f"{name}: the float engine gave {decimal}; no exact value to fall back on")
-        elif decimal != 0 and abs(decimal) < UNRELIABLE_TINY:
-            notes.append(
-                f"{name}: the float engine gives {decimal:.3g}, so small that floating point is unreliable "
-                "(underflow); raise --exact-limit for the exact value"
-            )
-        elif name.startswith("end_probability") and decimal < 0:
-            notes.append(f"{name}: the float engine gives a negative chance ({decimal:.3g}): rounding error")
-        return Figure(None, decimal, None, digits)
-    truth = to_float(exact)
-    if exact != 0 and abs(truth) < FLOAT_TINY:
-        notes.append(
-            f"{name}: the exact value is about 1e{log10_abs(exact):.0f}, below the floating-point range; the float "
-            f"engine gives {decimal!r} (underflow); the exact value stands"
-        )
-        return Figure(exact, truth)
-    gap = abs(decimal - truth)
-    limit = RELATIVE_TOLERANCE * abs(truth) if truth != 0 else ZERO_TOLERANCE
-    if not np.isfinite(decimal) or gap > limit:
-        shown = repr(truth) if np.isfinite(truth) else f"about 1e{log10_abs(exact):.0f}, beyond the float range"
-        notes.append(
-            f"numerical warning: {name}: float engine gives {decimal!r}, exact value is {shown}; "
-            "the exact value is shown"
-        )
-    return Figure(exact, truth)
 
 
 def _sum_figures(figures: list[Figure]) -> Figure:
@@ -414,5 +385,5 @@ def _by_step(
     result = {}
     for j, name in enumerate(chain.ends):
         exact_value = values[n + j] if use_exact else None
-        result[name] = _checked(f"end_probability_by_step[{name}]", exact_value, floats[n + j], notes)
+        result[name] = checked_figure(f"end_probability_by_step[{name}]", exact_value, floats[n + j], notes, TOLERANCE)
     return result
