@@ -20,7 +20,6 @@ from oddsbench.model.defaults import DEFAULT_EXACT_BITS, ROUND_EXACT_LIMIT
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.figure import Figure
 from oddsbench.model.numbers import QQ, Rational, to_float
-from oddsbench.solve.cancel import SolveCancelled
 from oddsbench.solve.checked import Tolerance, checked_figure
 from oddsbench.solve.linear import (
     ExactTooLarge,
@@ -32,9 +31,9 @@ from oddsbench.solve.linear import (
 )
 
 DEFAULT_EXACT_LIMIT = ROUND_EXACT_LIMIT
-DEFAULT_STEP_BUDGET = 20_000_000
 TOLERANCE = Tolerance(relative=1e-9, absolute=1e-12)
 NEAR_SINGULAR = 1e7  # condition number past which the float engine may lose 7 of its 16 digits
+EXACT_SOLVES = 3  # expected visits from the start (one transposed solve), net, steps
 
 FIGURE_ORDER = (
     "expected_net",
@@ -181,12 +180,13 @@ def _exact_moments(
     if n == 0:
         return _Moments([QQ(1)], QQ(0), QQ(0), QQ(0), QQ(0), QQ(0))
     lu = factor_exact(identity_minus(chain.q_rows()), should_stop=should_stop, max_bits=max_bits)
-    visits = lu.solve_transposed([QQ(1)] + [QQ(0)] * (n - 1))
+    lu.expect_solves(EXACT_SOLVES)
+    visits = _visits_from_start(lu, n)
 
     def at_start(rhs: list) -> Rational:
         return sum((v * r for v, r in zip(visits, rhs) if v and r), QQ(0))
 
-    end = [at_start(column) for column in chain.end_columns()]
+    end = _end_chances_exact(chain, visits)
     net = lu.solve(_one_step(chain, lambda e: e.pay))
 
     def net_after(edge) -> Rational:
@@ -197,6 +197,26 @@ def _exact_moments(
     steps_second = at_start([2 * t - 1 for t in steps])
     extra = at_start(_one_step(chain, lambda e: e.stake))
     return _Moments(end, net[0], extra, net_second, steps[0], steps_second)
+
+
+def _visits_from_start(lu, n: int) -> list[Rational]:
+    """Expected visits to every transient state from the start: one transposed solve that answers every
+    figure needed only at the start (end chances, second moments, staked) as a sum of products."""
+    start = [QQ(0)] * n
+    start[0] = QQ(1)
+    return lu.solve_transposed(start)
+
+
+def _end_chances_exact(chain: RoundChain, visits: list[Rational]) -> list[Rational]:
+    """The chance of ending in each end state from the start: P(end j) = sum over edges i -> j of v_i p,
+    from the expected visits v (no transient x end matrix: a star of 10,000 branches needs one solve,
+    not 10,000)."""
+    n = chain.transient_count
+    end = [QQ(0)] * len(chain.ends)
+    for edge in chain.edges:
+        if edge.target >= n and visits[edge.source] != 0:
+            end[edge.target - n] += visits[edge.source] * edge.prob
+    return end
 
 
 def _decimal_moments(chain: RoundChain) -> _Moments:
@@ -221,13 +241,15 @@ def _decimal_moments(chain: RoundChain) -> _Moments:
     def after(values: np.ndarray) -> np.ndarray:
         return np.where(target < n, values[np.minimum(target, n - 1)], 0.0)
 
-    end_columns = np.zeros((n, len(chain.ends)))
+    start = np.zeros(n)
+    start[0] = 1.0
+    visits = lu.solve_transposed(start)  # expected visits from the start (see _end_chances_exact)
     into_end = target >= n
-    np.add.at(end_columns, (source[into_end], target[into_end] - n), prob[into_end])
-    rhs = np.column_stack([end_columns, one_step(pay), one_step(stake), np.ones(n)])
-    solved = lu.solve(rhs)
-    ends_count = len(chain.ends)
-    net, extra, steps = solved[:, ends_count], solved[:, ends_count + 1], solved[:, ends_count + 2]
+    end = np.bincount(
+        target[into_end] - n, weights=visits[source[into_end]] * prob[into_end], minlength=len(chain.ends)
+    )
+    solved = lu.solve(np.column_stack([one_step(pay), one_step(stake), np.ones(n)]))
+    net, extra, steps = solved[:, 0], solved[:, 1], solved[:, 2]
     spread = lu.solve(
         np.column_stack(
             [one_step((pay + after(net) - net[source]) ** 2), one_step((1.0 + after(steps) - steps[source]) ** 2)]
@@ -235,7 +257,7 @@ def _decimal_moments(chain: RoundChain) -> _Moments:
     )
     net_variance, steps_variance = spread[0, 0], spread[0, 1]
     return _Moments(
-        list(solved[0, :ends_count]),
+        list(end),
         net[0],
         extra[0],
         net_variance + net[0] ** 2,
@@ -352,38 +374,11 @@ def _by_result(chain: RoundChain, ends: dict[str, Figure]) -> dict[str, Figure]:
 def _by_step(
     chain: RoundChain, rounds: int, exact: bool, notes: list[str], should_stop: Callable[[], bool] | None
 ) -> dict[str, Figure]:
-    """Chance of being in each end state after ``rounds`` steps: repeated products with P."""
-    size = len(chain.names)
-    n = chain.transient_count
-    use_exact = exact and rounds * max(len(chain.edges), 1) <= DEFAULT_STEP_BUDGET
-    if exact and not use_exact:
-        notes.append(
-            f"chances by step {rounds:,}: exact products skipped (over {DEFAULT_STEP_BUDGET:,} "
-            "edge updates); decimals are from the float engine"
-        )
-    source = np.fromiter((e.source for e in chain.edges), dtype=np.int64)
-    target = np.fromiter((e.target for e in chain.edges), dtype=np.int64)
-    prob = np.fromiter((to_float(e.prob) for e in chain.edges), dtype=float)
-    floats = np.zeros(size)
-    floats[0] = 1.0
-    values = [QQ(0)] * size
-    values[0] = QQ(1)
-    for step in range(rounds):
-        if should_stop is not None and step % 64 == 0 and should_stop():
-            raise SolveCancelled
-        moved = np.zeros(size)
-        moved[n:] = floats[n:]
-        np.add.at(moved, target, floats[source] * prob)
-        floats = moved
-        if use_exact:
-            nxt = [QQ(0)] * n + values[n:]
-            for edge in chain.edges:
-                weight = values[edge.source]
-                if weight != 0:
-                    nxt[edge.target] += weight * edge.prob
-            values = nxt
-    result = {}
-    for j, name in enumerate(chain.ends):
-        exact_value = values[n + j] if use_exact else None
-        result[name] = checked_figure(f"end_probability_by_step[{name}]", exact_value, floats[n + j], notes, TOLERANCE)
-    return result
+    """Chance of being in each end state after ``rounds`` steps (``solve/by_step.py``)."""
+    from oddsbench.solve.by_step import end_chances_by_step
+
+    exact_values, decimals = end_chances_by_step(chain, rounds, exact, notes, should_stop)
+    return {
+        name: checked_figure(f"end_probability_by_step[{name}]", exact_values[j], decimals[j], notes, TOLERANCE)
+        for j, name in enumerate(chain.ends)
+    }
