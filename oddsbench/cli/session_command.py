@@ -88,6 +88,10 @@ def run(args: argparse.Namespace) -> int:
 
     if (args.file is None) == (args.round is None):
         raise OddsbenchError("session: give a ruleset FILE or --round NET:PROB,..., not both and not neither")
+    if args.series_csv:
+        from oddsbench.model.atomic_write import check_target
+
+        check_target(args.series_csv, force=args.force)  # refused before the work, not after it
     game = inline_round(args.round) if args.round is not None else load_game(args.file)
     settings = settings_of(args, sessions=True)
     if session_settings(game, settings.session).no_goal:
