@@ -21,6 +21,7 @@ _PARAM = re.compile(rf"^param (?P<name>{_QUOTED})")
 _STRATEGY = re.compile(rf"^strategy (?P<name>{_QUOTED})(?:, (?P<field>.+))?$")
 _RULE = re.compile(r"^rule (?P<number>\d+)(?:, (?P<field>family|when|action)\b)?")
 _HEAD = re.compile(r"^\[ruleset\](?:, (?P<field>\w+))?")
+_DECK = re.compile(r"^\[deck\](?:, (?P<field>\w+)(?:, (?P<name>\w+))?)?")
 
 
 _MEMBER = re.compile(rf"^ \(family (?P<family>{_QUOTED}) at (?P<index>[^)]*)\)")
@@ -34,10 +35,11 @@ _LET_NAME = re.compile(r"^let (?P<name>[A-Za-z_]\w*): ")
 
 @dataclass(frozen=True)
 class Place:
-    """A section (``ruleset``, ``params``, ``states``, ``families``, ``strategies``, ``session``,
+    """A section (``ruleset``, ``params``, ``deck``, ``states``, ``families``, ``strategies``, ``session``,
     ``file``) and the spot in it. ``family`` names the family of a generated state (with ``index``,
     its index values as written, ``t=5``) or the family a ``families`` problem is in; ``part``
-    names the row of an ``each``, ``let`` or ``index`` part where the message says which."""
+    names the row of an ``each``, ``let`` or ``index`` part where the message says which; for the
+    deck: the field, and the item or rank named after it (``name``)."""
 
     section: str
     state: str | None = None
@@ -94,6 +96,8 @@ def place_of(problem: Problem) -> Place:
         return Place("strategies", name=_unquote(match["name"]), field=field)
     if match := _HEAD.match(where):
         return Place("ruleset", field=match["field"])
+    if match := _DECK.match(where):
+        return Place("deck", field=match["field"], name=match["name"])
     if where.startswith("[session]"):
         return Place("session")
     if where.startswith("[states]"):

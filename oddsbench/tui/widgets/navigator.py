@@ -1,5 +1,5 @@
-"""The list on the left: the round's setup, its parameters and session, then every state, family and
-strategy of the file. Keys here add (asking which kind), rename, delete and change a state's kind."""
+"""The list on the left: the round's setup, its parameters, session and deck, then every state, family
+and strategy of the file. Keys here add (asking which kind), rename, delete and change a state's kind."""
 
 from __future__ import annotations
 
@@ -15,6 +15,7 @@ from oddsbench.tui.plain import plain
 SETUP = "setup:"
 PARAMS = "params:"
 SESSION = "session:"
+DECK = "deck:"
 STATE = "state:"
 FAMILY = "family:"
 STRATEGY = "strategy:"
@@ -64,6 +65,7 @@ class Navigator(OptionList):
             Option(Text("Round setup", style="bold"), id=SETUP),
             Option(Text(f"Parameters ({len(document.params())})", style="bold"), id=PARAMS),
             Option(Text("Session", style="bold"), id=SESSION),
+            Option(Text("Deck", style="bold"), id=DECK),
             section("states"),
         ]
         for name in document.state_names():

@@ -15,6 +15,7 @@ from oddsbench.model.errors import Problem
 from oddsbench.model.places import Place, place_of
 from oddsbench.model.visible import visible
 from oddsbench.tui.plain import plain
+from oddsbench.tui.widgets.draw_editor import DrawEditor
 from oddsbench.tui.widgets.edits import EditRequested
 from oddsbench.tui.widgets.fields import FieldRow
 from oddsbench.tui.widgets.outcomes import OutcomeCommand, OutcomesPanel, OutcomeTable
@@ -67,6 +68,7 @@ class StateEditor(Vertical):
     def compose(self) -> ComposeResult:
         yield Static("", id="state-heading", classes="editor-heading")
         yield Static("", id="state-message", classes="field-message")
+        yield DrawEditor(id="draw-editor")
         yield OutcomesPanel(table_id="outcomes", id="state-outcomes")
         yield EndForm(id="end-form")
 
@@ -79,6 +81,7 @@ class StateEditor(Vertical):
         self.set_class(kind == "end", "-end")
         detail = "ends the round" if kind == "end" else outcome_summary(document, state, False)
         self.query_one("#state-heading", Static).update(heading("State", state, detail))
+        self.query_one(DrawEditor).show(document, state, problems)
         mine = [(p, place) for p in problems if (place := place_of(p)).section == "states" and place.state == state]
 
         def problems_at(where: OutcomeList | None, index: int | None, field: str | None) -> list[Problem]:
@@ -89,7 +92,7 @@ class StateEditor(Vertical):
         result_row = self.query_one("#end-form FieldRow", FieldRow)
         result_row.input.show(self.result)
         result_row.show_problems([p for p, place in mine if place.field == "result" and place.outcome is None])
-        general = [p for p, place in mine if place.outcome is None and place.field != "result"]
+        general = [p for p, place in mine if place.outcome is None and place.field not in ("result", "draw")]
         message = self.query_one("#state-message", Static)
         message.update(plain("\n".join(str(p) for p in general)))
         message.set_class(any(p.is_error for p in general), "-error")

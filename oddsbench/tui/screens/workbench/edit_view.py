@@ -16,9 +16,10 @@ from oddsbench.model.places import place_of
 from oddsbench.tui import analysis
 from oddsbench.tui.plain import plain
 from oddsbench.tui.screens.workbench.commands import entry_command, outcome_command, param_command
+from oddsbench.tui.widgets.deck_editor import CardCounts, DeckEditor
 from oddsbench.tui.widgets.family_editor import FamilyEditor
 from oddsbench.tui.widgets.fields import Field
-from oddsbench.tui.widgets.navigator import FAMILY, PARAMS, SESSION, SETUP, STATE, STRATEGY, Navigator
+from oddsbench.tui.widgets.navigator import DECK, FAMILY, PARAMS, SESSION, SETUP, STATE, STRATEGY, Navigator
 from oddsbench.tui.widgets.outcomes import OutcomeCommand, OutcomesPanel, OutcomeTable
 from oddsbench.tui.widgets.setup_editor import ParamsEditor, SessionEditor, SetupEditor
 from oddsbench.tui.widgets.source_view import SourceView
@@ -29,6 +30,7 @@ EDITORS = {
     SETUP: "setup-editor",
     PARAMS: "params-editor",
     SESSION: "session-editor",
+    DECK: "deck-editor",
     STATE: "state-editor",
     FAMILY: "family-editor",
     STRATEGY: "strategy-editor",
@@ -84,6 +86,9 @@ class EditView:
             self.query_one(ParamsEditor).show(document, problems)
         elif kind == SESSION:
             self.query_one(SessionEditor).show(document, self._session_problem())
+        elif kind == DECK:
+            deck = self.reading.ruleset.deck if self.reading and self.reading.ruleset else None
+            self.query_one(DeckEditor).show(document, deck, problems)
         elif kind == STATE:
             self.query_one(StateEditor).show(document, name, problems)
         elif kind == FAMILY:
@@ -138,8 +143,12 @@ class EditView:
             target = self.query_one(StrategyTable)
         elif current == "params-editor":
             target = self.query_one("#params-table")
+        elif current == "deck-editor":
+            target = self.query_one(CardCounts)
         elif current in ("setup-editor", "session-editor"):
             target = self.query_one(f"#{current} Field")
+        if current == "deck-editor" and target not in self.focus_chain:
+            target = self.query_one(DeckEditor)  # no deck yet: its keys add one
         if isinstance(target, Field):
             target.enter()
         elif target is not None:
@@ -157,6 +166,10 @@ class EditView:
                     target = ancestor.query_one(StrategyTable)
                 elif isinstance(ancestor, ParamsEditor):
                     target = ancestor.query_one("#params-table")
+                elif isinstance(ancestor, DeckEditor):
+                    target = ancestor.query_one(CardCounts)
+                elif isinstance(ancestor, StateEditor):  # a field of the draw, above the outcomes
+                    target = ancestor.query_one(OutcomeTable)
                 elif isinstance(ancestor, FamilyEditor):
                     target = ancestor.query_one("#family-tabs Tabs")
                 else:

@@ -9,6 +9,7 @@ from textual.widgets import ContentSwitcher, Footer, ProgressBar, Static
 
 from oddsbench.tui import analysis
 from oddsbench.tui.widgets.cautions import CautionsBar
+from oddsbench.tui.widgets.deck_editor import DeckEditor
 from oddsbench.tui.widgets.family_editor import FamilyEditor
 from oddsbench.tui.widgets.figures import FiguresTable, SummaryLine
 from oddsbench.tui.widgets.navigator import Navigator
@@ -33,6 +34,7 @@ def workbench_layout() -> ComposeResult:
                     yield SetupEditor(id="setup-editor")
                     yield ParamsEditor(id="params-editor")
                     yield SessionEditor(id="session-editor")
+                    yield DeckEditor(id="deck-editor")
                     yield StateEditor(id="state-editor")
                     yield FamilyEditor(id="family-editor")
                     yield StrategyEditor(id="strategy-editor")
