@@ -19,10 +19,11 @@ import pytest
 
 from oddsbench.chain.round_chain import build_round_chain
 from oddsbench.model.numbers import QQ
-from oddsbench.model.ruleset import Outcome, Ruleset, State
+from oddsbench.model.ruleset import Ruleset
 from oddsbench.solve.cancel import SolveCancelled, cancellable
 from oddsbench.solve.linear import ExactSparseLU, costs, factor_exact, identity_minus
 from oddsbench.solve.round import solve_round
+from tests.unit.test_numerics_limits import walk
 
 UP = QQ(10**59 + 12_345, 2 * 10**59 + 7)  # an invented chance with a 60-digit denominator
 STATES = 60
@@ -30,14 +31,7 @@ STATES = 60
 
 def long_walk(goal: int = STATES + 1) -> Ruleset:
     """A +1/-1 walk on bankrolls 0..goal from the middle (goal - 1 transient states)."""
-    states = [
-        State(
-            name=f"b{z}", outcomes=(Outcome(f"b{z + 1}", UP, QQ(1), QQ(0)), Outcome(f"b{z - 1}", 1 - UP, QQ(-1), QQ(0)))
-        )
-        for z in range(1, goal)
-    ]
-    states += [State(name="b0", result="ruin"), State(name=f"b{goal}", result="goal")]
-    return Ruleset(title="walk", start=f"b{goal // 2}", stake=QQ(1), states=tuple(states))
+    return walk(goal, goal // 2, UP)
 
 
 class CountedRows(list):
