@@ -314,7 +314,9 @@ async def test_escape_cancels_a_long_solve_and_keeps_the_workbench_responsive(tm
 
     monkeypatch.setattr(analysis, "solve_round_text", held_solve)
     path = tmp_path / "walk.toml"
-    path.write_text(long_walk(3000))  # an exact solve of many seconds, even on a fast machine
+    # held at its first check, the engine needs no size to be cancelled there; a long factorisation
+    # could give way to decimals on a loaded machine (the work budget) and never reach a solve
+    path.write_text(long_walk(3000 if held_in == "factorisation" else 300))
     app = app_on(path, tmp_path)
     async with app.run_test(size=(100, 30)) as pilot:
         assert await asyncio.to_thread(asked.wait, HANG_GUARD)  # the engine is inside the solve
