@@ -14,6 +14,7 @@ Entry points:
 - ``simulate(game, settings, work) -> Simulation``: rounds, or sessions per plan
 - ``read_spec(path)``, ``sweep(spec, workers, cluster, work) -> SweepResult``, ``solve_point(...)``
 - ``report_figures(game, settings, work) -> ReportFigures``
+- ``horizon(game, rounds, settings, work) -> HorizonResults``: the total net after N rounds
 """
 
 import importlib as _importlib
@@ -27,6 +28,8 @@ _WHERE = {
     "load_game": "game",
     "check_size": "game",
     "dealt_size": "game",
+    "HorizonResults": "horizons",
+    "horizon": "horizons",
     "ReportFigures": "reports",
     "report_figures": "reports",
     "BestResults": "rounds",

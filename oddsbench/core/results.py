@@ -2,6 +2,7 @@
 import them from here, never from the engines (so an engine can move without touching them)."""
 
 from oddsbench.chain.round_distribution import RoundDistribution, RoundOutcome
+from oddsbench.core.horizons import HorizonResults
 from oddsbench.core.reports import ReportFigures
 from oddsbench.core.rounds import BestResults
 from oddsbench.core.session import PlanResult, SessionResults
@@ -10,6 +11,8 @@ from oddsbench.model.figure import Figure
 from oddsbench.simulate.checks import Check
 from oddsbench.simulate.round_sim import RoundSample
 from oddsbench.simulate.session_sim import SessionSample
+from oddsbench.solve.horizon import Horizon, ReturnRange
+from oddsbench.solve.return_table import NetValue, PayShare, ReturnTable
 from oddsbench.solve.round import RoundFigures
 from oddsbench.solve.ruin import Certified, NoGoalRuin, RoundsToRuin
 from oddsbench.solve.session import FinalValue
@@ -30,14 +33,20 @@ __all__ = [
     "Check",
     "Figure",
     "FinalValue",
+    "Horizon",
+    "HorizonResults",
     "Improvement",
     "NoGoalFigures",
     "NoGoalRuin",
+    "NetValue",
     "NoGoalWalk",
+    "PayShare",
     "PlanResult",
     "Point",
     "PointResult",
     "ReportFigures",
+    "ReturnRange",
+    "ReturnTable",
     "RoundColumn",
     "RoundDistribution",
     "RoundFigures",

@@ -18,7 +18,7 @@ from oddsbench.chain.deal import HandCounts
 from oddsbench.chain.round_chain import RoundChain
 from oddsbench.model.defaults import DEFAULT_EXACT_BITS, ROUND_EXACT_LIMIT
 from oddsbench.model.errors import OddsbenchError
-from oddsbench.model.figure import Figure
+from oddsbench.model.figure import Figure, all_exact
 from oddsbench.model.numbers import QQ, Rational, log10_abs, to_float
 from oddsbench.solve.linear import (
     ExactTooLarge,
@@ -29,6 +29,7 @@ from oddsbench.solve.linear import (
     identity_minus_float,
     sparse_from_rows,
 )
+from oddsbench.solve.return_table import CHANCE_FIGURES, ReturnTable, net_sd, return_table
 
 DEFAULT_EXACT_LIMIT = ROUND_EXACT_LIMIT
 RELATIVE_TOLERANCE = 1e-9
@@ -68,10 +69,11 @@ class RoundFigures:
     notes: tuple[str, ...] = ()
     actions: tuple[tuple[str, str], ...] = ()
     hands: HandCounts | None = None  # a deck game dealt in one draw: each end's count of hands
+    return_table: ReturnTable | None = None  # the net law and each paying step's share (exact only)
 
     @property
     def exact(self) -> bool:
-        return all(figure.exact is not None for figure in self.figures.values())
+        return all_exact((name, figure.exact) for name, figure in self.figures.items())
 
 
 @dataclass
@@ -93,8 +95,10 @@ def solve_round(
     exact_limit: int = DEFAULT_EXACT_LIMIT,
     should_stop: Callable[[], bool] | None = None,
     exact_bits: int | None = DEFAULT_EXACT_BITS,
+    with_return_table: bool = True,
 ) -> RoundFigures:
-    """Solve a round chain both ways and collect figures, notes and checks."""
+    """Solve a round chain both ways and collect figures, notes and checks (``with_return_table``
+    False skips the net law and the hit, push and loss chances: a caller that needs only moments)."""
     notes: list[str] = []
     exact = None
     if chain.transient_count <= exact_limit:
@@ -131,6 +135,10 @@ def solve_round(
     with np.errstate(all="ignore"):
         figures, ends = _figures(chain, exact, decimal, notes)
     results = _by_result(chain, ends)
+    _add_net_sd(figures)
+    table = None
+    if with_return_table:
+        table = _return_table(chain, figures, exact is not None, exact_limit, should_stop, exact_bits, notes)
     by_step: dict[str, Figure] = {}
     if rounds is not None:
         by_step = _by_step(chain, rounds, exact is not None, notes, should_stop)
@@ -147,7 +155,44 @@ def solve_round(
         end_probability_by_step=by_step,
         notes=tuple(notes),
         actions=chain.actions,
+        return_table=table,
     )
+
+
+def _add_net_sd(figures: dict[str, Figure]) -> None:
+    """``net_sd`` right after ``net_variance``, where something is staked."""
+    if "house_edge" not in figures:
+        return
+    ordered = {}
+    for name, figure in figures.items():
+        ordered[name] = figure
+        if name == "net_variance":
+            ordered["net_sd"] = net_sd(figure, figures["expected_staked"])
+    figures.clear()
+    figures.update(ordered)
+
+
+def _return_table(
+    chain: RoundChain,
+    figures: dict[str, Figure],
+    exact: bool,
+    exact_limit: int,
+    should_stop: Callable[[], bool] | None,
+    exact_bits: int | None,
+    notes: list[str],
+) -> ReturnTable | None:
+    """Where exact arithmetic ran, add the hit, push and loss chances to ``figures``; return the
+    table (None, with a note, when it is not listed)."""
+    if not exact:
+        notes.append("return table (net law; hit, push and loss chances) not listed: it needs exact arithmetic")
+        return None
+    table = return_table(chain, exact_limit, should_stop, exact_bits)
+    if isinstance(table, str):
+        notes.append(table)
+        return None
+    figures.update((name, table.chances[name]) for name in CHANCE_FIGURES)
+    notes.extend(table.notes)
+    return table
 
 
 def _one_step(chain: RoundChain, weight: Callable) -> list:
