@@ -22,7 +22,7 @@ def register(commands) -> None:
         "expected_steps, steps_variance, hit_frequency, push_probability, loss_probability, end:STATE,\n"
         "result:LABEL. VALUE: exact (1/40, 0.025), or a percentage (2.5%).\n"
         "Examples:\n  oddsbench tune rulesets/single-zero-wheel.toml --vary payout\n"
-        "  oddsbench tune rulesets/three-card-hands.toml --vary ... --target house_edge=2%\n"
+        "  oddsbench tune rulesets/pair-side-bet-six-decks.toml --vary pays --target house_edge=5%\n"
         "  oddsbench tune rulesets/deuce-game.toml --vary p --target end:won=1/2\n\n"
         "Figures are mathematics, not advice.",
     )

@@ -33,6 +33,7 @@ from oddsbench.solve.rational_function import (
     DegreeBoundFailed,
     RationalFunction,
     Solution,
+    poly_value,
     reconstruct,
     sign_at,
     solutions,
@@ -374,7 +375,7 @@ def _valid_range(constraints) -> tuple[tuple[Edge, Edge], ...]:
     ends = [None, *ordered, None]
     for left, right in zip(ends, ends[1:]):
         inside = _between(left, right)
-        ok = all(0 <= _at(chance, inside) <= 1 for chance in constraints)
+        ok = all(0 <= poly_value(chance, inside) <= 1 for chance in constraints)
         if ok and start is None:
             start = Edge(left, False)
         if not ok and start is not None:
@@ -402,13 +403,6 @@ def _integer_function(chance: tuple[Rational, ...]) -> RationalFunction:
 
     scale = math.lcm(*(denominator(c) for c in chance))
     return RationalFunction(tuple(numerator(c * scale) for c in chance), (scale,))
-
-
-def _at(chance: tuple[Rational, ...], value: Rational) -> Rational:
-    total = QQ(0)
-    for c in reversed(chance):
-        total = total * value + c
-    return total
 
 
 def _between(left: Solution | None, right: Solution | None) -> Rational:

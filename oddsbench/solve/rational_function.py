@@ -39,7 +39,7 @@ class RationalFunction:
     denominator: tuple[int, ...]
 
     def __call__(self, x: Rational) -> Rational:
-        return _value(self.numerator, x) / _value(self.denominator, x)
+        return poly_value(self.numerator, x) / poly_value(self.denominator, x)
 
     @property
     def degrees(self) -> tuple[int, int]:
@@ -58,7 +58,8 @@ class RationalFunction:
         return f"{top}/{bottom}"
 
 
-def _value(coefficients: Sequence[int], x: Rational) -> Rational:
+def poly_value(coefficients: Sequence[Rational], x: Rational) -> Rational:
+    """A polynomial (coefficients lowest power first) at x, by Horner's rule, exactly."""
     total = QQ(0)
     for c in reversed(coefficients):
         total = total * x + c
@@ -107,7 +108,7 @@ def reconstruct(points: Sequence[tuple[Rational, Rational]], top: int, bottom: i
     common = r1.gcd(u1) if r1 != 0 else u1
     result = _normalised(r1 / common if r1 != 0 else fmpq_poly([0]), u1 / common)
     for x, y in points:
-        if _value(result.denominator, x) == 0 or result(x) != y:
+        if poly_value(result.denominator, x) == 0 or result(x) != y:
             raise DegreeBoundFailed("the values do not fit one rational function within the degree bounds")
     return result
 
@@ -196,7 +197,7 @@ def solutions(f: RationalFunction, target: Rational) -> tuple[Solution, ...] | N
         low_first = tuple(int(c) for c in factor.coeffs())
         if len(low_first) == 2:
             root = QQ(-low_first[0], low_first[1])
-            if _value(f.denominator, root) != 0:
+            if poly_value(f.denominator, root) != 0:
                 found.append(Solution(root, low_first, 0, certified_exact(root, ROOT_DIGITS), to_float(root)))
             continue
         for index, ball in enumerate(_real_root_balls(factor)):
@@ -227,7 +228,7 @@ def sign_at(low_first: Sequence[Rational], solution: Solution) -> int | None:
     proved by ball arithmetic for an algebraic one (None when the ball cannot tell: the value is 0
     or too close to it at the working precision)."""
     if solution.exact is not None:
-        value = _value([QQ(c) if not isinstance(c, int) else c for c in low_first], solution.exact)
+        value = poly_value([QQ(c) if not isinstance(c, int) else c for c in low_first], solution.exact)
         return (value > 0) - (value < 0)
     from flint import arb, fmpq, fmpz_poly
 
