@@ -137,7 +137,7 @@ def main(argv: Sequence[str] | None = None, hard_limits: bool = False) -> int:
 def _run(args: argparse.Namespace, hard_limits: bool = False) -> int:
     """One command under its work budget, with every expected failure turned into its exit code and one line."""
     from oddsbench.model import budget as budgets
-    from oddsbench.model.families import state_limit
+    from oddsbench.model.family_budget import state_limit
 
     budget = budget_of(args)
     if hard_limits and budget is not None:

@@ -52,12 +52,14 @@ def chosen_format(requested: str | None, output: str | None) -> str:
 def run(args: argparse.Namespace) -> int:
     from oddsbench.cli.options import load_game, settings_of, wants_session
     from oddsbench.core import report_figures
-    from oddsbench.model.atomic_write import write_atomically
+    from oddsbench.model.atomic_write import check_target, write_atomically
     from oddsbench.report.document import build_report
     from oddsbench.report.render_csv import render_csv
     from oddsbench.report.render_json import render_json
     from oddsbench.report.render_markdown import render_markdown
 
+    if args.output is not None:
+        check_target(args.output, force=args.force)  # refused before the work, not after it
     settings = settings_of(args, sessions=wants_session(args), strategies=tuple(args.strategy))
     document = build_report(report_figures(load_game(args.file), settings))
     fmt = chosen_format(args.format, args.output)

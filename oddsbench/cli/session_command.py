@@ -86,6 +86,10 @@ def run(args: argparse.Namespace) -> int:
     from oddsbench.report.json_output import dumps
     from oddsbench.report.session_report import series_csv, session_json, session_text
 
+    if args.series_csv:
+        from oddsbench.model.atomic_write import check_target
+
+        check_target(args.series_csv, force=args.force)  # refused before the work, not after it
     game = file_or_round(args, "session")
     settings = settings_of(args, sessions=True)
     if session_settings(game, settings.session).no_goal:
