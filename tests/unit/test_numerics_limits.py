@@ -18,7 +18,7 @@ from oddsbench.model.load import load_ruleset_text
 from oddsbench.model.numbers import QQ, to_float
 from oddsbench.model.ruleset import Outcome, Ruleset, State
 from oddsbench.solve.cancel import SolveCancelled
-from oddsbench.solve.linear import ExactTooLarge, factor_exact, identity_minus
+from oddsbench.solve.linear import ExactTooLarge, costs, factor_exact, identity_minus
 from oddsbench.solve.round import solve_round
 
 
@@ -120,10 +120,12 @@ def test_a_long_exact_solve_is_cancelled_at_the_check_that_asks():
     assert len(calls) == 2  # checked every 64 rows: stopped at the second check
 
 
-def test_the_factorisation_asks_whether_to_stop_every_64_rows():
+def test_the_factorisation_asks_whether_to_stop_every_64_rows(monkeypatch):
     # How prompt a cancel is, in work rather than seconds (the time is a benchmark:
     # tests/benchmarks/bench_cancellation.py): rows 0, 64, ..., 960 of 999 ask (a walk's rows
-    # are too light for the every-4,096-operations check to add any).
+    # are too light for the every-4,096-operations check to add any). Rows between ask too once
+    # costs.POLL_SECONDS has passed (tests/unit/test_exact_solve_cancel.py); never here.
+    monkeypatch.setattr(costs, "POLL_SECONDS", 3600.0)
     rows = identity_minus(build_round_chain(walk(1_000, 500, QQ(18, 37))).q_rows())
     asked = []
     factor_exact(rows, should_stop=lambda: asked.append(len(asked)) or False)
