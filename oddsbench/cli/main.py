@@ -20,6 +20,7 @@ from oddsbench.cli import (
     simulate_command,
     solve_command,
     sweep_command,
+    tune_command,
 )
 from oddsbench.cli.options import add_budget, budget_of
 from oddsbench.model.errors import OddsbenchError, RulesetError, one_line
@@ -34,6 +35,7 @@ COMMANDS = (
     report_command,
     sweep_command,
     horizon_command,
+    tune_command,
     open_command,
 )
 EXIT_BAD_INPUT = 2
@@ -55,7 +57,8 @@ class OneLineParser(argparse.ArgumentParser):
 # argparse would take ``--round -1:1/2,...`` for two options, so such a value is joined to its
 # option as ``--round=-1:1/2,...`` before parsing.
 SIGNED_VALUE_OPTIONS = frozenset(
-    {"--round", "--target", "--floor", "--bankroll", "--goal", "--min-bet", "--max-bet", "--unit", "--plan"}
+    {"--round", "--target", "--between", "--floor", "--bankroll", "--goal", "--min-bet", "--max-bet", "--unit"}
+    | {"--plan"}
 )
 
 

@@ -15,6 +15,7 @@ Entry points:
 - ``read_spec(path)``, ``sweep(spec, workers, cluster, work) -> SweepResult``, ``solve_point(...)``
 - ``report_figures(game, settings, work) -> ReportFigures``
 - ``horizon(game, rounds, settings, work) -> HorizonResults``: the total net after N rounds
+- ``tune(game, name, (figure, value), settings, tolerance, between, work) -> TuneResults``
 """
 
 import importlib as _importlib
@@ -52,6 +53,10 @@ _WHERE = {
     "solve_point": "sweeps",
     "solve_task": "sweeps",
     "sweep": "sweeps",
+    "TuneResults": "tuning",
+    "parse_amount": "tuning",
+    "parse_target": "tuning",
+    "tune": "tuning",
     "NO_WORK": "work",
     "Budget": "work",
     "Cancelled": "work",

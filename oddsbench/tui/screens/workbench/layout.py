@@ -9,6 +9,7 @@ from textual.widgets import ContentSwitcher, Footer, ProgressBar, Static, TextAr
 
 from oddsbench.tui import analysis
 from oddsbench.tui.widgets.cautions import CautionsBar
+from oddsbench.tui.widgets.deck_editor import DeckEditor
 from oddsbench.tui.widgets.figures import FiguresTable, SummaryLine
 from oddsbench.tui.widgets.navigator import Navigator
 from oddsbench.tui.widgets.problems import ProblemsPanel
@@ -36,6 +37,7 @@ def workbench_layout() -> ComposeResult:
                     yield SetupEditor(id="setup-editor")
                     yield ParamsEditor(id="params-editor")
                     yield SessionEditor(id="session-editor")
+                    yield DeckEditor(id="deck-editor")
                     yield StateEditor(id="state-editor")
                 yield ProblemsPanel(id="problems")
             with Vertical(id="side-figures"):
