@@ -60,3 +60,21 @@ async def test_random_keys_on_a_family_ruleset_lose_nothing(tmp_path, name, seed
             assert copy is not None and copy.text == session.text, f"{name}, seed {seed}: unsaved text not kept: {keys}"
         else:
             assert copy is None, f"{name}, seed {seed}: a copy is left with nothing unsaved: {keys}"
+
+
+async def test_back_from_the_help_the_keys_go_to_the_view_shown_not_the_hidden_state_list(tmp_path):
+    """Found by the fuzz (seed 3, dealer): with nothing focused in the Strategies view, closing the
+    help gave the focus to the hidden state list; its Page Down ended the app, its d deletes a state."""
+    path = copy_ruleset("dealer-stands-soft-17.toml", tmp_path)
+    app = app_on(path, tmp_path)
+    async with app.run_test(size=(100, 30)) as pilot:
+        await settle(pilot)
+        await pilot.press("f4")
+        await settle(pilot)
+        app.workbench.set_focus(None)  # as after the focused row went away
+        await pilot.press("f1", "escape")
+        await settle(pilot)
+        assert app.focused is not None and app.focused in app.workbench.focus_chain
+        await pilot.press("pagedown", "d", "y")
+        await settle(pilot)
+        assert app.is_running and app.workbench.session.text == path.read_text()
