@@ -41,6 +41,7 @@ SCENES = (
     Scene("sessions-120x40", "single-zero-wheel.toml", (120, 40), ("f5",)),
     Scene("help-100x30", "pass-line.toml", (100, 30), ("f1",)),
     Scene("workbench-160x40", "pass-line.toml", (160, 40), ("down", "enter")),
+    Scene("deck-120x40", "three-card-hands.toml", (120, 40), ("up", "enter", *["tab"] * 6, "down", "right", "minus")),
 )
 
 
