@@ -72,7 +72,14 @@ def simulate(game: Game, settings: Settings = DEFAULTS, work: Work = NO_WORK) ->
     from oddsbench.simulate.round_sim import simulate_round
     from oddsbench.solve.round import solve_round
 
-    sample = simulate_round(chain, settings.trials or DEFAULT_ROUND_TRIALS, seed, max_steps=settings.max_steps)
+    sample = simulate_round(
+        chain,
+        settings.trials or DEFAULT_ROUND_TRIALS,
+        seed,
+        max_steps=settings.max_steps,
+        should_stop=work.should_stop,
+        progress=work.progress,
+    )
     work.check()
     figures = solve_round(chain, exact_limit=settings.round_exact_limit, should_stop=work.should_stop)
     checks = round_checks(sample, figures, settings.confidence)
@@ -104,7 +111,19 @@ def _sessions(game: Game, chain, seed: int, play: str | None, settings: Settings
         work.check()
         planned = session_chain(distribution, session, plan, limit)
         figures = analyse_session(distribution, session, plan, limit, should_stop=work.should_stop, planned=planned)
-        sample = simulate_session(planned.chain, trials, seed, player, session.max_rounds, plan=plan.spelling)
+
+        def progress(played: int, total: int, done: int = done) -> None:  # every plan's sessions, in turn
+            work.done(done * total + played, len(plans) * total)
+
+        sample = simulate_session(
+            planned.chain,
+            trials,
+            seed,
+            player,
+            session.max_rounds,
+            plan=plan.spelling,
+            should_stop=work.should_stop,
+            progress=progress,
+        )
         runs.append(SessionRun(sample, tuple(session_checks(sample, figures, settings.confidence)), figures))
-        work.done(done + 1, len(plans))
     return Simulation(game.title, seed, settings.confidence, play, session=session, runs=tuple(runs))
