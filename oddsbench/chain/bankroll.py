@@ -19,9 +19,9 @@ from dataclasses import dataclass, fields
 import numpy as np
 
 from oddsbench.chain.round_distribution import RoundDistribution
-from oddsbench.chain.session_rules import TableRules, checked_unit, grid_steps, table_rules
+from oddsbench.chain.session_rules import TableRules, checked_unit, grid_steps, machine_bets, table_rules
 from oddsbench.model.errors import OddsbenchError
-from oddsbench.model.numbers import QQ, Rational, denominator, numerator, text, to_int
+from oddsbench.model.numbers import QQ, Rational, count_text, denominator, numerator, text, to_int
 
 GOAL, RUIN, FLOOR = 0, 1, 2
 KIND_NAMES = ("goal", "ruin", "floor")
@@ -34,6 +34,12 @@ class BankrollGrid(TableRules):
 
     start: int
     goal: int
+
+    @property
+    def low(self) -> int:
+        """The ruin level, at most the goal: a minimum bet no bankroll below the goal covers leaves no
+        playing state (the same chain as any larger level, and a number that fits 64-bit arrays)."""
+        return min(TableRules.low.fget(self), self.goal)
 
     @property
     def width(self) -> int:
@@ -81,7 +87,7 @@ def make_grid(
         goal=grid_steps("session goal", goal, unit, scale),
     )
     if grid.goal > MAX_GRID:
-        raise OddsbenchError(f"session goal is {grid.goal:,} grid steps; the limit is {MAX_GRID:,}")
+        raise OddsbenchError(f"session goal is {count_text(grid.goal)} grid steps; the limit is {MAX_GRID:,}")
     return grid
 
 
@@ -162,6 +168,24 @@ def _float(value: Rational) -> float:
     return numerator(value) / denominator(value)
 
 
+MACHINE_BANKROLL = 2**62  # bankroll values (grid steps) are kept in 64-bit integers
+
+
+def _machine_steps(distribution: RoundDistribution, grid: BankrollGrid, largest_bet: int) -> np.ndarray:
+    """Each outcome's move per betting unit in grid steps, as int64, refused in one line when the largest
+    bet times the largest move would carry the bankroll past what 64-bit integers hold."""
+    steps = [to_int(o.net * grid.scale) for o in distribution.outcomes]
+    widest = max(abs(step) for step in steps)
+    if widest * largest_bet + grid.goal >= MACHINE_BANKROLL:
+        net = max(distribution.outcomes, key=lambda o: abs(o.net)).net
+        raise OddsbenchError(
+            f"a round's net result of {text(net)} per unit staked, at bets up to {count_text(largest_bet)} x "
+            f"{text(grid.unit)}, moves the bankroll by {count_text(widest * largest_bet)} grid steps of "
+            f"{text(grid.step)}; a session handles moves up to {count_text(MACHINE_BANKROLL)}"
+        )
+    return np.array(steps, dtype=np.int64)
+
+
 def build_bankroll_chain(
     distribution: RoundDistribution,
     grid: BankrollGrid,
@@ -177,10 +201,10 @@ def build_bankroll_chain(
     low, width = grid.low, grid.width
     levels = planned.shape[0] if width else 1
     values_one = np.arange(low, low + width, dtype=np.int64)
-    bets = grid.placed(np.asarray(planned, dtype=np.int64).reshape(levels, width), values_one).T.reshape(-1)
+    bets = grid.placed(machine_bets(planned).reshape(levels, width), values_one).T.reshape(-1)
     values = np.repeat(values_one, levels)
     level_of = np.tile(np.arange(levels, dtype=np.int64), width)
-    steps = np.array([to_int(o.net * grid.scale) for o in distribution.outcomes], dtype=np.int64)
+    steps = _machine_steps(distribution, grid, int(bets.max(initial=0)))
     landing = values[:, None] + bets[:, None] * steps[None, :]
     inside = (landing >= low) & (landing < grid.goal)
     nxt = np.asarray(next_level, dtype=np.int64)[level_of]

@@ -10,6 +10,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
+from oddsbench.chain.deal import dealt
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.numbers import Rational
 from oddsbench.model.ruleset import Ruleset
@@ -94,7 +95,9 @@ class DecisionChain:
 
 
 def build_decision_chain(ruleset: Ruleset) -> DecisionChain:
-    """The chain of a ruleset over every play, from its start."""
+    """The chain of a ruleset over every play, from its start (a deck game dealt out first)."""
+    if ruleset.deck is not None:
+        ruleset = dealt(ruleset)
     by_name = {state.name: state for state in ruleset.states}
     reachable = reachable_from(ruleset.start, successor_graph(ruleset.states))
     ordered = [name for name in ruleset.state_names if name in reachable and not by_name[name].is_end]

@@ -5,6 +5,7 @@ from __future__ import annotations
 from collections.abc import Mapping
 from dataclasses import dataclass
 
+from oddsbench.chain.deal import dealt
 from oddsbench.model.defaults import DEFAULT_MAX_STATES
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.numbers import QQ, Rational
@@ -92,8 +93,11 @@ def check_state_count(count: int, max_states: int | None, source: str, what: str
 def build_round_chain(
     ruleset: Ruleset, policy: Mapping[str, str] | None = None, max_states: int | None = DEFAULT_MAX_STATES
 ) -> RoundChain:
-    """The chain of one round under a policy (decision state -> action)."""
+    """The chain of one round under a policy (decision state -> action). A deck game is dealt out first
+    (``chain/deal.py``; a no-op for one already dealt), so its draws never reach the solver unexpanded."""
     policy = policy or {}
+    if ruleset.deck is not None:
+        ruleset = dealt(ruleset, max_states)
     check_state_count(len(ruleset.states), max_states, ruleset.source, "the ruleset has")
     by_name = {state.name: state for state in ruleset.states}
     graph = {

@@ -11,7 +11,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 from oddsbench.chain.session_rules import cover_of, grid_scale
-from oddsbench.model.errors import OddsbenchError
+from oddsbench.model.errors import OddsbenchError, shown_name
 from oddsbench.model.numbers import QQ, Rational, text, to_float
 
 
@@ -94,7 +94,7 @@ def parse_round_text(spec: str) -> RoundDistribution:
     """
     from oddsbench.model.expr import ExpressionError, evaluate_text
 
-    source = f"--round {spec!r}"
+    source = f"--round {shown_name(spec)}"
     outcomes = []
     items = [item.strip() for item in spec.split(",") if item.strip()]
     if not items:
@@ -102,10 +102,10 @@ def parse_round_text(spec: str) -> RoundDistribution:
     for item in items:
         fields = [field.strip() for field in item.split(":")]
         if len(fields) not in (2, 3) or not all(fields):
-            raise OddsbenchError(f"{source}: {item!r} is not net:probability or net:probability:extra")
+            raise OddsbenchError(f"{source}: {shown_name(item)} is not net:probability or net:probability:extra")
         try:
             values = [evaluate_text(field) for field in fields]
         except ExpressionError as error:
-            raise OddsbenchError(f"{source}: {item!r}: {error}") from None
+            raise OddsbenchError(f"{source}: {shown_name(item)}: {error}") from None
         outcomes.append(RoundOutcome(values[0], values[1], values[2] if len(values) == 3 else QQ(0)))
     return make_distribution("inline round", outcomes, source)

@@ -20,11 +20,13 @@ from __future__ import annotations
 from collections.abc import Iterable
 from dataclasses import dataclass
 from math import gcd, lcm
-
-import numpy as np
+from typing import TYPE_CHECKING
 
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.numbers import QQ, Rational, denominator, is_integer, numerator, text, to_int
+
+if TYPE_CHECKING:
+    import numpy as np
 
 
 def rational_gcd(values: Iterable[Rational]) -> Rational:
@@ -57,6 +59,36 @@ def cover_of(outcomes: Iterable[tuple[Rational, Rational]]) -> Rational:
     return max(max(1 + extra, -net) for net, extra in outcomes)
 
 
+MACHINE_BET = 2**62  # the largest bet (betting units) kept in a 64-bit array; larger planned bets are cut to it
+
+
+def floor_times(values, fraction: Rational):
+    """floor(value x fraction) for a whole number or an array of them, exactly, without 64-bit overflow.
+
+    numpy's int64 when every product fits, Python's integers otherwise (results past
+    ``MACHINE_BET`` are cut to it: a bet no grid bankroll covers).
+    """
+    import numpy as np  # here, not at the top: reading a ruleset must not load numpy
+
+    top, bottom = numerator(fraction), denominator(fraction)
+    if isinstance(values, int):
+        return (values * top) // bottom
+    values = np.asarray(values, dtype=np.int64)
+    largest = int(np.abs(values).max(initial=0))
+    if largest * abs(top) < 2**62 and bottom < 2**62:
+        return (values * top) // bottom
+    return np.array([min(v * top // bottom, MACHINE_BET) for v in values.tolist()], dtype=np.int64)
+
+
+def machine_bets(planned) -> np.ndarray:
+    """Planned bets (betting units, whole numbers of any size) as an int64 array, each cut to ``MACHINE_BET``."""
+    import numpy as np
+
+    if isinstance(planned, np.ndarray) and planned.dtype != object:
+        return planned.astype(np.int64)
+    return np.vectorize(lambda bet: min(int(bet), MACHINE_BET), otypes=[np.int64])(np.asarray(planned, dtype=object))
+
+
 def grid_steps(label: str, value: Rational, unit: Rational, scale: int) -> int:
     """``value`` in grid steps (the betting unit split by the payouts' common denominator ``scale``).
 
@@ -76,7 +108,7 @@ def whole_units(label: str, value: Rational, unit: Rational) -> int:
     """A bet amount in betting units: whole and at least one, or refused in one line."""
     count = value / unit
     if not is_integer(count) or count < 1:
-        raise OddsbenchError(f"{label} {text(value)} must be a whole, positive number of betting units")
+        raise OddsbenchError(f"{label} {text(value)} must be a whole, positive number of betting units of {text(unit)}")
     return to_int(count)
 
 
@@ -108,10 +140,7 @@ class TableRules:
 
     def coverable(self, values):
         """Largest bet (betting units) each bankroll (grid steps) can cover for the round's worst case."""
-        top, bottom = numerator(self.cover), denominator(self.cover)
-        if isinstance(values, int):
-            return (values * bottom) // (top * self.scale)
-        return (np.asarray(values, dtype=np.int64) * bottom) // (top * self.scale)
+        return floor_times(values, QQ(denominator(self.cover), numerator(self.cover) * self.scale))
 
     def cover_steps(self, units: int) -> int:
         """Grid steps a bet of ``units`` betting units needs: ceil(units x scale x cover)."""
@@ -124,14 +153,23 @@ class TableRules:
         return max(self.floor + 1, self.cover_steps(self.min_bet), 1)
 
     def table_bet(self, planned):
-        """A planned bet (betting units) raised to the table minimum and cut to the table maximum."""
-        raised = np.maximum(planned, self.min_bet) if isinstance(planned, np.ndarray) else max(planned, self.min_bet)
-        if self.max_bet is None:
-            return raised
-        return np.minimum(raised, self.max_bet) if isinstance(raised, np.ndarray) else min(raised, self.max_bet)
+        """A planned bet (betting units) raised to the table minimum and cut to the table maximum.
+
+        For arrays the limits are cut to ``MACHINE_BET``: no bankroll on a grid covers that much, so
+        the bet placed is the same, and a minimum of 10^60 units cannot overflow 64-bit integers.
+        """
+        import numpy as np
+
+        if not isinstance(planned, np.ndarray):
+            raised = max(planned, self.min_bet)
+            return raised if self.max_bet is None else min(raised, self.max_bet)
+        raised = np.maximum(planned, min(self.min_bet, MACHINE_BET))
+        return raised if self.max_bet is None else np.minimum(raised, min(self.max_bet, MACHINE_BET))
 
     def largest_bet(self, values):
         """The largest bet each playing bankroll may place: what it covers, cut to the table maximum."""
+        import numpy as np
+
         cap = self.coverable(values)
         if self.max_bet is None:
             return cap
@@ -139,6 +177,8 @@ class TableRules:
 
     def placed(self, planned, values):
         """The bet actually placed: ``table_bet(planned)`` cut to what the bankroll covers (the cut bet)."""
+        import numpy as np
+
         covered = self.coverable(values)
         bet = self.table_bet(planned)
         if isinstance(bet, np.ndarray) or isinstance(covered, np.ndarray):

@@ -29,13 +29,17 @@ def run(args: argparse.Namespace) -> int:
     if result.ruleset is None:
         return 2
     ruleset = result.ruleset
-    from oddsbench.core.game import check_size
+    from oddsbench.core.game import check_size, dealt_size
 
     check_size(ruleset, args.max_states)
+    dealt = dealt_size(ruleset, args.max_states)
     ends = sum(1 for state in ruleset.states if state.is_end)
     decisions = sum(1 for state in ruleset.states if state.is_decision)
     summary = f"{ruleset.source}: valid: {len(ruleset.states)} states, {ends} end states"
     if decisions:
         summary += f", {decisions} decision states, {len(ruleset.strategies)} strategies"
+    if dealt is not None:
+        states = f"{dealt:,} state{'' if dealt == 1 else 's'}"
+        summary += f"; dealt from {ruleset.deck.describe()}: {states} from {ruleset.start!r}"
     print(summary)
     return 0

@@ -5,7 +5,9 @@ from __future__ import annotations
 import argparse
 import os
 import sys
-from collections.abc import Sequence
+from collections.abc import Iterator, Sequence
+from contextlib import contextmanager
+from typing import NoReturn, TextIO
 
 from oddsbench import __version__
 from oddsbench.cli import (
@@ -18,7 +20,8 @@ from oddsbench.cli import (
     solve_command,
     sweep_command,
 )
-from oddsbench.model.errors import OddsbenchError, RulesetError
+from oddsbench.model.errors import OddsbenchError, RulesetError, one_line
+from oddsbench.model.visible import visible
 
 COMMANDS = (
     check_command,
@@ -36,8 +39,62 @@ EXIT_INTERRUPTED = 130
 EXIT_BROKEN_PIPE = 141
 
 
+class OneLineParser(argparse.ArgumentParser):
+    """argparse with a bad option as one line (and exit 2), not the whole usage block."""
+
+    def error(self, message: str) -> NoReturn:
+        self.exit(EXIT_BAD_INPUT, f"{self.prog}: {message} (see {self.prog} --help)\n")
+
+
+# Options whose value may start with a minus sign (a losing net result, a negative amount):
+# argparse would take ``--round -1:1/2,...`` for two options, so such a value is joined to its
+# option as ``--round=-1:1/2,...`` before parsing.
+SIGNED_VALUE_OPTIONS = frozenset(
+    {"--round", "--floor", "--bankroll", "--goal", "--min-bet", "--max-bet", "--unit", "--plan"}
+)
+
+
+def joined_signed_values(argv: Sequence[str]) -> list[str]:
+    """``--round -1:1/2`` as ``--round=-1:1/2`` (only for a value that starts with a minus and a digit)."""
+    joined: list[str] = []
+    pending = False
+    for arg in argv:
+        if pending and len(arg) > 1 and arg[0] == "-" and (arg[1].isdigit() or arg[1] in "./("):
+            joined[-1] = f"{joined[-1]}={arg}"
+        else:
+            joined.append(arg)
+        pending = arg in SIGNED_VALUE_OPTIONS
+    return joined
+
+
+class VisibleStream:
+    """A text stream whose text is written through ``visible``: nothing a file holds (a title, a
+    name, a path) can drive the terminal. ``raw`` is the stream underneath (for our own progress bar)."""
+
+    def __init__(self, raw: TextIO) -> None:
+        self.raw = raw
+
+    def write(self, text: str) -> int:
+        self.raw.write(visible(text, multiline=True))
+        return len(text)
+
+    def __getattr__(self, name: str):
+        return getattr(self.raw, name)
+
+
+@contextmanager
+def visible_output() -> Iterator[None]:
+    """stdout and stderr made visible while one command runs (the workbench draws its own screen)."""
+    streams = sys.stdout, sys.stderr
+    sys.stdout, sys.stderr = VisibleStream(sys.stdout), VisibleStream(sys.stderr)
+    try:
+        yield
+    finally:
+        sys.stdout, sys.stderr = streams
+
+
 def build_parser() -> argparse.ArgumentParser:
-    parser = argparse.ArgumentParser(
+    parser = OneLineParser(
         prog="oddsbench",
         description="Exact and decimal mathematics of games of chance: house edge, risk of ruin, "
         "durations, strategies. Run without a command to open the workbench.",
@@ -55,7 +112,13 @@ def main(argv: Sequence[str] | None = None) -> int:
         if hasattr(stream, "reconfigure"):
             stream.reconfigure(errors="backslashreplace")  # odd names never crash the output
     parser = build_parser()
-    args = parser.parse_args(argv)
+    with visible_output():  # the workbench draws on the terminal itself (sys.__stderr__), not through these
+        args = parser.parse_args(joined_signed_values(sys.argv[1:] if argv is None else argv))
+        return _run(args)
+
+
+def _run(args: argparse.Namespace) -> int:
+    """One command, with every expected failure turned into its exit code and one line."""
     try:
         if args.command is None:
             return open_command.run_workbench(None)
@@ -65,7 +128,7 @@ def main(argv: Sequence[str] | None = None) -> int:
             print(problem, file=sys.stderr)
         return EXIT_BAD_INPUT
     except OddsbenchError as error:
-        print(f"oddsbench: {error}", file=sys.stderr)
+        print(one_line(f"oddsbench: {error}"), file=sys.stderr)
         return EXIT_BAD_INPUT
     except KeyboardInterrupt:
         print("oddsbench: interrupted", file=sys.stderr)

@@ -91,7 +91,9 @@ def _run(spec, args):
     from rich.progress import BarColumn, MofNCompleteColumn, Progress, TextColumn, TimeElapsedColumn
 
     columns = (TextColumn("solving"), BarColumn(), MofNCompleteColumn(), TimeElapsedColumn())
-    with Progress(*columns, console=Console(stderr=True), transient=True) as progress:
+    # the bar's own escapes go to the terminal as they are (stderr's ``raw``: main shows other text visibly)
+    console = Console(file=getattr(sys.stderr, "raw", sys.stderr))
+    with Progress(*columns, console=console, transient=True) as progress:
         bar = progress.add_task("sweep", total=spec.size)
         work = Work(progress=lambda done, total: progress.update(bar, completed=done))
         return sweep(spec, workers=args.workers, cluster=args.cluster, work=work)

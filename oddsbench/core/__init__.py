@@ -25,6 +25,7 @@ _WHERE = {
     "inline_round": "game",
     "load_game": "game",
     "check_size": "game",
+    "dealt_size": "game",
     "ReportFigures": "reports",
     "report_figures": "reports",
     "BestResults": "rounds",

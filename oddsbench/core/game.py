@@ -55,13 +55,7 @@ def load_game(path: str | Path, params: Mapping[str, object] | None = None) -> G
     from oddsbench.model.load import read_ruleset_file
 
     loaded = read_ruleset_file(path, _exact(params))
-    text = None
-    if loaded.ruleset is not None:
-        try:
-            text = Path(path).read_text(encoding="utf-8")
-        except (OSError, UnicodeDecodeError):
-            text = None
-    return _read(loaded, text)
+    return _read(loaded, loaded.text)
 
 
 def game_from_text(text: str, source: str = "<text>", params: Mapping[str, object] | None = None) -> Game:
@@ -92,3 +86,13 @@ def check_size(ruleset: Ruleset, max_states: int) -> None:
     from oddsbench.chain.round_chain import check_state_count
 
     check_state_count(len(ruleset.states), max_states, ruleset.source, "the ruleset has")
+
+
+def dealt_size(ruleset: Ruleset, max_states: int) -> int | None:
+    """For a deck game, the states of its round once dealt out from the start (every hand checked on
+    the way: a hand no case fits is one line); None for a game without a deck."""
+    if ruleset.deck is None:
+        return None
+    from oddsbench.chain.deal import dealt
+
+    return sum(1 for state in dealt(ruleset, max_states).states if not state.is_end)

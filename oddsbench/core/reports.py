@@ -27,7 +27,7 @@ class ReportFigures:
 def report_figures(game: Game, settings: Settings = DEFAULTS, work: Work = NO_WORK) -> ReportFigures:
     """The round under each requested strategy (all of the file's when none is named); sessions under the first."""
     from oddsbench.solve.round_distribution import round_distribution_of
-    from oddsbench.strategy.compare import plays_to_compare, solve_rounds
+    from oddsbench.strategy.compare import plays_to_compare, solve_rounds, starting_at
 
     ruleset = game.need_ruleset("a report")
     plays = [(ruleset.start, name) for name in plays_to_compare(ruleset, settings.strategies)]
@@ -40,7 +40,7 @@ def report_figures(game: Game, settings: Settings = DEFAULTS, work: Work = NO_WO
     from oddsbench.core.session import session_settings, solve_plans
 
     first = rounds.columns[0]
-    distribution = round_distribution_of(ruleset, first.policy)
+    distribution = round_distribution_of(starting_at(ruleset, None, settings.max_states), first.policy)
     session = session_settings(game, settings.session)
     results = solve_plans(game, distribution, session, _for_sessions(settings), work, first.strategy)
     return ReportFigures(game, rounds, results)

@@ -7,13 +7,13 @@ work) -> BestResults``, ``check_strategy(game, name, settings, work) -> BestResu
 from __future__ import annotations
 
 from dataclasses import dataclass
+from typing import TYPE_CHECKING
 
 from oddsbench.core.game import Game
 from oddsbench.core.settings import DEFAULTS, Settings
 from oddsbench.core.work import NO_WORK, Work
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.ruleset import Ruleset
-from oddsbench.strategy.best_policy import BestPolicy, StrategyCheck
 from oddsbench.strategy.compare import (
     RoundResults,
     matching_states,
@@ -23,6 +23,9 @@ from oddsbench.strategy.compare import (
     solve_rounds,
     starting_at,
 )
+
+if TYPE_CHECKING:
+    from oddsbench.strategy.best_policy import BestPolicy, StrategyCheck
 
 
 @dataclass(frozen=True)
@@ -55,7 +58,7 @@ def round_figures(game: Game, settings: Settings = DEFAULTS, work: Work = NO_WOR
         strategy = _one_strategy(ruleset, settings, "to compare start states")
         starts = matching_states(ruleset, settings.starts)
         return solve_rounds(ruleset, [(start, strategy) for start in starts], "starts", **options)
-    start = starting_at(ruleset, settings.starts).start
+    start = starting_at(ruleset, settings.starts, settings.max_states).start
     if len(settings.strategies) == 1 or not ruleset.has_decisions:
         strategy = settings.strategies[0] if settings.strategies else None
         return solve_rounds(ruleset, [(start, strategy)], None, **options)
@@ -76,7 +79,7 @@ def best_play(game: Game, settings: Settings = DEFAULTS, work: Work = NO_WORK) -
     """The best action in every decision state for ``settings.best_goal``, its value and certificate."""
     from oddsbench.strategy.best_policy import best_policy
 
-    ruleset = starting_at(game.need_ruleset("best play"), settings.starts)
+    ruleset = starting_at(game.need_ruleset("best play"), settings.starts, settings.max_states)
     best = best_policy(ruleset, settings.best_goal, settings.round_exact_limit, work.should_stop)
     return BestResults(ruleset.title, ruleset.start, best.goal, best)
 
@@ -85,7 +88,7 @@ def check_strategy(game: Game, name: str, settings: Settings = DEFAULTS, work: W
     """Hold a named strategy against ``settings.best_goal``: every state where one change of action does better."""
     from oddsbench.strategy.best_policy import check_strategy as held_against
 
-    ruleset = starting_at(game.need_ruleset("checking a strategy"), settings.starts)
+    ruleset = starting_at(game.need_ruleset("checking a strategy"), settings.starts, settings.max_states)
     check = held_against(ruleset, name, settings.best_goal, settings.round_exact_limit, work.should_stop)
     return BestResults(ruleset.title, ruleset.start, check.goal, None, (check,))
 

@@ -11,6 +11,7 @@ from __future__ import annotations
 
 from collections.abc import Sequence
 from dataclasses import dataclass
+from typing import TYPE_CHECKING
 
 from oddsbench.chain.round_distribution import RoundDistribution
 from oddsbench.core.game import Game
@@ -18,9 +19,11 @@ from oddsbench.core.settings import DEFAULTS, SessionRequest, Settings
 from oddsbench.core.work import NO_WORK, Work
 from oddsbench.model.defaults import DEFAULT_PLANS, NO_GOAL_DEFAULT_PLANS
 from oddsbench.model.errors import OddsbenchError
-from oddsbench.strategy.no_goal_play import NoGoalFigures
-from oddsbench.strategy.plans import PROGRESSIONS, Plan, parse_plan
+from oddsbench.strategy.plans import Plan, parse_plan
 from oddsbench.strategy.session import SessionFigures, SessionSettings, merge_settings, settings_from_table
+
+if TYPE_CHECKING:
+    from oddsbench.strategy.no_goal_play import NoGoalFigures
 
 BOUNDED = "bounded"
 NO_GOAL_KIND = "none"
@@ -88,9 +91,10 @@ def session_round(game: Game, strategy: str | None, max_states: int | None = Non
             raise OddsbenchError(f"{game.source}: --strategy needs a ruleset file; an inline round has no decisions")
         return game.round
     from oddsbench.solve.round_distribution import round_distribution_of
-    from oddsbench.strategy.compare import policy_of
+    from oddsbench.strategy.compare import policy_of, starting_at
 
-    return round_distribution_of(game.ruleset, policy_of(game.ruleset, strategy))
+    played = starting_at(game.ruleset, None, max_states)
+    return round_distribution_of(played, policy_of(played, strategy))
 
 
 def sessions(game: Game, settings: Settings = DEFAULTS, work: Work = NO_WORK) -> SessionResults:
@@ -98,7 +102,7 @@ def sessions(game: Game, settings: Settings = DEFAULTS, work: Work = NO_WORK) ->
     request = settings.session or SessionRequest()
     session = session_settings(game, request)
     strategy = _session_strategy(game, settings)
-    distribution = session_round(game, strategy)
+    distribution = session_round(game, strategy, settings.max_states)
     return solve_plans(game, distribution, session, settings, work, strategy)
 
 
@@ -125,42 +129,50 @@ def solve_plans(
     results = []
     for done, plan in enumerate(plans):
         work.check()
+        played = for_plan(session, plan)
         if session.no_goal:
-            results.append(PlanResult(plan.spelling, no_goal=_no_goal(distribution, session, plan, request, work)))
+            results.append(PlanResult(plan.spelling, no_goal=_no_goal(distribution, played, plan, request, work)))
         else:
             from oddsbench.strategy.session import analyse_session
 
             figures = analyse_session(
-                distribution, session, plan, settings.session_exact_limit, settings.rounds, work.should_stop
+                distribution, played, plan, settings.session_exact_limit, settings.rounds, work.should_stop
             )
             results.append(PlanResult(plan.spelling, bounded=figures))
         work.done(done + 1, len(plans))
     return SessionResults(game.title, game.source, distribution, session, tuple(results), strategy, settings.rounds)
 
 
+def for_plan(session: SessionSettings, plan: Plan) -> SessionSettings:
+    """The settings one plan is played with: with no unit set, the session rules' default unit for
+    this plan's own amounts (so ``flat:1/2`` bets halves; per plan: another plan never changes it)."""
+    if session.unit is not None:
+        return session
+    from dataclasses import replace
+
+    from oddsbench.chain.session_rules import default_unit
+
+    return replace(session, unit=default_unit(session.min_bet, plan.fixed_amounts))
+
+
 def _no_goal(
     distribution: RoundDistribution, session: SessionSettings, plan: Plan, request: SessionRequest, work: Work
 ) -> NoGoalFigures:
     """One plan played until ruin, with the session rules (cut bets, the ruin level, table limits)."""
-    from oddsbench.strategy.no_goal_play import solve_no_goal_play, solve_no_goal_progression
+    from oddsbench.strategy.no_goal_play import solve_no_goal
 
-    outcomes = [(o.net, o.prob) for o in distribution.outcomes]
-    common = dict(
-        cover=distribution.cover,
-        digits=request.digits,
-        unit=session.unit,
+    return solve_no_goal(
+        distribution,
+        plan,
+        session.bankroll,
+        floor=session.floor or 0,
         min_bet=session.min_bet,
         max_bet=session.max_bet,
-        floor=session.floor or 0,
+        unit=session.unit,
+        digits=request.digits,
+        check=request.check,
         should_stop=work.should_stop,
     )
-    if plan.kind in PROGRESSIONS:
-        return solve_no_goal_progression(outcomes, plan.kind, plan.amount, plan.series, session.bankroll, **common)
-    if plan.kind == "flat":
-        bet = plan.amount
-    else:  # timid: always the table minimum
-        bet = session.min_bet or session.unit or 1
-    return solve_no_goal_play(outcomes, bet, session.bankroll, check=request.check, **common)
 
 
 def still_playing(results: SessionResults, plan: str, rounds: Sequence[int], work: Work = NO_WORK) -> tuple[float, ...]:
@@ -172,9 +184,11 @@ def still_playing(results: SessionResults, plan: str, rounds: Sequence[int], wor
 
     if results.no_goal:
         raise OddsbenchError(f"{results.source}: with no goal a session only ends at ruin: no length distribution")
+    parsed = parse_plan(plan)
+    played = for_plan(results.settings, parsed)
     chances = []
     for n in rounds:
         work.check()
-        figures = analyse_session(results.distribution, results.settings, plan, 0, n, work.should_stop)
+        figures = analyse_session(results.distribution, played, parsed, 0, n, work.should_stop)
         chances.append(figures.figures["within_playing_probability"].decimal)
     return tuple(chances)

@@ -22,7 +22,7 @@ from oddsbench.model.defaults import (
     SESSION_EXACT_LIMIT,
     is_no_goal,
 )
-from oddsbench.model.errors import OddsbenchError
+from oddsbench.model.errors import OddsbenchError, shown_name
 from oddsbench.model.numbers import Rational
 
 MONEY_FIELDS = ("bankroll", "goal", "floor", "min_bet", "max_bet", "unit")
@@ -105,17 +105,17 @@ def money(value: object, name: str) -> Rational | None:
     if value is None:
         return None
     if isinstance(value, bool):
-        raise OddsbenchError(f"--{name.replace('_', '-')} {value!r}: expected an amount")
+        raise OddsbenchError(f"--{name.replace('_', '-')} {shown_name(value)}: expected an amount")
     if isinstance(value, int):
         return QQ(value)
     if isinstance(value, str):
         try:
             return evaluate_text(value)
         except ExpressionError as error:
-            raise OddsbenchError(f"--{name.replace('_', '-')} {value!r}: {error}") from None
+            raise OddsbenchError(f"--{name.replace('_', '-')} {shown_name(value)}: {error}") from None
     if isinstance(value, float):
         raise OddsbenchError(
-            f"--{name.replace('_', '-')} {value!r}: give amounts exactly, as text such as '0.5' or '1/2'"
+            f"--{name.replace('_', '-')} {shown_name(value)}: give amounts exactly, as text such as '0.5' or '1/2'"
         )
     return value
 

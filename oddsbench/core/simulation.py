@@ -62,7 +62,7 @@ def simulate(game: Game, settings: Settings = DEFAULTS, work: Work = NO_WORK) ->
     from oddsbench.core.rounds import round_play
     from oddsbench.strategy.compare import starting_at
 
-    ruleset = starting_at(game.need_ruleset("simulation"), settings.starts)
+    ruleset = starting_at(game.need_ruleset("simulation"), settings.starts, settings.max_states)
     policy, play = round_play(ruleset, settings, work)
     chain = build_round_chain(ruleset, policy, settings.max_states)
     seed = settings.seed if settings.seed is not None else fresh_seed()
@@ -87,7 +87,7 @@ def simulate(game: Game, settings: Settings = DEFAULTS, work: Work = NO_WORK) ->
 
 
 def _sessions(game: Game, chain, seed: int, play: str | None, settings: Settings, work: Work) -> Simulation:
-    from oddsbench.core.session import session_settings
+    from oddsbench.core.session import for_plan, session_settings
     from oddsbench.simulate.checks import session_checks
     from oddsbench.simulate.round_sim import RoundPlayer
     from oddsbench.simulate.session_sim import simulate_session
@@ -109,11 +109,12 @@ def _sessions(game: Game, chain, seed: int, play: str | None, settings: Settings
     runs = []
     for done, plan in enumerate(plans):
         work.check()
-        planned = session_chain(distribution, session, plan, limit)
-        figures = analyse_session(distribution, session, plan, limit, should_stop=work.should_stop, planned=planned)
+        played = for_plan(session, plan)
+        planned = session_chain(distribution, played, plan, limit)
+        figures = analyse_session(distribution, played, plan, limit, should_stop=work.should_stop, planned=planned)
 
-        def progress(played: int, total: int, done: int = done) -> None:  # every plan's sessions, in turn
-            work.done(done * total + played, len(plans) * total)
+        def progress(count: int, total: int, done: int = done) -> None:  # every plan's sessions, in turn
+            work.done(done * total + count, len(plans) * total)
 
         sample = simulate_session(
             planned.chain,

@@ -33,12 +33,13 @@ def solve_point(ruleset_text: str, source: str, exact_limit: int, point: Point) 
     from oddsbench.chain.round_chain import build_round_chain
     from oddsbench.model.load import load_ruleset_text
     from oddsbench.solve.round import solve_round
-    from oddsbench.strategy.compare import policy_of
+    from oddsbench.strategy.compare import policy_of, starting_at
 
     try:
         overrides = {name: parse_fraction(value) for name, value in point.params}
         ruleset = load_ruleset_text(ruleset_text, source, overrides)
-        chain = build_round_chain(ruleset, policy_of(ruleset, point.strategy))
+        played = starting_at(ruleset, None)
+        chain = build_round_chain(played, policy_of(played, point.strategy))
         figures = solve_round(chain, exact_limit=exact_limit)
         session = _session_rows(ruleset, chain, point, exact_limit) if point.plan is not None else []
     except RulesetError as error:
@@ -64,8 +65,12 @@ def _session_rows(ruleset, chain, point: Point, exact_limit: int):
     from oddsbench.strategy.session import analyse_session, merge_settings, settings_from_table
 
     overrides = {name: (int(value) if name == "max_rounds" else parse_fraction(value)) for name, value in point.session}
+    from oddsbench.core.session import for_plan
+    from oddsbench.strategy.plans import parse_plan
+
     settings = merge_settings(settings_from_table(ruleset.session, ruleset.source), overrides, ruleset.source)
-    solved = analyse_session(round_distribution(chain), settings, point.plan, exact_limit)
+    plan = parse_plan(point.plan)
+    solved = analyse_session(round_distribution(chain), for_plan(settings, plan), plan, exact_limit)
     rows = [(f"session.{name}", _text(f.exact), f.decimal) for name, f in solved.figures.items()]
     return rows, solved.notes
 

@@ -10,20 +10,9 @@ from __future__ import annotations
 from typing import Any
 
 from oddsbench.model.errors import Problem, shown_name
+from oddsbench.model.visible import first_unsafe
 
 MAX_NESTING = 32
-
-
-def _bad_character(value: str, multiline: bool) -> str | None:
-    """The first character a shared file must not carry: control codes (which can drive a
-    terminal) and the direction overrides that make text display in a different order."""
-    for character in value:
-        code = ord(character)
-        if character in "\t\n\r" and multiline:
-            continue
-        if code < 32 or 127 <= code < 160 or 0x202A <= code <= 0x202E or 0x2066 <= code <= 0x2069:
-            return f"U+{code:04X}"
-    return None
 
 
 def document_problems(document: dict[str, Any], source: str) -> list[Problem]:
@@ -39,7 +28,7 @@ def document_problems(document: dict[str, Any], source: str) -> list[Problem]:
         if isinstance(value, dict):
             for key, item in value.items():
                 step = f"{path}.{_path_key(key)}" if path else _path_key(key)
-                bad = _bad_character(key, multiline=False)
+                bad = first_unsafe(key)
                 if bad:
                     problems.append(Problem(source, step, f"the name contains the control character {bad}"))
                     continue
@@ -47,7 +36,7 @@ def document_problems(document: dict[str, Any], source: str) -> list[Problem]:
         elif isinstance(value, list):
             pending.extend((f"{path}[{index}]", item, depth + 1) for index, item in enumerate(value, start=1))
         elif isinstance(value, str):
-            bad = _bad_character(value, multiline=True)
+            bad = first_unsafe(value, multiline=True)
             if bad:
                 problems.append(Problem(source, path, f"contains the control character {bad}"))
     return sorted(problems, key=lambda problem: problem.where)

@@ -4,6 +4,8 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
+from oddsbench.model.visible import visible
+
 
 @dataclass(frozen=True)
 class Problem:
@@ -21,16 +23,16 @@ class Problem:
     def __str__(self) -> str:
         label = "" if self.is_error else "warning: "
         place = f"{self.where}: " if self.where else ""
-        return _one_line(f"{self.source}: {label}{place}{self.message}")
+        return one_line(f"{self.source}: {label}{place}{self.message}")
 
 
 MAX_LINE_LENGTH = 400
 
 
-def _one_line(text: str) -> str:
+def one_line(text: str) -> str:
     """Whitespace folded to single spaces and the whole cut to a readable length: a hostile
     file cannot flood a terminal with one message."""
-    line = " ".join(text.split())
+    line = visible(" ".join(text.split()))
     return line if len(line) <= MAX_LINE_LENGTH else line[: MAX_LINE_LENGTH - 3] + "..."
 
 

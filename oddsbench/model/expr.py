@@ -19,6 +19,11 @@ Grammar (lowest precedence first)::
     atom    := number | name | name "(" expr ("," expr)* ")" | "(" expr ")"
 
 Truth values are 1 and 0. Functions: ``min``, ``max``, ``abs``, ``floor``, ``ceil``.
+
+Functions of the hands (``HAND_FUNCTIONS``: ``count(player, A)``, ``total(dealer)``, ``left()``) read
+the cards dealt in a game with a ``[deck]``; their arguments are labels (a hand, a rank, a suit, an
+item), never evaluated. ``model/hands.py`` gives them their meaning; ``evaluate`` asks the caller's
+``hands`` for their values, and refuses them where no cards are dealt.
 """
 
 from __future__ import annotations
@@ -85,6 +90,11 @@ _TOKEN = re.compile(
 )
 _KEYWORDS = frozenset({"if", "then", "else", "and", "or", "not"})
 _FUNCTIONS = frozenset({"min", "max", "abs", "floor", "ceil"})
+# Functions of the cards dealt; the names only (their meaning and checks are in model/hands.py).
+HAND_FUNCTIONS = frozenset(
+    {"cards", "count", "most", "pairs", "kinds", "flush", "most_suit", "straight", "high", "total", "hard", "soft"}
+    | {"left"}
+)
 _COMPARISONS = ("<=", ">=", "==", "!=", "<", ">")
 
 # Binding strength of each infix operator (higher binds tighter); "not" sits between "and"
@@ -217,9 +227,12 @@ class _Parser:
         if kind == "name":
             self.take()
             if self.at("("):
-                if value not in _FUNCTIONS:
+                if value not in _FUNCTIONS and value not in HAND_FUNCTIONS:
                     raise ExpressionError(f"unknown function {_cut(value)!r}")
                 self.take("(")
+                if value in HAND_FUNCTIONS and self.at(")"):
+                    self.take()
+                    return Call(value, ())
                 args = [self.expr()]
                 while self.at(","):
                     self.take()
@@ -271,10 +284,99 @@ def names_in(node: Node) -> set[str]:
     if isinstance(node, Binary):
         return names_in(node.left) | names_in(node.right)
     if isinstance(node, Call):
+        if node.function in HAND_FUNCTIONS:
+            return set()  # labels of hands, ranks, suits and items, not parameters
         return set().union(*(names_in(arg) for arg in node.args))
     if isinstance(node, Conditional):
         return names_in(node.test) | names_in(node.then) | names_in(node.otherwise)
     return set()
+
+
+def hand_calls(node: Node) -> list[Call]:
+    """Every call of a hand function in the tree, in reading order (repeats kept)."""
+    found: list[Call] = []
+    pending: list[Node] = [node]
+    while pending:
+        item = pending.pop()
+        if isinstance(item, Call) and item.function in HAND_FUNCTIONS:
+            found.append(item)
+        elif isinstance(item, Call):
+            pending.extend(reversed(item.args))
+        elif isinstance(item, Unary):
+            pending.append(item.operand)
+        elif isinstance(item, Binary):
+            pending.extend((item.right, item.left))
+        elif isinstance(item, Conditional):
+            pending.extend((item.otherwise, item.then, item.test))
+    return found
+
+
+def uses_hands(node: Node) -> bool:
+    """Whether the value depends on the cards dealt (a hand function appears in it)."""
+    return bool(hand_calls(node))
+
+
+def height(node: Node) -> int:
+    """Levels of operations inside one another (1 for a number or a name)."""
+    if isinstance(node, Unary):
+        return 1 + height(node.operand)
+    if isinstance(node, Binary):
+        return 1 + max(height(node.left), height(node.right))
+    if isinstance(node, Call):
+        return 1 + max((height(arg) for arg in node.args), default=0)
+    if isinstance(node, Conditional):
+        return 1 + max(height(node.test), height(node.then), height(node.otherwise))
+    return 1
+
+
+def spelled(node: Node, top: bool = True) -> str:
+    """Expression text for a tree (operations inside others in parentheses): how a condition kept
+    for the dealer is shown in reports."""
+    if isinstance(node, Number):
+        value = node.value
+        shown = str(QQ.numer(value)) if QQ.denom(value) == 1 else f"{QQ.numer(value)}/{QQ.denom(value)}"
+        return shown if top or QQ.denom(value) == 1 and value >= 0 else f"({shown})"
+    if isinstance(node, Name):
+        return node.name
+    if isinstance(node, Call):
+        return f"{node.function}({', '.join(spelled(arg) for arg in node.args)})"
+    if isinstance(node, Unary):
+        inner = f"{'not ' if node.op == 'not' else node.op}{spelled(node.operand, False)}"
+    elif isinstance(node, Binary):
+        inner = f"{spelled(node.left, False)} {node.op} {spelled(node.right, False)}"
+    else:
+        inner = f"if {spelled(node.test)} then {spelled(node.then)} else {spelled(node.otherwise)}"
+    return inner if top else f"({inner})"
+
+
+def partial(node: Node, env: Mapping[str, Rational | Node]) -> Node:
+    """The tree with every name known in ``env`` put in (a value, or a tree of its own), calls of
+    hand functions kept: what a family or a ``let`` knows at reading time, kept for dealing.
+
+    Put-in trees can deepen the result; past ``MAX_TREE_DEPTH`` it is refused like a parsed one."""
+    result = _partial(node, env)
+    if height(result) > MAX_TREE_DEPTH:
+        raise ExpressionError(f"expression has more than {MAX_TREE_DEPTH} operations inside one another")
+    return result
+
+
+def _partial(node: Node, env: Mapping[str, Rational | Node]) -> Node:
+    if isinstance(node, Name):
+        if node.name not in env:
+            return node
+        value = env[node.name]
+        return value if isinstance(value, _TREES) else Number(value)
+    if isinstance(node, Unary):
+        return Unary(node.op, _partial(node.operand, env))
+    if isinstance(node, Binary):
+        return Binary(node.op, _partial(node.left, env), _partial(node.right, env))
+    if isinstance(node, Call):
+        if node.function in HAND_FUNCTIONS:
+            return node
+        return Call(node.function, tuple(_partial(arg, env) for arg in node.args))
+    if isinstance(node, Conditional):
+        return Conditional(_partial(node.test, env), _partial(node.then, env), _partial(node.otherwise, env))
+    return node
 
 
 def _checked(value: Rational) -> Rational:
@@ -333,31 +435,52 @@ def _apply(op: str, left: Rational, right: Rational) -> Rational:
     return _truth(comparisons[op])
 
 
-def evaluate(node: Node, env: Mapping[str, Rational]) -> Rational:
-    """Evaluate a parsed expression exactly; names come from ``env`` (params, index variables)."""
+HandValues = Callable[[Call], Rational]
+_TREES = (Number, Name, Unary, Binary, Call, Conditional)
+
+
+def is_tree(value: object) -> bool:
+    """Whether a value is a parsed expression (kept for the dealer) rather than a number or text."""
+    return isinstance(value, _TREES)
+
+
+def evaluate(node: Node, env: Mapping[str, Rational], hands: HandValues | None = None) -> Rational:
+    """Evaluate a parsed expression exactly; names come from ``env`` (params, index variables),
+    the values of hand functions from ``hands`` (the dealer of a deck game; None elsewhere)."""
     if isinstance(node, Number):
         return node.value
     if isinstance(node, Name):
         if node.name not in env:
             raise ExpressionError(f"unknown parameter {_cut(node.name)!r}")
-        return env[node.name]
+        value = env[node.name]
+        if isinstance(value, _TREES):  # a family's ``let`` that reads the hands, kept as a tree
+            raise ExpressionError(
+                f"{_cut(node.name)!r} reads the cards dealt: use it only in an outcome's when, prob, pay or stake"
+            )
+        return value
     if isinstance(node, Unary):
-        value = evaluate(node.operand, env)
+        value = evaluate(node.operand, env, hands)
         if node.op == "not":
             return _truth(value == 0)
         return -value if node.op == "-" else value
     if isinstance(node, Conditional):
-        chosen = node.then if evaluate(node.test, env) != 0 else node.otherwise
-        return evaluate(chosen, env)
+        chosen = node.then if evaluate(node.test, env, hands) != 0 else node.otherwise
+        return evaluate(chosen, env, hands)
     if isinstance(node, Binary):
-        left = evaluate(node.left, env)
+        left = evaluate(node.left, env, hands)
         if node.op == "and":
-            return _truth(left != 0 and evaluate(node.right, env) != 0)
+            return _truth(left != 0 and evaluate(node.right, env, hands) != 0)
         if node.op == "or":
-            return _truth(left != 0 or evaluate(node.right, env) != 0)
-        return _checked(_apply(node.op, left, evaluate(node.right, env)))
+            return _truth(left != 0 or evaluate(node.right, env, hands) != 0)
+        return _checked(_apply(node.op, left, evaluate(node.right, env, hands)))
     if isinstance(node, Call):
-        values = [evaluate(arg, env) for arg in node.args]
+        if node.function in HAND_FUNCTIONS:
+            if hands is None:
+                raise ExpressionError(
+                    f"{node.function}() reads the cards dealt: it works only in the outcomes of a ruleset with a [deck]"
+                )
+            return hands(node)
+        values = [evaluate(arg, env, hands) for arg in node.args]
         if node.function in ("min", "max"):
             return min(values) if node.function == "min" else max(values)
         if len(values) != 1:

@@ -25,8 +25,8 @@ from collections.abc import Iterator, Mapping
 from dataclasses import dataclass
 from typing import Any
 
-from oddsbench.model.errors import Problem, type_name
-from oddsbench.model.expr import ExpressionError, Node, evaluate, names_in, parse
+from oddsbench.model.errors import Problem, shown_name, type_name
+from oddsbench.model.expr import ExpressionError, Node, evaluate, is_tree, names_in, parse, partial, uses_hands
 from oddsbench.model.numbers import Rational, is_integer, text, to_int
 
 MAX_FAMILY_STATES = 100_000
@@ -34,7 +34,7 @@ MAX_FAMILY_OUTCOMES = 1_000_000
 MAX_INDEX_VARIABLES = 8
 MAX_FAMILY_COMBINATIONS = 2_000_000  # index values tried, kept or not: a filter cannot hide a hang
 
-FAMILY_KEYS = frozenset({"state", "index", "let", "when", "outcomes", "choices", "result", "about"})
+FAMILY_KEYS = frozenset({"state", "index", "let", "when", "outcomes", "choices", "result", "about", "draw"})
 FAMILY_OUTCOME_KEYS = frozenset({"to", "prob", "pay", "stake", "note", "when", "each", "let"})
 CASE_KEYS = frozenset({"when", "to"})
 _RESERVED_NAMES = frozenset({"if", "then", "else", "and", "or", "not", "min", "max", "abs", "floor", "ceil"})
@@ -79,7 +79,7 @@ class _Template:
                 continue
             value = evaluate(part, env)
             if not is_integer(value):
-                raise ExpressionError(f"placeholder in {self.raw!r} gives {text(value)}, not a whole number")
+                raise ExpressionError(f"placeholder in {shown_name(self.raw)} gives {text(value)}, not a whole number")
             pieces.append(str(to_int(value)))
         return "".join(pieces)
 
@@ -95,11 +95,11 @@ def parse_template(raw: str) -> _Template:
             i += 2
             continue
         if char == "}":
-            raise ExpressionError(f"unmatched '}}' in {raw!r} (write '}}}}' for a literal brace)")
+            raise ExpressionError(f"unmatched '}}' in {shown_name(raw)} (write '}}}}' for a literal brace)")
         if char == "{":
             end = raw.find("}", i + 1)
             if end < 0:
-                raise ExpressionError(f"unclosed '{{' in {raw!r}")
+                raise ExpressionError(f"unclosed '{{' in {shown_name(raw)}")
             if literal:
                 parts.append("".join(literal))
                 literal = []
@@ -130,7 +130,7 @@ def _value_node(raw: Any, what: str) -> Node | int:
     try:
         return parse(raw)
     except ExpressionError as error:
-        raise FamilyError(f"{what} {raw!r}: {error}") from None
+        raise FamilyError(f"{what} {shown_name(raw)}: {error}") from None
 
 
 def _whole(node: Node | int, env: Mapping[str, Rational], what: str) -> int:
@@ -158,7 +158,7 @@ def _ranges(raw: Any, what: str, taken: set[str]) -> list[_Range]:
         if name in taken:
             raise FamilyError(f"{what}: variable {name!r} is already a parameter or index variable")
         if not isinstance(bounds, list) or len(bounds) != 2:
-            raise FamilyError(f"{what}, {name}: must be [low, high] (both included), not {bounds!r}")
+            raise FamilyError(f"{what}, {name}: must be [low, high] (both included), not {shown_name(bounds)}")
         low = _value_node(bounds[0], f"{what}, {name}, low end")
         high = _value_node(bounds[1], f"{what}, {name}, high end")
         ranges.append(_Range(name, low, high))
@@ -187,9 +187,15 @@ def _lets(raw: Any, what: str, taken: set[str]) -> list[tuple[str, Node]]:
         try:
             lets.append((name, parse(str(expression))))
         except ExpressionError as error:
-            raise FamilyError(f"{what}, {name} {expression!r}: {error}") from None
+            raise FamilyError(f"{what}, {name} {shown_name(expression)}: {error}") from None
         taken.add(name)
     return lets
+
+
+def _reads_hands(node: Node, env: Mapping[str, Any]) -> bool:
+    """Whether a value depends on the cards dealt: a hand function in it, or a ``let`` that has one.
+    Such values stay expressions (with the index values put in) for the dealer of a deck game."""
+    return uses_hands(node) or any(is_tree(env.get(name)) for name in names_in(node))
 
 
 def _with_lets(env: dict[str, Rational], lets: list[tuple[str, Node]]) -> dict[str, Rational]:
@@ -198,7 +204,7 @@ def _with_lets(env: dict[str, Rational], lets: list[tuple[str, Node]]) -> dict[s
     env = dict(env)
     for name, node in lets:
         try:
-            env[name] = evaluate(node, env)
+            env[name] = partial(node, env) if _reads_hands(node, env) else evaluate(node, env)
         except ExpressionError as error:
             raise ExpressionError(f"let {name}: {error}") from None
     return env
@@ -283,14 +289,22 @@ class _Outcome:
         for inner in _combinations(self.each, env, tried):
             try:
                 inner = _with_lets(inner, self.lets)
-                if self.when is not None and evaluate(self.when, inner) == 0:
+                table: dict[str, Any] = {}
+                if self.when is not None and _reads_hands(self.when, inner):
+                    table["when"] = partial(self.when, inner)  # a case of a deck game, chosen by the cards
+                elif self.when is not None and evaluate(self.when, inner) == 0:
                     continue
                 target = self._target(inner)
                 if target is None:
                     continue
-                table: dict[str, Any] = {"to": target}
+                table["to"] = target
                 for key, node in self.values.items():
-                    table[key] = node if isinstance(node, int) else text(evaluate(node, inner))
+                    if isinstance(node, int):
+                        table[key] = node
+                    elif _reads_hands(node, inner):
+                        table[key] = partial(node, inner)
+                    else:  # the exact value itself: read as written by hand, without a second parse
+                        table[key] = evaluate(node, inner)
                 if self.note is not None:
                     table["note"] = self.note.render(inner)
             except ExpressionError as error:
@@ -319,9 +333,20 @@ class _Outcome:
     def _target(self, env: dict[str, Rational]) -> str | None:
         """The first case whose condition holds; None when no case matches (no outcome)."""
         for test, template in self.cases:
+            if test is not None and _reads_hands(test, env):
+                raise ExpressionError(
+                    "a case in 'to' cannot read the hands: write one outcome per case, each with its own 'when'"
+                )
             if test is None or evaluate(test, env) != 0:
                 return template.render(env)
         return None
+
+
+def _take_templates(draw: Any) -> list[Any] | None:
+    """Placeholders in a family's ``draw.take`` (``take = ["{c}"]``), parsed once; None when there are none."""
+    if not isinstance(draw, dict) or not isinstance(draw.get("take"), list):
+        return None
+    return [parse_template(t) if isinstance(t, str) and "{" in t else t for t in draw["take"]]
 
 
 class _Family:
@@ -354,6 +379,11 @@ class _Family:
         if "outcomes" in raw and "choices" in raw:
             raise FamilyError(f"{where}: has both 'outcomes' and 'choices': a state has one or the other")
         self.about = raw.get("about")
+        self.draw = raw.get("draw")
+        try:
+            self.take = _take_templates(self.draw)
+        except ExpressionError as error:
+            raise FamilyError(f"{where}, draw: {error}") from None
         self.outcomes = self._outcome_list(raw.get("outcomes"), f"{where}, outcomes", taken, warn)
         self.choices: list[tuple[str, list[_Outcome]]] = []
         if "choices" in raw:
@@ -403,6 +433,9 @@ class _Family:
                 table["result"] = self.result.render(env)
             if isinstance(self.about, str):
                 table["about"] = self.about
+            if self.draw is not None:
+                self._current = "draw"
+                table["draw"] = self._drawn(env)
             if self.outcomes is not None:
                 listed = self._render(self.outcomes, env, budget)
                 if listed:
@@ -418,6 +451,12 @@ class _Family:
         except (ExpressionError, _TooManyCombinations) as error:
             raise FamilyError(f"{where}, {self._current}: {error}") from None
         return table
+
+    def _drawn(self, env: dict[str, Rational]) -> Any:
+        """The member's draw: as written, with ``{...}`` placeholders in ``take`` filled in."""
+        if self.take is None:
+            return self.draw
+        return dict(self.draw, take=[t.render(env) if isinstance(t, _Template) else t for t in self.take])
 
     def _render(self, outcomes: list[_Outcome], env: dict[str, Rational], budget: list[int]) -> list[dict[str, Any]]:
         listed = []
@@ -505,7 +544,7 @@ def expand_plain_state(
     def warn(where: str, message: str) -> None:
         problems.append(Problem(source, where, message, "warning"))
 
-    raw = {key: value for key, value in table.items() if key in ("outcomes", "choices", "result", "about")}
+    raw = {key: value for key, value in table.items() if key in ("outcomes", "choices", "result", "about", "draw")}
     raw["state"] = name.replace("{", "{{").replace("}", "}}")
     try:
         family = _Family(name, raw, params, warn, plain=True)

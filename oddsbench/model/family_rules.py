@@ -10,7 +10,7 @@ from __future__ import annotations
 from collections.abc import Mapping
 from typing import Any
 
-from oddsbench.model.errors import Problem, type_name
+from oddsbench.model.errors import Problem, shown_name, type_name
 from oddsbench.model.expr import ExpressionError, evaluate, parse
 from oddsbench.model.families import FamilyMember
 from oddsbench.model.numbers import Rational, text
@@ -64,7 +64,7 @@ def rule_actions(
         try:
             test = parse(when) if when is not None else None
         except ExpressionError as problem:
-            error(f"{place}, when {when!r}", str(problem))
+            error(f"{place}, when {shown_name(when)}", str(problem))
             continue
         for state, member in members.items():
             if member.family != family or state in explicit or state in chosen:
@@ -76,6 +76,6 @@ def rule_actions(
                     chosen[state] = action
             except ExpressionError as problem:
                 shown = ", ".join(f"{n}={text(v)}" for n, v in member.index)
-                error(f"{place}, when {when!r}", f"at {shown}: {problem}")
+                error(f"{place}, when {shown_name(when)}", f"at {shown}: {problem}")
                 break
     return list(chosen.items())

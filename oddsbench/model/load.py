@@ -10,12 +10,13 @@ from __future__ import annotations
 
 import tomllib
 from collections.abc import Mapping
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from pathlib import Path
 
 from oddsbench.model.document_checks import document_problems
 from oddsbench.model.errors import Problem, RulesetError
 from oddsbench.model.families import FamilyMember
+from oddsbench.model.file_read import FileRefused, read_text_capped
 from oddsbench.model.numbers import Rational, text
 from oddsbench.model.ruleset import Ruleset
 from oddsbench.model.ruleset_reader import RulesetReader
@@ -29,6 +30,7 @@ class LoadResult:
 
     ruleset: Ruleset | None
     problems: tuple[Problem, ...]
+    text: str | None = None  # the file's text as read (once: what was checked is what is kept)
 
     @property
     def errors(self) -> tuple[Problem, ...]:
@@ -49,23 +51,11 @@ def read_ruleset_file(path: str | Path, params: ParamOverrides | None = None) ->
     evaluated, so later parameters and every outcome that depend on them follow.
     """
     path = Path(path)
-    source = path.name
     try:
-        if path.is_dir():
-            return _failed(source, "is a folder, not a ruleset file")
-        size = path.stat().st_size
-        if size > MAX_FILE_BYTES:
-            return _failed(source, f"file is {size:,} bytes, over the limit of {MAX_FILE_BYTES:,}")
-        raw = path.read_bytes()
-    except FileNotFoundError:
-        return _failed(source, "no such file")
-    except OSError as error:
-        return _failed(source, f"cannot be read: {error.strerror or error}")
-    try:
-        content = raw.decode("utf-8")
-    except UnicodeDecodeError as error:
-        return _failed(source, f"is not UTF-8 text (bad byte at position {error.start})")
-    return read_ruleset_text(content, source, params)
+        content = read_text_capped(path, MAX_FILE_BYTES, "is a folder, not a ruleset file")
+    except FileRefused as refused:
+        return _failed(path.name, str(refused))
+    return replace(read_ruleset_text(content, path.name, params), text=content)
 
 
 def read_ruleset_text(content: str, source: str = "<text>", params: ParamOverrides | None = None) -> LoadResult:
@@ -90,23 +80,58 @@ def read_ruleset_text(content: str, source: str = "<text>", params: ParamOverrid
     if ruleset is not None:
         from oddsbench.model.validate import validate
 
-        problems.extend(family_origin(problem, reader.members) for problem in validate(ruleset))
+        problems.extend(validate(ruleset))
+    problems = one_per_cause(problems, reader.members)
     has_error = any(problem.is_error for problem in problems)
     return LoadResult(None if has_error else ruleset, tuple(problems))
 
 
+def _member_state(problem: Problem, members: dict[str, FamilyMember]) -> str | None:
+    """The family-made state a problem is placed in, or None."""
+    if not members or not problem.where.startswith("state '"):
+        return None
+    name = problem.where[len("state '") :].split("'", 1)[0]
+    return name if name in members else None
+
+
 def family_origin(problem: Problem, members: dict[str, FamilyMember]) -> Problem:
     """A problem in a state made by a family, with the family and index values added to its place."""
-    if not members or not problem.where.startswith("state '"):
+    name = _member_state(problem, members)
+    if name is None:
         return problem
-    name = problem.where[len("state '") :].split("'", 1)[0]
-    member = members.get(name)
-    if member is None:
-        return problem
+    member = members[name]
     index = ", ".join(f"{variable}={text(value)}" for variable, value in member.index)
     place = f"state {name!r}"
     where = problem.where.replace(place, f"{place} (family {member.family!r} at {index})", 1)
     return Problem(problem.source, where, problem.message, problem.severity)
+
+
+def one_per_cause(problems: list[Problem], members: dict[str, FamilyMember]) -> list[Problem]:
+    """Each problem with its family origin, a problem repeated in many members of one family (the same
+    field, the same message, the member's own name aside) as one line: the first, with the count of the rest.
+    """
+    kept: list[Problem] = []
+    first: dict[tuple[str, ...], int] = {}
+    repeats: dict[int, int] = {}
+    for problem in problems:
+        name = _member_state(problem, members)
+        if name is None:
+            kept.append(problem)
+            continue
+        rest = problem.where[len(f"state {name!r}") :]
+        cause = (problem.severity, members[name].family, rest.replace(name, "\0"), problem.message.replace(name, "\0"))
+        if cause in first:
+            repeats[first[cause]] = repeats.get(first[cause], 1) + 1
+            continue
+        first[cause] = len(kept)
+        kept.append(family_origin(problem, members))
+    for at, count in repeats.items():
+        problem = kept[at]
+        family = members[_member_state(problem, members) or ""].family
+        more = count - 1
+        message = f"{problem.message} (the same in {more:,} more state{'' if more == 1 else 's'} of family {family!r})"
+        kept[at] = Problem(problem.source, problem.where, message, problem.severity)
+    return kept
 
 
 def load_ruleset(path: str | Path, params: ParamOverrides | None = None) -> Ruleset:

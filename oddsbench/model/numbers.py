@@ -12,7 +12,14 @@ from sympy.polys.domains import QQ, ZZ
 
 Rational = Any  # an element of QQ (flint.fmpq or sympy's PythonMPQ, depending on ground types)
 
+_RATIONAL_TYPE = type(QQ(1))
+
 __all__ = ["QQ", "ZZ", "Rational", "bit_size", "int_text", "is_integer", "to_int", "to_float", "text", "parse_fraction"]
+
+
+def is_rational(value: object) -> bool:
+    """Whether ``value`` is already an exact number of ours (a family hands its evaluated values on as such)."""
+    return isinstance(value, _RATIONAL_TYPE)
 
 
 def numerator(value: Rational) -> int:
@@ -52,6 +59,13 @@ def int_text(value: int) -> str:
     from flint import fmpz
 
     return str(fmpz(value))
+
+
+def count_text(count: int) -> str:
+    """A whole count for a message: ``12,345``, or ``about 10^50`` past the digits anyone reads."""
+    return (
+        f"{count:,}" if abs(count) < 10**15 else f"about {'-' if count < 0 else ''}10^{len(int_text(abs(count))) - 1}"
+    )
 
 
 def log10_abs(value: Rational) -> float:

@@ -8,28 +8,33 @@ read exactly as hand-written ones; strategy rules become plain (state, action) p
 
 from __future__ import annotations
 
+import dataclasses
 from collections.abc import Mapping
 from typing import Any
 
+from oddsbench.model import deck_rules
+from oddsbench.model.deck import Deck, read_deck
 from oddsbench.model.errors import Problem, shown_name, type_name
-from oddsbench.model.expr import ExpressionError, evaluate, names_in, parse
+from oddsbench.model.expr import ExpressionError, evaluate, is_tree, names_in, parse
 from oddsbench.model.families import FamilyMember, expand_families, expand_plain_state, uses_family_outcomes
 from oddsbench.model.family_rules import rule_actions
-from oddsbench.model.numbers import QQ, Rational, text
+from oddsbench.model.numbers import QQ, Rational, is_rational, text
 from oddsbench.model.ruleset import Outcome, Ruleset, State, Strategy
 
 MAX_NAME_LENGTH = 200
 FORMAT_VERSION = 1
 
 RULESET_KEYS = frozenset({"title", "about", "start", "stake", "version"})
-STATE_KEYS = frozenset({"outcomes", "choices", "result", "about"})
+STATE_KEYS = frozenset({"outcomes", "choices", "result", "about", "draw"})
 OUTCOME_KEYS = frozenset({"to", "prob", "pay", "stake", "note"})
-TOP_KEYS = frozenset({"ruleset", "params", "states", "strategies", "session", "families"})
+TOP_KEYS = frozenset({"ruleset", "params", "states", "strategies", "session", "families", "deck"})
 
 
 def describe_value(value: Any) -> str:
     """A short echo of a field's value for messages: strings quoted (unprintable characters
     escaped, so a file cannot send terminal control codes through a message), long ones cut."""
+    if is_rational(value):
+        value = text(value)  # a family's value, shown as the text it stands for
     if isinstance(value, str):
         shown = '"' + "".join(c if c.isprintable() else repr(c)[1:-1] for c in value[:80]) + '"'
     else:
@@ -47,6 +52,9 @@ class RulesetReader:
         self.failed_params: set[str] = set()
         self.members: dict[str, FamilyMember] = {}
         self.overrides = dict(overrides or {})
+        self.deck: Deck | None = None
+        self.deck_failed = False
+        self.hands: tuple[str, ...] = ()
 
     def error(self, where: str, message: str) -> None:
         self.problems.append(Problem(self.source, where, message))
@@ -66,17 +74,19 @@ class RulesetReader:
             return None
         if isinstance(raw, int):
             return QQ(raw)
+        if is_rational(raw):  # a family's value, already evaluated under the same limits
+            return raw
         if isinstance(raw, float):
             if raw != raw or raw in (float("inf"), float("-inf")):
                 self.error(where, f"must be a finite number, not {raw}")
             else:
                 self.error(where, f'write decimals in quotes ("{raw}") so they stay exact')
             return None
-        if not isinstance(raw, str):
+        if not isinstance(raw, str) and not is_tree(raw):
             self.error(where, f"must be a number or an expression in quotes, not {type_name(raw)}")
             return None
         try:
-            tree = parse(raw)
+            tree = raw if is_tree(raw) else parse(raw)
             broken = sorted(names_in(tree) & self.failed_params)
             if broken:
                 self.error(where, f"uses parameter {shown_name(broken[0])}, which has an error")
@@ -123,6 +133,9 @@ class RulesetReader:
         if stake is not None and stake < 0:
             self.error("[ruleset], stake", f"cannot be negative, got {text(stake)}")
         self.read_params(document.get("params", {}))
+        if "deck" in document:
+            self.deck = read_deck(document["deck"], self)
+            self.deck_failed = self.deck is None
         states = self.read_states(document)
         strategies = self.read_strategies(document.get("strategies", {}))
         session = document.get("session", {})
@@ -141,6 +154,7 @@ class RulesetReader:
             params=tuple(self.params.items()),
             strategies=tuple(strategies),
             session=session,
+            deck=self.deck,
         )
 
     def read_params(self, raw: Any) -> None:
@@ -200,6 +214,7 @@ class RulesetReader:
             tables[name] = table
         if not tables:
             self.error("[states]", "no states: a ruleset needs at least one state")
+        self.hands = deck_rules.hand_names(tables)
         return [state for name, table in tables.items() if (state := self.read_state(name, table))]
 
     def read_state(self, name: str, table: Any) -> State | None:
@@ -223,8 +238,21 @@ class RulesetReader:
         if "outcomes" in table and "choices" in table:
             self.error(where, "has both 'outcomes' and 'choices': a state has one or the other")
             return None
+        draw = None
+        if "draw" in table:
+            if self.deck is None and self.deck_failed:
+                return None  # the [deck] table's own problem is the one to fix
+            draw = deck_rules.read_draw(table["draw"], where, self, self.deck)
+            if draw is None:
+                return None
+            if "choices" in table:
+                self.error(where, "a state that draws cannot offer choices: draw here, then decide in the next state")
+                return None
+            if "outcomes" not in table:
+                self.error(where, "draws but has no outcomes: say where the round goes after the draw")
+                return None
         if "outcomes" in table:
-            outcomes = self.read_outcomes(table["outcomes"], where, "outcomes")
+            outcomes = self.read_outcomes(table["outcomes"], where, "outcomes", draw is not None)
             if not outcomes and isinstance(table["outcomes"], list) and not table["outcomes"]:
                 self.warn(where, "'outcomes' is empty, so this state ends the round")
         if "choices" in table:
@@ -240,12 +268,41 @@ class RulesetReader:
                 listed = self.read_outcomes(raw, f"{where}, choice {shown_name(action)}", "outcomes")
                 if listed:
                     choices.append((action, listed))
-        return State(name=name, outcomes=outcomes, choices=tuple(choices), result=result)
+        return State(name=name, outcomes=outcomes, choices=tuple(choices), result=result, draw=draw)
 
-    def read_outcomes(self, raw: Any, where: str, field_name: str) -> tuple[Outcome, ...]:
+    def read_outcomes(self, raw: Any, where: str, field_name: str, draws: bool = False) -> tuple[Outcome, ...]:
         if not isinstance(raw, list):
             self.error(f"{where}, {field_name}", f"must be a list of outcome tables, not {type_name(raw)}")
             return ()
+        raw, rules = deck_rules.split_rules(raw, where, self)
+        if any(when is not None or by_hand for when, by_hand in rules) or draws:
+            return self.read_cases(raw, rules, where, field_name, draws)
+        return self.read_plain_outcomes(raw, where)
+
+    def read_cases(self, raw: list[Any], rules, where: str, field_name: str, draws: bool) -> tuple[Outcome, ...]:
+        """Outcomes of a deck game that read the hands: plain reading, then the hand rules attached.
+        Where any ``when`` reads the hands (or the state draws) the outcomes are cases, tried in order."""
+        if not deck_rules.check_rules(rules, where, self, self.deck, self.hands, draws):
+            return ()
+        cases = draws or any(when is not None for when, _ in rules)
+        if cases and not deck_rules.cases_well_formed(raw, rules, where, self, draws, field_name):
+            return ()
+        outcomes = self.read_plain_outcomes(raw, where)
+        if len(outcomes) != len(rules):
+            return ()
+        one = QQ(1)
+        return tuple(
+            dataclasses.replace(
+                outcome,
+                when=when,
+                by_hand=by_hand,
+                prob=one if cases or any(key == "prob" for key, _ in by_hand) else outcome.prob,
+                prob_given=not cases and outcome.prob_given,
+            )
+            for outcome, (when, by_hand) in zip(outcomes, rules)
+        )
+
+    def read_plain_outcomes(self, raw: list[Any], where: str) -> tuple[Outcome, ...]:
         read: list[tuple[dict[str, Any], Rational | None, str]] = []
         failed = False
         for index, item in enumerate(raw, start=1):
@@ -344,8 +401,9 @@ class RulesetReader:
                     default = action
                 else:
                     actions.append((state_name, action))
+            rules, by_hand = deck_rules.split_strategy_rules(rules, where, self, self.deck, self.hands)
             if rules is not None:
                 explicit = {state_name for state_name, _ in actions}
                 actions += rule_actions(rules, where, self.members, self.params, explicit, self.problems, self.source)
-            strategies.append(Strategy(name=name, actions=tuple(actions), default=default))
+            strategies.append(Strategy(name=name, actions=tuple(actions), default=default, by_hand=tuple(by_hand)))
         return strategies

@@ -34,10 +34,18 @@ def validate(ruleset: Ruleset) -> list[Problem]:
             for index, outcome in enumerate(outcomes, start=1):
                 if outcome.to not in names:
                     error(f"{where}, outcome {index}, to", f"unknown state {outcome.to!r}{suggest(outcome.to)}")
+            if state.by_cards(outcomes):
+                continue  # chosen by the cards: checked hand by hand when the deal is expanded
             total = sum((outcome.prob for outcome in outcomes), QQ(0))
             if total != 1:
                 error(where, f"probabilities sum to {text(total)}, not 1")
     problems.extend(_check_strategies(ruleset))
+    if ruleset.deck is not None:
+        for state in ruleset.states:
+            if "[" in state.name or "]" in state.name:
+                error(
+                    f"state {state.name!r}", "in a deck game state names cannot hold '[' or ']' (they mark the hands)"
+                )
     for first, second in look_alike_names(ruleset.state_names):
         warn(
             f"state {second!r}",
@@ -199,11 +207,23 @@ def _check_strategies(ruleset: Ruleset) -> list[Problem]:
                         f"unknown action {action!r} (choose from {', '.join(state.actions)})",
                     )
                 )
+        for state_name, _, action in strategy.by_hand:
+            state = decision_states.get(state_name)
+            place = f"{where}, rule for {state_name!r}"
+            if state is None:
+                reason = "no such state" if state_name not in ruleset.state_names else "not a decision state"
+                problems.append(Problem(ruleset.source, place, reason))
+            elif action not in state.actions:
+                offered = ", ".join(state.actions)
+                problems.append(Problem(ruleset.source, place, f"unknown action {action!r} (choose from {offered})"))
         missing: list[str] = []
         not_offered: list[str] = []
         named = {name for name, _ in strategy.actions}
+        by_hand = {name for name, _, _ in strategy.by_hand}
         for state in decision_states.values():
             action = strategy.action_for(state)
+            if action is None and state.name in by_hand:
+                continue  # rules by hand: every hand is checked when the deal is expanded
             if action is None:
                 missing.append(state.name)
             elif action not in state.actions and state.name not in named:

@@ -6,22 +6,22 @@ Nothing here solves: ``build_report(figures)`` arranges what ``core.report_figur
 from __future__ import annotations
 
 from dataclasses import dataclass, field
-from typing import Any
+from typing import TYPE_CHECKING, Any
 
 from oddsbench import __version__
-from oddsbench.core.results import ReportFigures, RoundColumn
 from oddsbench.model.ruleset import Ruleset
 from oddsbench.report.cautions import CAUTIONS
 from oddsbench.report.method_sources import ROUND_SOURCES, SESSION_SOURCES, MethodSource
 
-RoundSection = RoundColumn  # one round's figures under one way of playing (``strategy`` None: no decisions)
+if TYPE_CHECKING:  # result types only: the core (and the engines behind it) load when a question is asked
+    from oddsbench.core.results import ReportFigures, RoundColumn
 
 
 @dataclass(frozen=True)
 class ReportDocument:
     ruleset: Ruleset
     content: str
-    rounds: tuple[RoundSection, ...]
+    rounds: tuple[RoundColumn, ...]  # one round per way of playing (``strategy`` None: no decisions)
     sources: tuple[MethodSource, ...] = ROUND_SOURCES
     cautions: tuple[str, ...] = CAUTIONS
     extra_sections: tuple[Any, ...] = field(default=())

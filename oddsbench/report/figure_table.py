@@ -9,12 +9,16 @@ never shortening an exact value that fits; the workbench only passes its width.
 from __future__ import annotations
 
 from dataclasses import dataclass
+from typing import TYPE_CHECKING
 
-from oddsbench.core.results import Figure, RoundFigures
+from oddsbench.model.figure import Figure
 from oddsbench.model.numbers import text
 from oddsbench.report.meanings import meaning
 from oddsbench.report.numbers_text import decimal_text, fit_exact
-from oddsbench.report.round_report import figure_items, is_percent
+from oddsbench.report.round_report import figure_items, hand_rows, is_percent
+
+if TYPE_CHECKING:  # result types only: the core (and the engines behind it) load when a question is asked
+    from oddsbench.core.results import RoundFigures
 
 CELL_KINDS = ("both", "exact", "decimal")  # as ``--cells`` names them
 PAD = 2  # a screen table's padding around each column
@@ -94,8 +98,11 @@ def row(key: str, label: str, cells, meaning_key: str | None = None) -> FigureRo
 
 def round_table(figures: RoundFigures, column: str = "value") -> FigureTable:
     """One round's figures, end-state chances and result totals (win, loss, push), one column."""
-    rows = tuple(row(key, label, (shown(f, is_percent(key)),)) for key, label, f in figure_items(figures))
-    return FigureTable((column,), rows)
+    rows = [row(key, label, (shown(f, is_percent(key)),)) for key, label, f in figure_items(figures)]
+    for index, (label, count, share) in enumerate(hand_rows(figures)):  # a single draw: its hands counted
+        key = "hands" if index == 0 else "hands_ending"
+        rows.append(row(key, label, (Shown(count, share),)))
+    return FigureTable((column,), tuple(rows))
 
 
 def side_by_side(columns: list[tuple[str, RoundFigures]]) -> FigureTable:

@@ -29,6 +29,9 @@ ROUND = {
     "expected_steps": "The average number of steps (moves from state to state) one round takes before it ends.",
     "steps_variance": "How widely the number of steps in one round spreads around its average.",
     "ended_by": "The chance that the round has ended within the given number of steps.",
+    "hands": "How many hands the round's single draw can deal, each exactly as likely as any other: every chance "
+    "above is a count of hands divided by this number.",
+    "hands_ending": "How many of the equally likely hands end the round in this end state.",
 }
 
 SESSION = {

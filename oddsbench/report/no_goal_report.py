@@ -2,13 +2,15 @@
 
 from __future__ import annotations
 
-from typing import Any
+from typing import TYPE_CHECKING, Any
 
-from oddsbench.core.results import Certified, NoGoalFigures, NoGoalRuin, RoundsToRuin
 from oddsbench.model.numbers import text
 from oddsbench.report.cautions import caution_block
 from oddsbench.report.figure_table import FigureTable, Shown, row, word
 from oddsbench.report.numbers_text import decimal_text, render_table
+
+if TYPE_CHECKING:  # result types only: the core (and the engines behind it) load when a question is asked
+    from oddsbench.core.results import Certified, NoGoalFigures, NoGoalRuin, RoundsToRuin
 
 WRITTEN_OUT_WIDTH = 90
 APPROXIMATION_LABEL = "approximation, not a bound (common practice, no source)"

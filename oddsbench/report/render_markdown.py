@@ -47,6 +47,7 @@ def render_markdown(document: ReportDocument) -> str:
             ["start", ruleset.start],
             ["stake", text(ruleset.stake)],
             ["states", str(len(ruleset.states))],
+            *([["deck", ruleset.deck.describe()]] if ruleset.deck is not None else []),
         ],
     )
     if ruleset.params:

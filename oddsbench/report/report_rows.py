@@ -2,18 +2,23 @@
 
 from __future__ import annotations
 
+from typing import TYPE_CHECKING
+
 from oddsbench.model.figure import Figure
 from oddsbench.model.numbers import text, to_float
-from oddsbench.report.document import ReportDocument, RoundSection
+from oddsbench.report.document import ReportDocument
 from oddsbench.report.numbers_text import decimal_text, exact_text
 from oddsbench.report.round_report import figure_items, is_percent
 
+if TYPE_CHECKING:
+    from oddsbench.core.results import RoundColumn
 
-def strategy_label(section: RoundSection) -> str:
+
+def strategy_label(section: RoundColumn) -> str:
     return section.strategy if section.strategy is not None else "as written"
 
 
-def round_figure_items(section: RoundSection) -> list[tuple[str, str, Figure]]:
+def round_figure_items(section: RoundColumn) -> list[tuple[str, str, Figure]]:
     """(key, label, figure) for every figure of one round section, end and result chances too."""
     return figure_items(section.figures)
 

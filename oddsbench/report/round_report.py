@@ -3,13 +3,16 @@
 from __future__ import annotations
 
 import re
-from typing import Any
+from typing import TYPE_CHECKING, Any
 
-from oddsbench.core.results import Figure, RoundFigures, RoundResults
+from oddsbench.model.figure import Figure
 from oddsbench.model.numbers import text
 from oddsbench.report.cautions import caution_block
 from oddsbench.report.json_output import envelope
 from oddsbench.report.numbers_text import decimal_text, exact_text, render_table
+
+if TYPE_CHECKING:  # result types only: the core (and the engines behind it) load when a question is asked
+    from oddsbench.core.results import RoundFigures, RoundResults
 
 LABELS = {
     "expected_net": "expected net",
@@ -78,6 +81,17 @@ def round_rows(figures: RoundFigures) -> list[tuple[str, str, str]]:
         rows.append((label, *figure_cells(figure, percent=True)))
     for name, figure in figures.end_probability_by_step.items():
         rows.append((f"in {name!r} by step {figures.rounds}", *figure_cells(figure, percent=True)))
+    return rows + hand_rows(figures)
+
+
+def hand_rows(figures: RoundFigures) -> list[tuple[str, str, str]]:
+    """A round dealt in one draw of k: the hands, all equally likely, counted per end state."""
+    hands = figures.hands
+    if hands is None:
+        return []
+    rows = [(f"hands of {hands.count} from {hands.size:,} {hands.kind}s", f"{hands.total:,}", "all equally likely")]
+    for name, count in hands.per_end:
+        rows.append((f"  hands ending in {name!r}", f"{count:,}", f"{count:,} of {hands.total:,}"))
     return rows
 
 
@@ -143,7 +157,7 @@ def round_result_json(figures: RoundFigures, strategy: str | None = None) -> dic
     body["result_probability"] = {name: figure_json(f) for name, f in figures.result_probability.items()}
     if figures.rounds is not None:
         body["end_probability_by_step"] = {name: figure_json(f) for name, f in figures.end_probability_by_step.items()}
-    return {
+    result = {
         "start": figures.start,
         "strategy": strategy,
         "states": figures.states,
@@ -152,6 +166,16 @@ def round_result_json(figures: RoundFigures, strategy: str | None = None) -> dic
         "policy": dict(figures.actions),
         "notes": list(figures.notes),
     }
+    if figures.hands is not None:
+        hands = figures.hands
+        result["hands"] = {
+            "count": hands.count,
+            "size": hands.size,
+            "kind": hands.kind,
+            "total": str(hands.total),  # exact counts are text, as every exact value (past 2^53 too)
+            "per_end": {name: str(count) for name, count in hands.per_end},
+        }
+    return result
 
 
 def solve_json(results: RoundResults) -> dict[str, Any]:

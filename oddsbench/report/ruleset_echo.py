@@ -6,6 +6,7 @@ import hashlib
 from dataclasses import dataclass
 from typing import Any
 
+from oddsbench.model.expr import spelled
 from oddsbench.model.numbers import Rational, text, to_float
 from oddsbench.model.ruleset import Outcome, Ruleset
 
@@ -29,8 +30,17 @@ def outcome_rows(ruleset: Ruleset) -> list[OutcomeRow]:
         listed += list(state.choices)
         for action, outcomes in listed:
             for o in outcomes:
-                rows.append(OutcomeRow(state.name, action, o.to, o.prob, o.pay, o.stake, o.note))
+                rows.append(OutcomeRow(state.name, action, o.to, o.prob, o.pay, o.stake, _noted(o)))
     return rows
+
+
+def _noted(outcome: Outcome) -> str:
+    """The note, with what the cards decide in a deck game: the case's condition, fields read from the hands."""
+    parts = [f"when {spelled(outcome.when)}"] if outcome.when is not None else []
+    parts += [f"{name} = {spelled(tree)}" for name, tree in outcome.by_hand]
+    if not parts:
+        return outcome.note
+    return "; ".join(([outcome.note] if outcome.note else []) + parts)
 
 
 def file_digest(content: str) -> str:
@@ -58,6 +68,7 @@ def ruleset_json(ruleset: Ruleset, content: str) -> dict[str, Any]:
         "stake": text(ruleset.stake),
         "params": {name: {"exact": text(v), "decimal": to_float(v)} for name, v in ruleset.params},
         "states": len(ruleset.states),
+        "deck": ruleset.deck.describe() if ruleset.deck is not None else None,
         "outcomes": [
             {
                 "state": row.state,

@@ -2,15 +2,18 @@
 
 from __future__ import annotations
 
-from typing import Any
+from typing import TYPE_CHECKING, Any
 
-from oddsbench.core.results import Figure, RoundDistribution, SessionFigures, SessionResults, SessionSettings
+from oddsbench.model.figure import Figure
 from oddsbench.model.numbers import Rational, text, to_float
 from oddsbench.report.cautions import caution_block
 from oddsbench.report.figure_table import FigureTable, Shown, row, shown
 from oddsbench.report.json_output import envelope
 from oddsbench.report.numbers_text import decimal_text, render_table
 from oddsbench.report.round_report import figure_json
+
+if TYPE_CHECKING:  # result types only: the core (and the engines behind it) load when a question is asked
+    from oddsbench.core.results import RoundDistribution, SessionFigures, SessionResults, SessionSettings
 
 EXACT_WIDTH = 24
 SHOWN_FINAL_VALUES = 8

@@ -7,11 +7,13 @@ figures). The JSON is the ``session --json`` object without its envelope.
 from __future__ import annotations
 
 from dataclasses import dataclass
-from typing import Any
+from typing import TYPE_CHECKING, Any
 
-from oddsbench.core.results import SessionResults
 from oddsbench.model.numbers import text
 from oddsbench.report.numbers_text import decimal_text, exact_text
+
+if TYPE_CHECKING:  # result types only: the core (and the engines behind it) load when a question is asked
+    from oddsbench.core.results import SessionResults
 
 MD_EXACT_WIDTH = 60
 

@@ -2,14 +2,16 @@
 
 from __future__ import annotations
 
-from typing import Any
+from typing import TYPE_CHECKING, Any
 
-from oddsbench.core.results import Check, RoundSample, SessionSettings, Simulation
 from oddsbench.model.numbers import text
 from oddsbench.report.cautions import caution_block
 from oddsbench.report.json_output import envelope
 from oddsbench.report.numbers_text import decimal_text, exact_text, render_table
 from oddsbench.report.round_report import item_label
+
+if TYPE_CHECKING:  # result types only: the core (and the engines behind it) load when a question is asked
+    from oddsbench.core.results import Check, RoundSample, SessionSettings, Simulation
 
 INSIDE = "inside"
 OUTSIDE = "OUTSIDE <<"

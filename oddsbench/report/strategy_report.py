@@ -3,9 +3,9 @@
 from __future__ import annotations
 
 import textwrap
-from typing import Any
+from typing import TYPE_CHECKING, Any
 
-from oddsbench.core.results import BestPolicy, BestResults, Figure, RoundResults, StrategyCheck
+from oddsbench.model.figure import Figure
 from oddsbench.report.cautions import caution_block
 from oddsbench.report.figure_table import FigureTable
 from oddsbench.report.json_output import envelope
@@ -18,6 +18,9 @@ from oddsbench.report.round_report import (
     round_result_json,
     round_rows,
 )
+
+if TYPE_CHECKING:  # result types only: the core (and the engines behind it) load when a question is asked
+    from oddsbench.core.results import BestPolicy, BestResults, RoundResults, StrategyCheck
 
 CELL_KINDS = ("both", "exact", "decimal")
 

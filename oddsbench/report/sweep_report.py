@@ -4,15 +4,17 @@ from __future__ import annotations
 
 import csv
 import io
-from typing import Any
+from typing import TYPE_CHECKING, Any
 
-from oddsbench.core.results import SweepResult
 from oddsbench.model.numbers import parse_fraction
 from oddsbench.report.cautions import CAUTIONS
 from oddsbench.report.json_output import dumps, envelope
 from oddsbench.report.numbers_text import decimal_text, exact_text, render_table
 from oddsbench.report.round_report import figure_label
 from oddsbench.report.ruleset_echo import file_digest
+
+if TYPE_CHECKING:  # result types only: the core (and the engines behind it) load when a question is asked
+    from oddsbench.core.results import SweepResult
 
 EXACT_COLUMN_WIDTH = 30
 

@@ -14,6 +14,7 @@ from dataclasses import dataclass, field
 
 import numpy as np
 
+from oddsbench.chain.deal import HandCounts
 from oddsbench.chain.round_chain import RoundChain
 from oddsbench.model.defaults import DEFAULT_EXACT_BITS, ROUND_EXACT_LIMIT
 from oddsbench.model.errors import OddsbenchError
@@ -67,6 +68,7 @@ class RoundFigures:
     end_probability_by_step: dict[str, Figure] = field(default_factory=dict)
     notes: tuple[str, ...] = ()
     actions: tuple[tuple[str, str], ...] = ()
+    hands: HandCounts | None = None  # a deck game dealt in one draw: each end's count of hands
 
     @property
     def exact(self) -> bool:

@@ -22,6 +22,7 @@ import numpy as np
 
 from oddsbench.chain.bankroll import BankrollGrid
 from oddsbench.chain.round_distribution import RoundDistribution
+from oddsbench.chain.session_rules import MACHINE_BET
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.numbers import QQ, to_int
 
@@ -51,7 +52,7 @@ class BetCertificate:
 
 def _limits(grid: BankrollGrid) -> tuple[np.ndarray, np.ndarray]:
     values = np.arange(grid.low, grid.goal, dtype=np.int64)
-    return values, np.maximum(grid.largest_bet(values), grid.min_bet)
+    return values, np.maximum(grid.largest_bet(values), min(grid.min_bet, MACHINE_BET))
 
 
 def _evaluate(grid, steps, probs, values, bets) -> np.ndarray:

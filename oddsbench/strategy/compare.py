@@ -12,6 +12,7 @@ import dataclasses
 from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 
+from oddsbench.chain.deal import dealt, single_draw
 from oddsbench.chain.round_chain import build_round_chain
 from oddsbench.model.defaults import DEFAULT_EXACT_BITS, DEFAULT_MAX_STATES, ROUND_EXACT_LIMIT
 from oddsbench.model.errors import OddsbenchError
@@ -88,8 +89,13 @@ def policy_of(ruleset: Ruleset, name: str | None) -> dict[str, str]:
     return strategy_policy(ruleset, named_strategy(ruleset, name)) if name is not None else {}
 
 
-def starting_at(ruleset: Ruleset, state: str | None) -> Ruleset:
-    """The same ruleset with the round starting in ``state`` (None keeps the file's start)."""
+def starting_at(ruleset: Ruleset, state: str | None, max_states: int | None = DEFAULT_MAX_STATES) -> Ruleset:
+    """The ruleset of a round started in ``state`` (None keeps the file's start), as plain states:
+    a deck game is dealt out from there (``chain/deal.py``; the round is then over (state, hands))."""
+    return dealt(_started(ruleset, state), max_states)
+
+
+def _started(ruleset: Ruleset, state: str | None) -> Ruleset:
     if state is None or state == ruleset.start:
         return ruleset
     if state not in ruleset.state_names:
@@ -99,6 +105,29 @@ def starting_at(ruleset: Ruleset, state: str | None) -> Ruleset:
         hint = f" (did you mean {close[0]!r}?)" if close else ""
         raise OddsbenchError(f"{ruleset.source}: no state {state!r} to start from{hint}")
     return dataclasses.replace(ruleset, start=state)
+
+
+def _shared_deal(ruleset: Ruleset, starts: Sequence[str], max_states: int | None) -> Callable[[str], Ruleset | None]:
+    """Several start states of one deck game (``--from 'up-*'``): deal once from the file's start and
+    start each round there when that deal already holds the state with nothing dealt (hands after it
+    are shared: the dealer's 6 then 10 is the same state whatever the upcard was). None: deal apart."""
+    if ruleset.deck is None or len(set(starts)) < 2:
+        return lambda start: None
+    try:
+        whole = dealt(ruleset, max_states)
+    except OddsbenchError:
+        return lambda start: None  # the file's own start may break where these starts do not
+    names = set(whole.state_names)
+    return lambda start: dataclasses.replace(whole, start=start) if start in names else None
+
+
+def with_hands(ruleset: Ruleset, figures: RoundFigures) -> RoundFigures:
+    """A round dealt in one draw of k (a deck game): each end's chance also as a count of hands."""
+    draw = single_draw(ruleset)
+    if draw is None:
+        return figures
+    counted = draw.counted({name: figure.exact for name, figure in figures.end_probability.items()})
+    return dataclasses.replace(figures, hands=counted) if counted is not None else figures
 
 
 def names_several(starts: str | None) -> bool:
@@ -119,7 +148,7 @@ def matching_states(ruleset: Ruleset, pattern: str) -> tuple[str, ...]:
             if not found:
                 raise OddsbenchError(f"{ruleset.source}: no state matches {part!r}")
         else:
-            found = [starting_at(ruleset, part).start]
+            found = [_started(ruleset, part).start]
         chosen += [name for name in found if name not in chosen]
     if not chosen:
         raise OddsbenchError(f"{ruleset.source}: no start state given")
@@ -153,10 +182,12 @@ def solve_rounds(
 ) -> RoundResults:
     """Solve one round per (start state, strategy name or None), in order."""
     columns = []
+    shared = _shared_deal(ruleset, [start for start, _ in plays], max_states)
     for start, strategy in plays:
-        policy = policy_of(ruleset, strategy)
-        chain = build_round_chain(starting_at(ruleset, start), policy, max_states)
-        figures = solve_round(chain, rounds, exact_limit, should_stop, exact_bits)
+        played = shared(start) or starting_at(ruleset, start, max_states)
+        policy = policy_of(played, strategy)
+        chain = build_round_chain(played, policy, max_states)
+        figures = with_hands(_started(ruleset, start), solve_round(chain, rounds, exact_limit, should_stop, exact_bits))
         columns.append(RoundColumn(figures.start, strategy, policy, figures))
     return RoundResults(ruleset.title, tuple(columns), compared)
 

@@ -10,27 +10,14 @@ import numpy as np
 
 from oddsbench.chain.bankroll import BankrollGrid
 from oddsbench.chain.round_distribution import RoundDistribution
+from oddsbench.chain.session_rules import floor_times, machine_bets, whole_units
 from oddsbench.model.errors import OddsbenchError
-from oddsbench.model.numbers import Rational, denominator, is_integer, numerator, text, to_int
+from oddsbench.model.numbers import Rational
 from oddsbench.strategy.plans import PROGRESSIONS, Plan
 
 
 def _units(plan: Plan, amount: Rational, grid: BankrollGrid) -> int:
-    count = amount / grid.unit
-    if not is_integer(count):
-        raise OddsbenchError(
-            f"--plan {plan.spelling!r}: bet {text(amount)} is not a whole number of betting units of {text(grid.unit)}"
-        )
-    return to_int(count)
-
-
-def _floor_times(values: np.ndarray, fraction: Rational, grid: BankrollGrid) -> np.ndarray:
-    """floor(fraction * bankroll / unit) in betting units, in exact integer arithmetic."""
-    top = numerator(fraction)
-    bottom = denominator(fraction) * grid.scale
-    if top * int(values.max(initial=0)) < 2**62:
-        return (values * top) // bottom
-    return np.array([v * top // bottom for v in values.tolist()], dtype=np.int64)
+    return whole_units(f"--plan {plan.spelling!r}: bet", amount, grid.unit)
 
 
 def planned_bets(
@@ -43,7 +30,7 @@ def planned_bets(
     stay = np.zeros((1, outcomes), dtype=np.int64)
     notes: list[str] = []
     if plan.kind == "flat":
-        return np.full((1, width), _units(plan, plan.amount, grid)), stay, ()
+        return machine_bets(np.full((1, width), _units(plan, plan.amount, grid), dtype=object)), stay, ()
     if plan.kind == "timid":
         return np.full((1, width), grid.min_bet), stay, ()
     if plan.kind == "bold":
@@ -52,10 +39,9 @@ def planned_bets(
             notes.append(f"{plan.spelling}: no outcome wins, so no bet reaches the goal; bold play stakes everything")
             return np.full((1, width), np.iinfo(np.int64).max // 4), stay, tuple(notes)
         need = grid.goal - values
-        top, bottom = numerator(best), denominator(best)
-        return np.array([-((-need * bottom) // top)]), stay, ()
+        return -floor_times(-need, 1 / best)[None, :], stay, ()  # ceil(need / best)
     if plan.kind == "fraction":
-        return _floor_times(values, plan.amount, grid)[None, :], stay, ()
+        return floor_times(values, plan.amount / grid.scale)[None, :], stay, ()
     if plan.kind == "kelly":
         from oddsbench.strategy.kelly import kelly_bet
 
@@ -66,14 +52,15 @@ def planned_bets(
                 "the plan bets the table minimum instead"
             )
         if bet.fraction.exact is not None:
-            bets = _floor_times(values, bet.fraction.exact, grid)
+            bets = floor_times(values, bet.fraction.exact / grid.scale)
         else:
             bets = np.floor(values * bet.fraction.decimal / grid.scale).astype(np.int64)
         return bets[None, :], stay, tuple(notes)
     if plan.kind in PROGRESSIONS:
         base = _units(plan, plan.amount, grid)
         levels = plan.series
-        bets = np.array([[base * 2**level] * width for level in range(levels)], dtype=np.int64).reshape(levels, width)
+        bets = machine_bets(np.array([[base * 2**level] * width for level in range(levels)], dtype=object))
+        bets = bets.reshape(levels, width)
         nets = [o.net for o in distribution.outcomes]
         step = np.zeros((levels, outcomes), dtype=np.int64)
         for level in range(levels):

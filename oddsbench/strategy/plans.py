@@ -33,7 +33,7 @@ from collections.abc import Iterable
 from dataclasses import dataclass
 from typing import TYPE_CHECKING
 
-from oddsbench.model.errors import OddsbenchError
+from oddsbench.model.errors import OddsbenchError, shown_name
 
 if TYPE_CHECKING:  # the grammar stays light: the command line reads PLAN_HELP for its --help
     from oddsbench.model.numbers import Rational
@@ -89,6 +89,7 @@ def parse_plan(spelling: str, no_goal: bool = False) -> Plan:
     from oddsbench.model.expr import ExpressionError, evaluate_text
     from oddsbench.model.numbers import QQ, is_integer, text, to_int
 
+    named = f"--plan {shown_name(spelling)}"
     parts = [part.strip() for part in spelling.strip().split(":")]
     kind, args = parts[0].lower(), parts[1:]
     known = ", ".join(name for name, _ in PLAN_HELP)
@@ -97,18 +98,18 @@ def parse_plan(spelling: str, no_goal: bool = False) -> Plan:
         try:
             number = evaluate_text(field)
         except ExpressionError as error:
-            raise OddsbenchError(f"--plan {spelling!r}: {what}: {error}") from None
+            raise OddsbenchError(f"{named}: {what}: {error}") from None
         if number <= 0:
-            raise OddsbenchError(f"--plan {spelling!r}: {what} must be more than 0, got {text(number)}")
+            raise OddsbenchError(f"{named}: {what} must be more than 0, got {text(number)}")
         return number
 
     def expect(count: int) -> None:
         if len(args) != count:
-            raise OddsbenchError(f"--plan {spelling!r}: {kind} takes {count} value(s) after ':' (plans: {known})")
+            raise OddsbenchError(f"{named}: {kind} takes {count} value(s) after ':' (plans: {known})")
 
     if kind == "timid" and args:
         raise OddsbenchError(
-            f"--plan {spelling!r}: timid takes no value: it always bets the table minimum "
+            f"{named}: timid takes no value: it always bets the table minimum "
             "(set that with --min-bet, or use flat:B for a fixed bet of B)"
         )
     if kind in ("timid", "bold", "best"):
@@ -125,19 +126,19 @@ def parse_plan(spelling: str, no_goal: bool = False) -> Plan:
         expect(1)
         fraction = value(args[0], "fraction")
         if fraction > 1:
-            raise OddsbenchError(f"--plan {spelling!r}: fraction must be at most 1, got {text(fraction)}")
+            raise OddsbenchError(f"{named}: fraction must be at most 1, got {text(fraction)}")
         plan = Plan(spelling, kind, fraction)
     elif kind in PROGRESSIONS:
         expect(2)
         series = value(args[1], "series length")
         if not is_integer(series) or series > MAX_SERIES:
-            raise OddsbenchError(f"--plan {spelling!r}: series length must be a whole number from 1 to {MAX_SERIES}")
+            raise OddsbenchError(f"{named}: series length must be a whole number from 1 to {MAX_SERIES}")
         plan = Plan(spelling, kind, value(args[0], "base bet"), to_int(series))
     else:
-        raise OddsbenchError(f"--plan {spelling!r}: unknown plan (plans: {known})")
+        raise OddsbenchError(f"{named}: unknown plan (plans: {known})")
     if no_goal and not plan.plays_without_goal:
         raise OddsbenchError(
-            f"--plan {spelling!r}: with no goal the bet must stay bounded; use {NO_GOAL_PLANS}"
+            f"{named}: with no goal the bet must stay bounded; use {NO_GOAL_PLANS}"
             + (" (bold play needs a goal to aim at)" if kind == "bold" else "")
         )
     return plan

@@ -28,8 +28,10 @@ from pathlib import Path
 from typing import Any
 
 from oddsbench.model.defaults import DEFAULT_PLANS, ROUND_EXACT_LIMIT, SESSION_SETTING_NAMES
-from oddsbench.model.errors import Problem, RulesetError
+from oddsbench.model.errors import Problem, RulesetError, shown_name
 from oddsbench.model.expr import ExpressionError, evaluate_text
+from oddsbench.model.file_read import FileRefused, read_text_capped
+from oddsbench.model.load import MAX_FILE_BYTES
 from oddsbench.model.numbers import QQ, Rational, text
 
 MAX_POINTS = 100_000
@@ -178,11 +180,9 @@ def read_sweep_spec(path: str | Path, check_plan: PlanCheck | None = None) -> Sw
     path = Path(path)
     source = path.name
     try:
-        document = tomllib.loads(path.read_text(encoding="utf-8"))
-    except FileNotFoundError:
-        raise RulesetError([Problem(source, "", "no such file")]) from None
-    except (OSError, UnicodeDecodeError) as error:
-        raise RulesetError([Problem(source, "", f"cannot be read: {error}")]) from None
+        document = tomllib.loads(read_text_capped(path, MAX_FILE_BYTES, "is a folder, not a sweep spec"))
+    except FileRefused as refused:
+        raise RulesetError([Problem(source, "", str(refused))]) from None
     except tomllib.TOMLDecodeError as error:
         raise RulesetError([Problem(source, "", f"not valid TOML: {error}")]) from None
     reader = _SpecReader(source)
@@ -200,15 +200,11 @@ def read_sweep_spec(path: str | Path, check_plan: PlanCheck | None = None) -> Sw
     if not isinstance(ruleset_name, str) or not ruleset_name:
         reader.error("[sweep], ruleset", "missing: the path of the ruleset file to vary")
         raise RulesetError(reader.problems)
-    ruleset_path = (
-        (path.parent / ruleset_name).resolve() if not Path(ruleset_name).is_absolute() else Path(ruleset_name)
-    )
+    ruleset_path = path.parent / ruleset_name  # an absolute name stays as it is; no resolve: loops are refused below
     try:
-        ruleset_text = ruleset_path.read_text(encoding="utf-8")
-    except (OSError, UnicodeDecodeError) as error:
-        reasons = {FileNotFoundError: "no such file"}
-        reason = reasons.get(type(error), str(error))
-        reader.error("[sweep], ruleset", f"{ruleset_name!r}: {reason}")
+        ruleset_text = read_text_capped(ruleset_path, MAX_FILE_BYTES, "is a folder, not a ruleset file")
+    except FileRefused as refused:
+        reader.error("[sweep], ruleset", f"{shown_name(ruleset_name)}: {refused}")
         raise RulesetError(reader.problems) from None
     axes: list[Axis] = []
     params = document.get("params", {})

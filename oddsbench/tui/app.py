@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import os
 from collections.abc import Iterable
 from pathlib import Path
 
@@ -11,13 +12,14 @@ from textual.screen import Screen
 
 from oddsbench.model.atomic_write import write_text_atomically
 from oddsbench.model.errors import OddsbenchError
-from oddsbench.model.recovery import discard_recovery, find_recovery
+from oddsbench.model.visible import visible
 from oddsbench.tui.bundled import demo_ruleset
 from oddsbench.tui.editing import EditSession
 from oddsbench.tui.screens.dialogs import AskName, Choose
 from oddsbench.tui.screens.help import HelpScreen
 from oddsbench.tui.screens.open_file import NEW, OpenScreen
 from oddsbench.tui.screens.workbench import WorkbenchScreen
+from oddsbench.tui.screens.workbench.recovery import offer_recovery
 from oddsbench.tui.templates import NEW_RULESET
 
 STYLES = Path(__file__).parent / "styles"
@@ -34,6 +36,10 @@ class WorkbenchApp(App):
         Binding("question_mark", "help", "Help", show=False),
         Binding("f9", "cautions", "Cautions in full", show=False, priority=True),
     ]
+
+    def notify(self, message: str, *, title: str = "", severity="information", timeout=None, markup: bool = False):
+        """Every notification as plain text: names and paths in it are never markup, never escapes."""
+        super().notify(visible(message), title=visible(title), severity=severity, timeout=timeout, markup=False)
 
     def __init__(self, session: EditSession, folder: Path, missing: Path | None = None, cursor_blinks: bool = True):
         super().__init__()
@@ -84,48 +90,15 @@ class WorkbenchApp(App):
         """Replace the open file (the caller has already dealt with unsaved changes)."""
         self.session = session
         old = self.workbench
+        old.recovery.release()  # the same file may be opened again: its claim must be free
         self.push_screen(WorkbenchScreen(session, self.folder))
         self.call_later(self._drop_screen, old)
         self._offer_recovery()
 
     def _offer_recovery(self) -> None:
-        """If a killed session left unsaved edits of this file, offer them back."""
-        session = self.session
-        if session.path is None:
-            return
-        found = find_recovery(session.path, session.saved_text)
-        if found.problem:
-            self.notify(found.problem, severity="warning")
-        copy = found.copy
-        if copy is None:
-            return
+        """Claim the open file's recovery copies and offer back what a killed session left."""
         screen = self.workbench
-        path = session.path
-
-        def answered(answer: str) -> None:
-            if answer == "r":
-                session.replace_text(copy.text, "restored unsaved edits")
-                session.seal()
-                screen._refresh_forced()
-                self.notify("unsaved edits restored: Ctrl+S saves them, Ctrl+Z takes them back")
-            elif answer == "d":
-                discard_recovery(path)
-                self.notify("recovery copy discarded")
-            else:
-                self.notify("recovery copy kept; the file is shown as saved")
-
-        detail = f"{path}"
-        if copy.disk_changed(session.saved_text):
-            detail += "\nthe file changed on disk since: restoring replaces what is there now"
-        question = f"Unsaved edits of {path.name} from {copy.written_local()} were kept: that session ended unsaved."
-        self.push_screen(
-            Choose(
-                question,
-                [("r", "Restore them"), ("d", "Discard the copy"), ("k", "Keep the copy, open as saved")],
-                detail=detail,
-            ),
-            answered,
-        )
+        offer_recovery(self, screen.recovery, self.session, screen._refresh_forced)
 
     async def _drop_screen(self, screen: WorkbenchScreen) -> None:
         if screen in self.screen_stack:
@@ -282,7 +255,7 @@ def create_app(path: str | Path | None = None, folder: Path | None = None, curso
     folder = folder or Path.cwd()
     missing = None
     target = Path(path).expanduser() if path is not None else None
-    if target is not None and not target.exists():
+    if target is not None and not os.path.lexists(target):  # a loop or a dangling link is read (and refused) below
         missing, target = target, None
     if target is None:
         demo = demo_ruleset()

@@ -12,10 +12,12 @@ from pathlib import Path
 
 from tomlkit.exceptions import TOMLKitError
 
-from oddsbench.model.atomic_write import write_text_atomically
+from oddsbench.model.atomic_write import OnDisk, write_text_atomically
 from oddsbench.model.document import DocumentError, RulesetDocument, parse_document
 from oddsbench.model.errors import OddsbenchError, Problem
+from oddsbench.model.file_read import FileRefused, read_text_capped
 from oddsbench.model.history import History, Step
+from oddsbench.model.load import MAX_FILE_BYTES
 from oddsbench.tui.bundled import is_bundled
 
 Edit = Callable[[RulesetDocument], object]
@@ -36,6 +38,7 @@ class EditSession:
         self.path = path
         self.history = History(text)
         self.saved_text: str | None = text if saved else None
+        self.disk = OnDisk(text if saved else None)  # the file as read or last written: a save checks it still is
         self.document: RulesetDocument | None = None
         self.toml_problem: Problem | None = None
         self._load(text)
@@ -43,11 +46,9 @@ class EditSession:
     @classmethod
     def open(cls, path: Path) -> EditSession:
         try:
-            text = path.read_text(encoding="utf-8")
-        except UnicodeDecodeError:
-            raise OddsbenchError(f"{path}: is not UTF-8 text") from None
-        except OSError as error:
-            raise OddsbenchError(f"{path}: cannot be read: {error.strerror or error}") from None
+            text = read_text_capped(path, MAX_FILE_BYTES, "is a folder, not a ruleset file")
+        except FileRefused as refused:
+            raise OddsbenchError(f"{path}: {refused}") from None
         return cls(text, path)
 
     @property
@@ -113,12 +114,17 @@ class EditSession:
     def seal(self) -> None:
         self.history.seal()
 
-    def save(self, path: Path | None = None) -> Path:
-        """Write the text atomically to ``path`` (or the file's own path) and mark it saved."""
+    def save(self, path: Path | None = None, overwrite: bool = False) -> Path:
+        """Write the text atomically to ``path`` (or the file's own path) and mark it saved.
+
+        Saving over the file's own path raises ``DiskChanged`` when another program changed it
+        since it was opened or last saved, unless ``overwrite`` (the user said so)."""
         target = path or self.path
         if target is None:
             raise OddsbenchError("no file name: use save as")
-        write_text_atomically(target, self.text)
+        own = self.path is not None and target == self.path
+        write_text_atomically(target, self.text, expect=None if overwrite or not own else self.disk)
+        self.disk = OnDisk(self.text)
         self.path = target
         self.saved_text = self.text
         self.history.seal()

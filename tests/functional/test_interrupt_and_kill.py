@@ -9,10 +9,10 @@ drive ``oddsbench report --output`` in a subprocess that stops itself at the mom
 from __future__ import annotations
 
 import os
+import select
 import signal
 import subprocess
 import sys
-import time
 from pathlib import Path
 
 import pytest
@@ -28,17 +28,42 @@ def _env() -> dict[str, str]:
     return env
 
 
+# The program as the user runs it, saying on stdout the moment its round solve begins: the test
+# presses Ctrl-C then, not after a guessed number of seconds (startup is slow on a loaded machine).
+SAY_WHEN_SOLVING = """
+import sys
+import oddsbench.solve.round as solving
+
+real = solving.solve_round
+
+def said(*args, **kwargs):
+    print("solving", flush=True)
+    return real(*args, **kwargs)
+
+solving.solve_round = said
+from oddsbench.cli.main import entry
+entry()
+"""
+HANG_GUARD = 120  # seconds: only a guard against a hang on a loaded machine, never the thing tested
+
+
+def first_line(process: subprocess.Popen, seconds: float) -> str:
+    """The child's first line of stdout, or "" if it said nothing within ``seconds``."""
+    ready, _, _ = select.select([process.stdout], [], [], seconds)
+    return process.stdout.readline() if ready else ""
+
+
 @pytest.mark.skipif(sys.platform == "win32", reason="POSIX signals")
 def test_ctrl_c_during_a_long_solve_exits_130_with_one_line(tmp_path):
     process = subprocess.Popen(
-        [sys.executable, "-m", "oddsbench", "solve", str(PASS_LINE), "--rounds", "50000000"],
+        [sys.executable, "-c", SAY_WHEN_SOLVING, "solve", str(PASS_LINE), "--rounds", "50000000"],
         cwd=tmp_path,
         env=_env(),
         stdout=subprocess.PIPE,
         stderr=subprocess.PIPE,
         text=True,
     )
-    time.sleep(4)  # well inside the step-by-step loop, which would run for minutes
+    assert first_line(process, HANG_GUARD) == "solving\n"  # inside the step-by-step loop's solve, for minutes
     assert process.poll() is None, "the solve ended before it could be interrupted"
     process.send_signal(signal.SIGINT)
     out, err = process.communicate(timeout=60)

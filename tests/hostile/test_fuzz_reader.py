@@ -99,14 +99,46 @@ JUNK = st.recursive(
     lambda inner: st.one_of(st.lists(inner, max_size=4), st.dictionaries(st.text(max_size=8), inner, max_size=4)),
     max_leaves=12,
 )
+HAND_CONDITIONS = st.sampled_from(
+    ["flush(hand)", "most(hand) == 2", "total(hand) > 5", "count(hand, red) > 0", "cards(x) > 1", "left() < 3"]
+    + ["straight(drawn)", "count(hand, 1/0)", "most()", "pairs(hand) + left(A)"]
+)
 OUTCOME = st.dictionaries(
-    st.sampled_from(["to", "prob", "pay", "stake", "note", "odd"]),
-    st.one_of(NAMES, EXPRESSIONS, SCALARS),
+    st.sampled_from(["to", "prob", "pay", "stake", "note", "odd", "when"]),
+    st.one_of(NAMES, EXPRESSIONS, SCALARS, HAND_CONDITIONS),
     max_size=5,
 )
 OUTCOMES = st.one_of(st.lists(OUTCOME, max_size=4), JUNK)
+DRAW = st.one_of(
+    st.integers(-1, 3),
+    st.fixed_dictionaries(
+        {},
+        optional={
+            "hand": st.one_of(st.sampled_from(["hand", "x", "drawn", "1h"]), SCALARS),
+            "count": st.one_of(st.integers(-1, 3), SCALARS),
+            "take": st.one_of(st.lists(st.sampled_from(["A", "red", "A of spades", "Z"]), max_size=2), SCALARS),
+        },
+    ),
+    JUNK,
+)
+DECK = st.one_of(
+    st.fixed_dictionaries(
+        {},
+        optional={
+            "copies": st.one_of(st.integers(-1, 3), SCALARS),
+            "items": st.one_of(
+                st.dictionaries(st.sampled_from(["red", "blue", "1x", "__x"]), st.integers(0, 3), max_size=3), JUNK
+            ),
+            "ranks": st.one_of(st.lists(st.sampled_from(["2", "3", "A", "K", "x y"]), max_size=4), JUNK),
+            "suits": st.one_of(st.lists(st.sampled_from(["s", "h", "A"]), max_size=3), JUNK),
+            "remove": st.one_of(st.lists(st.sampled_from(["2", "A of s", "Q"]), max_size=2), JUNK),
+            "ace": st.one_of(st.sampled_from(["both", "high", "low", "odd"]), SCALARS),
+        },
+    ),
+    JUNK,
+)
 STATE = st.one_of(
-    st.fixed_dictionaries({}, optional={"outcomes": OUTCOMES, "result": st.one_of(NAMES, SCALARS)}),
+    st.fixed_dictionaries({}, optional={"outcomes": OUTCOMES, "result": st.one_of(NAMES, SCALARS), "draw": DRAW}),
     st.fixed_dictionaries({"choices": st.dictionaries(NAMES, OUTCOMES, max_size=3)}),
     JUNK,
 )
@@ -155,6 +187,7 @@ DOCUMENT = st.fixed_dictionaries(
         "strategies": st.one_of(st.dictionaries(NAMES, st.dictionaries(NAMES, NAMES, max_size=3)), JUNK),
         "families": st.one_of(st.dictionaries(st.sampled_from(["f", "g", ""]), FAMILY, max_size=2), JUNK),
         "session": JUNK,
+        "deck": DECK,
         "extra": JUNK,
     },
 )

@@ -145,6 +145,24 @@ def _folder(tmp_path: Path) -> Path:
     return folder
 
 
+def _fifo(tmp_path: Path) -> Path:
+    path = tmp_path / "pipe.toml"
+    os.mkfifo(path)  # no writer ever comes: a reader that waits for one hangs
+    return path
+
+
+def _endless_device(tmp_path: Path) -> Path:
+    path = tmp_path / "zero.toml"
+    path.symlink_to("/dev/zero")  # stat says 0 bytes; reading never ends
+    return path
+
+
+def _link_loop(tmp_path: Path) -> Path:
+    (tmp_path / "a.toml").symlink_to("b.toml")
+    (tmp_path / "b.toml").symlink_to("a.toml")
+    return tmp_path / "a.toml"
+
+
 GENERATED = {
     "huge": (_huge, "huge.toml: file is"),
     "not-utf8": (_not_utf8, "latin1.toml: is not UTF-8 text (bad byte at position"),
@@ -155,6 +173,9 @@ GENERATED = {
     "many-unknown-targets": (_many_unknown_targets, "targets.toml: state 's0', outcome 4000, to: unknown state"),
     "folder": (_folder, "folder.toml: is a folder, not a ruleset file"),
     "missing": (lambda tmp_path: tmp_path / "nowhere.toml", "nowhere.toml: no such file"),
+    "fifo": (_fifo, "pipe.toml: is a named pipe (FIFO), not a regular file"),
+    "endless-device": (_endless_device, "zero.toml: is a character device, not a regular file"),
+    "link-loop": (_link_loop, "a.toml: is a loop of symbolic links"),
 }
 
 
@@ -193,3 +214,18 @@ def test_bad_option_values_exit_2_in_one_line(tmp_path):
     assert result.returncode == 2
     assert "Traceback" not in result.stderr
     assert "--max-states: expected a whole number, got 'lots'" in result.stderr
+
+
+@pytest.mark.parametrize("case", ["fifo", "endless-device", "link-loop"])
+def test_a_sweep_naming_a_file_that_is_not_regular_is_refused_in_one_line(case, tmp_path):
+    build, fragment = GENERATED[case]
+    named = build(tmp_path).name
+    spec = tmp_path / "spec.toml"
+    spec.write_text(f'[sweep]\nruleset = "{named}"\n\n[params]\np = ["1/2"]\n')
+    result = run_cli("sweep", str(spec), cwd=tmp_path)
+    assert_handled(result, 2, tmp_path)
+    reason = fragment.split(": ", 1)[1]
+    assert result.stderr.splitlines() == [f"spec.toml: [sweep], ruleset: '{named}': {reason}"]
+    result = run_cli("sweep", named, cwd=tmp_path)  # the spec itself
+    assert_handled(result, 2, tmp_path)
+    assert result.stderr.splitlines() == [f"{named}: {reason}"]

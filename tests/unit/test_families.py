@@ -163,7 +163,10 @@ def test_sum_errors_in_a_member_name_the_family_and_index():
         '{ to = "at-{i - 1}", prob = "1/2", when = "i > 1" }', '{ to = "at-{i - 1}", prob = "1/3", when = "i > 1" }'
     )
     messages = problems_of(text)
-    assert "test.toml: state 'at-2' (family 'at' at i=2): probabilities sum to 5/6, not 1" in messages
+    assert (
+        "test.toml: state 'at-2' (family 'at' at i=2): probabilities sum to 5/6, not 1 "
+        "(the same in 1 more state of family 'at')" in messages
+    )
 
 
 def test_strategy_missing_many_family_states_is_one_line():

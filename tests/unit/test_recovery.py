@@ -3,14 +3,25 @@
 from __future__ import annotations
 
 import json
+import os
+import subprocess
+import sys
+from pathlib import Path
 
+from oddsbench.model.load import MAX_FILE_BYTES
 from oddsbench.model.recovery import (
+    MAX_COPY_BYTES,
+    claim_recovery,
     copy_path,
+    discard_copy,
     discard_recovery,
     find_recovery,
+    keep_copy,
     recovery_folder,
     write_recovery,
 )
+
+ROOT = Path(__file__).resolve().parents[2]
 
 DISK = 'title = "on disk"\n'
 EDITED = 'title = "edited, not saved"\n'
@@ -88,3 +99,77 @@ def test_discarding_removes_the_copy_and_discarding_again_is_harmless(tmp_path):
     assert not copy_path(path).exists()
     discard_recovery(path)
     assert find_recovery(path, DISK).copy is None
+
+
+def test_one_claim_at_a_time_and_the_lock_dies_with_its_holder(tmp_path):
+    path = tmp_path / "game.toml"
+    first = claim_recovery(path)
+    assert first.owned and first.problem is None
+    second = claim_recovery(path)  # a second open of the lock file conflicts, as another process would
+    assert not second.owned and second.holder == os.getpid()
+    first.release()
+    third = claim_recovery(path)
+    assert third.owned
+    third.release()
+
+
+def test_a_claim_held_by_another_process_names_it_and_ends_with_it(tmp_path):
+    path = tmp_path / "game.toml"
+    holder = subprocess.Popen(
+        [sys.executable, "-c", HOLD_CLAIM, str(path)],
+        env=dict(os.environ, PYTHONPATH=str(ROOT)),
+        stdout=subprocess.PIPE,
+        text=True,
+    )
+    try:
+        assert holder.stdout.readline().strip() == "claimed"
+        claim = claim_recovery(path)
+        assert not claim.owned and claim.holder == holder.pid
+    finally:
+        holder.kill()
+        holder.wait(timeout=30)
+    claim = claim_recovery(path)
+    assert claim.owned, "a killed holder leaves no lock behind"
+    claim.release()
+
+
+HOLD_CLAIM = """
+import sys, time
+from pathlib import Path
+from oddsbench.model.recovery import claim_recovery
+claim = claim_recovery(Path(sys.argv[1]))
+print("claimed" if claim.owned else "not claimed", flush=True)
+time.sleep(120)
+"""
+
+
+def test_a_kept_copy_is_out_of_reach_of_the_next_copy_and_offered_after_it(tmp_path):
+    path = tmp_path / "game.toml"
+    write_recovery(path, EDITED, DISK)
+    kept = keep_copy(find_recovery(path, DISK).copy)
+    assert kept.kept and not copy_path(path).exists()
+    write_recovery(path, "newer edits\n", DISK)  # the next session's edits
+    discard_recovery(path)  # ... undone back to the saved text
+    assert kept.file.exists()
+    found = find_recovery(path, DISK)
+    assert found.copy.text == EDITED and found.copy.kept
+    assert find_recovery(path, DISK, skip=frozenset({kept.file})).copy is None
+    discard_copy(found.copy)
+    assert find_recovery(path, DISK).copy is None
+
+
+def test_copies_are_read_only_when_regular_and_under_the_cap(tmp_path):
+    path = tmp_path / "game.toml"
+    target = copy_path(path)
+    target.parent.mkdir(parents=True, exist_ok=True)
+    os.mkfifo(target)  # reading a FIFO would wait for a writer forever
+    assert "named pipe" in find_recovery(path, DISK).problem
+    target.unlink()
+    target.symlink_to("/dev/zero")  # endless
+    assert "character device" in find_recovery(path, DISK).problem
+    target.unlink()
+    target.write_text(json.dumps({"path": str(path), "text": "x" * (MAX_COPY_BYTES + 1)}))
+    assert "over the limit" in find_recovery(path, DISK).problem
+    record = {"path": str(path.resolve()), "text": "x" * (MAX_FILE_BYTES + 1), "disk_sha256": None, "written": "t"}
+    target.write_text(json.dumps(record))
+    assert "its text is over the limit" in find_recovery(path, DISK).problem

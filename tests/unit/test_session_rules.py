@@ -99,3 +99,12 @@ def test_a_half_unit_flat_bet_with_no_unit_set_is_played_in_half_units():
 def test_no_goal_refuses_plans_whose_bet_grows_with_the_bankroll():
     with pytest.raises(OddsbenchError, match="with no goal the bet must stay bounded"):
         solve_no_goal(EVEN_MONEY, parse_plan("bold"), QQ(5))
+
+
+def test_the_rules_load_without_numpy_so_reading_a_ruleset_stays_quick():
+    import subprocess
+    import sys
+
+    code = "import sys, oddsbench.chain.round_distribution; print('numpy' in sys.modules)"
+    shown = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, check=True).stdout
+    assert shown.strip() == "False"

@@ -42,10 +42,14 @@ class Structure:
 
 
 def structure_of(matrix) -> Structure:
-    """The structure of a scipy sparse matrix (any format)."""
-    coo = matrix.tocoo()
+    """The structure of a scipy sparse matrix (CSC and CSR read in place; other formats via CSC)."""
     size = matrix.shape[0]
-    if coo.nnz == 0:
+    if matrix.format not in ("csc", "csr"):
+        matrix = matrix.tocsc()
+    if matrix.nnz == 0:
         return Structure(size, 0, 0, 0)
-    offset = coo.col.astype(np.int64) - coo.row.astype(np.int64)
-    return Structure(size, int(max(-offset.min(), 0)), int(max(offset.max(), 0)), int(coo.nnz))
+    major = np.repeat(np.arange(matrix.shape[0 if matrix.format == "csr" else 1]), np.diff(matrix.indptr))
+    offset = matrix.indices.astype(np.int64) - major  # column - row (CSR), or row - column (CSC)
+    if matrix.format == "csc":
+        offset = -offset
+    return Structure(size, int(max(-offset.min(), 0)), int(max(offset.max(), 0)), int(matrix.nnz))

@@ -6,9 +6,10 @@ import math
 from collections.abc import Mapping
 
 from oddsbench.model.errors import OddsbenchError
-from oddsbench.model.numbers import QQ, Rational, denominator, numerator, text
+from oddsbench.model.numbers import QQ, Rational, count_text, denominator, numerator, text
 
 Law = tuple[tuple[int, Rational], ...]  # (jump in grid steps, chance), sorted by jump
+MAX_LAW_SPAN = 1_000_000  # largest win + largest loss, in steps of their gcd: the size of every polynomial and table
 
 
 def normalise_law(jumps: Mapping[int, Rational]) -> Law:
@@ -29,6 +30,12 @@ def normalise_law(jumps: Mapping[int, Rational]) -> Law:
         total += chance
     if total != 1:
         raise OddsbenchError(f"the chances of the round's results add up to {text(total)}, not 1")
+    span = (max(law) - min(min(law), 0)) // law_step(tuple(law.items()))
+    if span > MAX_LAW_SPAN:
+        raise OddsbenchError(
+            f"one round moves the bankroll across {count_text(span)} grid steps (from the largest loss to the largest "
+            f"win); play with no goal handles at most {MAX_LAW_SPAN:,}"
+        )
     return tuple(sorted(law.items()))
 
 

@@ -9,6 +9,7 @@ from textual.containers import Horizontal, Vertical
 from textual.screen import ModalScreen
 from textual.widgets import Button, Input, Label, Static
 
+from oddsbench.model.visible import visible
 from oddsbench.tui.widgets.fields import Field
 
 
@@ -25,9 +26,9 @@ class Choose(ModalScreen[str]):
 
     def compose(self) -> ComposeResult:
         with Vertical(classes="dialog"):
-            yield Label(self.question, classes="dialog-question")
+            yield Label(visible(self.question), classes="dialog-question", markup=False)
             if self.detail:
-                yield Static(self.detail, classes="dialog-detail", markup=False)
+                yield Static(visible(self.detail, multiline=True), classes="dialog-detail", markup=False)
             with Horizontal(classes="dialog-buttons"):
                 for key, label in self.answers:
                     yield Button(f"{label} ({key})", id=f"answer-{key}", compact=True)
@@ -62,14 +63,14 @@ class AskName(ModalScreen[str | None]):
 
     def compose(self) -> ComposeResult:
         with Vertical(classes="dialog"):
-            yield Label(self.question, classes="dialog-question")
+            yield Label(visible(self.question), classes="dialog-question", markup=False)
             yield Field("name", id="ask-name")
-            yield Static("Enter to accept, Escape to cancel", id="ask-message", classes="dialog-detail")
+            yield Static("Enter to accept, Escape to cancel", id="ask-message", classes="dialog-detail", markup=False)
 
     def on_mount(self) -> None:
         field = self.query_one(Field)
-        field.value = self.value
-        field.cursor_position = len(self.value)
+        field.value = visible(self.value)
+        field.cursor_position = len(field.value)
         field.focus()
 
     @on(Input.Submitted)
@@ -79,7 +80,7 @@ class AskName(ModalScreen[str | None]):
         problem = self.check(value) if self.check else (None if value else "a name is needed")
         if problem:
             message = self.query_one("#ask-message", Static)
-            message.update(problem)
+            message.update(visible(problem))
             message.add_class("-error")
             return
         self.dismiss(value)

@@ -13,22 +13,25 @@ from textual.screen import ModalScreen
 from textual.widgets import Label, OptionList, Static
 from textual.widgets.option_list import Option
 
+from oddsbench.model.file_read import FileRefused, read_text_capped
+from oddsbench.model.load import MAX_FILE_BYTES
 from oddsbench.tui.bundled import bundled_rulesets, folder_rulesets
+from oddsbench.tui.plain import plain
 
 NEW = "new:"
 
 
 def _describe(path: Path) -> Text:
     """The file name and its title line, read cheaply (no full check while browsing)."""
-    label = Text(path.name, style="bold")
+    label = plain(path.name, "bold")
     try:
-        for line in path.read_text(encoding="utf-8").splitlines()[:40]:
+        for line in read_text_capped(path, MAX_FILE_BYTES).splitlines()[:40]:
             stripped = line.strip()
             if stripped.startswith("title") and "=" in stripped:
-                label.append("  " + stripped.split("=", 1)[1].strip().strip('"'), style="dim")
+                label.append(plain("  " + stripped.split("=", 1)[1].strip().strip('"')[:80], "dim"))
                 break
-    except (OSError, UnicodeDecodeError):
-        label.append("  (cannot be read)", style="red")
+    except FileRefused as refused:
+        label.append(plain(f"  ({refused})", "red"))
     return label
 
 

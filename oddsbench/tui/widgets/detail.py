@@ -11,21 +11,22 @@ from textual.screen import ModalScreen
 from textual.widgets import Static
 
 from oddsbench.report.figure_table import FigureRow, Shown
+from oddsbench.tui.plain import plain
 
 
 def figure_text(row: FigureRow, column: str, cell: Shown | None, whole: bool = False) -> Text:
     """The figure as the pane shows it: what it is, its decimal, its meaning, then its exact value."""
     text = Text(overflow="fold")
-    text.append(row.label.strip(), style="bold")
+    text.append(plain(row.label.strip(), "bold", multiline=False))
     if column and column not in ("value",):
-        text.append(f"  · {column}", style="bold #9fd8cf")
+        text.append(plain(f"  · {column}", "bold #9fd8cf", multiline=False))
     if cell is None:
         text.append("  does not apply here", style="dim")
     else:
         text.append("  ")
         text.append(cell.decimal, style="bold")
     text.append("\n")
-    text.append(row.meaning, style="#c8d3e0")
+    text.append(plain(row.meaning, "#c8d3e0"))
     if cell is not None and cell.exact is not None:
         text.append("\nexact ", style="dim")
         text.append(cell.exact, style="cyan")

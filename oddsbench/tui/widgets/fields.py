@@ -7,6 +7,8 @@ from textual.containers import Horizontal
 from textual.widgets import Input, Label, Static
 
 from oddsbench.model.errors import Problem
+from oddsbench.model.visible import visible
+from oddsbench.tui.plain import plain
 
 
 class Field(Input):
@@ -24,6 +26,7 @@ class Field(Input):
         follows, so a refresh never overwrites newer keystrokes; undo and redo force the value."""
         if self.has_focus and not getattr(self.screen, "force_fields", False):
             return
+        value = visible(value)  # a control character from the file is shown (and, if edited, kept) as its escape
         if self.value != value:
             self.value = value
             self.cursor_position = len(value)
@@ -49,7 +52,7 @@ class FieldRow(Horizontal):
 
     def show_problems(self, problems: list[Problem]) -> None:
         message = self.query_one(".field-message", Static)
-        message.update("\n".join(str(problem) for problem in problems))
+        message.update(plain("\n".join(str(problem) for problem in problems)))
         message.set_class(any(p.is_error for p in problems), "-error")
         message.set_class(bool(problems) and not any(p.is_error for p in problems), "-warning")
         self.input.set_class(any(p.is_error for p in problems), "-invalid")

@@ -13,6 +13,7 @@ from textual.message import Message
 from textual.widgets import DataTable
 
 from oddsbench.report.figure_table import CELL_KINDS, FigureRow, FigureTable, FittedTable, Shown, fit_table
+from oddsbench.tui.plain import plain
 
 
 class FigureGrid(DataTable):
@@ -92,9 +93,9 @@ class FigureGrid(DataTable):
         self.fitted = fitted
         self.cursor_type = "row" if len(table.columns) == 1 else "cell"
         for header in fitted.headers:
-            self.add_column(header)
+            self.add_column(plain(header, multiline=False))
         for cells in fitted.rows:
-            self.add_row(cells[0], *(Text(cell, justify="right") for cell in cells[1:]))
+            self.add_row(plain(cells[0], multiline=False), *(Text(cell, justify="right") for cell in cells[1:]))
         if self.row_count:
             column = max(1, column) if self.cursor_type == "cell" else 0
             self.move_cursor(row=min(row, self.row_count - 1), column=column)

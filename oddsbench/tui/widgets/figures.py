@@ -6,6 +6,7 @@ from rich.text import Text
 from textual.widgets import Static
 
 from oddsbench.tui.analysis import RoundResult
+from oddsbench.tui.plain import plain
 
 
 class SummaryLine(Static):
@@ -18,9 +19,9 @@ class SummaryLine(Static):
         for index, (quantity, exact, decimal) in enumerate(result.summary):
             if index:
                 text.append(" │ ", style="dim")
-            text.append(f"{quantity} ", style="bold")
+            text.append(plain(f"{quantity} ", "bold", multiline=False))
             if exact:
                 text.append(exact, style="cyan")
                 text.append(" = ", style="dim")
-            text.append(decimal)
+            text.append(plain(decimal, multiline=False))
         self.update(text)

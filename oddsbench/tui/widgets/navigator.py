@@ -9,6 +9,7 @@ from textual.widgets import OptionList
 from textual.widgets.option_list import Option
 
 from oddsbench.model.document import RulesetDocument
+from oddsbench.tui.plain import plain
 
 SETUP = "setup:"
 PARAMS = "params:"
@@ -52,10 +53,10 @@ class Navigator(OptionList):
         ]
         for name in document.state_names():
             kind = document.state_kind(name)
-            label = Text(name)
+            label = plain(name)
             if kind == "end":
                 result = document.state_result(name)
-                label.append(f" ({result or 'end'})", style="dim")
+                label.append(plain(f" ({result or 'end'})", "dim"))
             elif kind == "choices":
                 label.append(" (decision)", style="dim")
             if name in failing:

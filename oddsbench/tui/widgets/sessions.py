@@ -13,6 +13,7 @@ from textual_plotext import PlotextPlot
 
 from oddsbench.report.chart_ticks import CHANCE_TICKS
 from oddsbench.tui.analysis import RoundFailure, SessionsResult
+from oddsbench.tui.plain import plain
 from oddsbench.tui.widgets.fields import Field
 from oddsbench.tui.widgets.figure_grid import FigureGrid
 from oddsbench.tui.widgets.stale import marked_heading
@@ -62,7 +63,7 @@ class SessionsPanel(VerticalScroll):
     def show_plan_problem(self, message: str) -> None:
         self.plan_problem = message
         shown = self.query_one("#plans-message", Static)
-        shown.update(message)
+        shown.update(plain(message))
         shown.set_class(bool(message), "-error")
         self.query_one("#plans-field", Field).set_class(bool(message), "-invalid")
 
@@ -80,7 +81,7 @@ class SessionsPanel(VerticalScroll):
             heading.update(Text("solving the sessions…" if busy else "no figures yet", style="magenta"))
             return
         if isinstance(result, RoundFailure):
-            heading.update(Text(result.message, style="yellow"))
+            heading.update(plain(result.message, "yellow"))
             table.display = False
             charts.display = False
             self.query_one("#sessions-notes", Static).update("")
@@ -94,7 +95,7 @@ class SessionsPanel(VerticalScroll):
             self._chart("#goal-chart", result, "bankroll")
             self._chart("#length-chart", result, "rounds")
         notes = self.query_one("#sessions-notes", Static)
-        notes.update("\n".join(f"note: {note}" for note in result.notes))
+        notes.update(plain("\n".join(f"note: {note}" for note in result.notes)))
 
     def _chart(self, selector: str, result: SessionsResult, axis: str) -> None:
         widget = self.query_one(selector, PlotextPlot)

@@ -12,6 +12,7 @@ from textual.widgets import DataTable, Input, Static
 from oddsbench.model.document import RulesetDocument
 from oddsbench.model.errors import Problem
 from oddsbench.model.places import place_of
+from oddsbench.tui.plain import plain
 from oddsbench.tui.widgets.edits import EditRequested
 from oddsbench.tui.widgets.fields import Field, FieldRow
 
@@ -35,7 +36,7 @@ class SetupEditor(Vertical):
                 [p for p in problems if place_of(p).section == "ruleset" and place_of(p).field == row.field]
             )
         general = [p for p in problems if place_of(p).section == "ruleset" and place_of(p).field is None]
-        self.query_one("#setup-message", Static).update("\n".join(str(p) for p in general))
+        self.query_one("#setup-message", Static).update(plain("\n".join(str(p) for p in general)))
 
     @on(Input.Changed)
     def _changed(self, event: Input.Changed) -> None:
@@ -83,7 +84,7 @@ class ParamsEditor(Vertical):
         table.clear()
         self._params = document.params()
         for name, value in self._params:
-            table.add_row(name, value, key=name)
+            table.add_row(plain(name), plain(value), key=name)
         if table.row_count:
             table.move_cursor(row=min(row, table.row_count - 1))
         self._problems = problems
@@ -106,7 +107,7 @@ class ParamsEditor(Vertical):
         mine = [p for p in problems if place_of(p).section == "params" and place_of(p).name == name]
         row.show_problems(mine)
         others = [p for p in problems if place_of(p).section == "params" and place_of(p).name != name]
-        self.query_one("#params-message", Static).update("\n".join(str(p) for p in others))
+        self.query_one("#params-message", Static).update(plain("\n".join(str(p) for p in others)))
 
     @on(DataTable.RowHighlighted, "#params-table")
     def _highlighted(self, event: DataTable.RowHighlighted) -> None:
@@ -156,13 +157,13 @@ class SessionEditor(Vertical):
             row.input.show(values.get(row.field, ""))
             mine = problem is not None and f"[session], {row.field}:" in problem
             message = row.query_one(".field-message", Static)
-            message.update(problem if mine else "")
+            message.update(plain(problem if mine else ""))
             message.set_class(mine, "-error")
             row.input.set_class(mine, "-invalid")
         general = (
             problem if problem and not any(f"[session], {r.field}:" in problem for r in self.query(FieldRow)) else ""
         )
-        self.query_one("#session-message", Static).update(general or "")
+        self.query_one("#session-message", Static).update(plain(general or ""))
 
     @on(Input.Changed)
     def _changed(self, event: Input.Changed) -> None:

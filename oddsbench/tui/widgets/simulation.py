@@ -11,6 +11,7 @@ from textual.message import Message
 from textual.widgets import Input, Label, ProgressBar, Static, Switch
 
 from oddsbench.tui.analysis import RoundFailure
+from oddsbench.tui.plain import plain
 from oddsbench.tui.simulating import SimulationResult
 from oddsbench.tui.widgets.fields import Field
 from oddsbench.tui.widgets.figure_grid import FigureGrid
@@ -69,7 +70,7 @@ class SimulationPanel(VerticalScroll):
 
     def show_message(self, message: str, error: bool = True) -> None:
         shown = self.query_one("#sim-message", Static)
-        shown.update(message)
+        shown.update(plain(message))
         shown.set_class(error and bool(message), "-error")
 
     def started(self, total: int) -> None:
@@ -92,7 +93,7 @@ class SimulationPanel(VerticalScroll):
         if result is None:
             return
         if isinstance(result, RoundFailure):
-            heading.update(Text(result.message, style="yellow"))
+            heading.update(plain(result.message, "yellow"))
             parts.remove_children()
             self.query_one("#sim-verdict", Static).update("")
             self.query_one("#sim-notes", Static).update("")
@@ -109,9 +110,9 @@ class SimulationPanel(VerticalScroll):
             self.call_after_refresh(self._fill, result, kind)
         else:
             self._fill(result, kind)
-        verdict = Text(result.verdict, style="bold red" if result.outside else "green")
+        verdict = plain(result.verdict, "bold red" if result.outside else "green")
         self.query_one("#sim-verdict", Static).update(verdict)
-        self.query_one("#sim-notes", Static).update("\n".join(f"note: {note}" for note in result.notes))
+        self.query_one("#sim-notes", Static).update(plain("\n".join(f"note: {note}" for note in result.notes)))
 
     def _fill(self, result: SimulationResult, kind: str | None) -> None:
         for index, (title, table) in enumerate(result.parts):
@@ -119,6 +120,6 @@ class SimulationPanel(VerticalScroll):
             grids = self.query(f"#sim-table-{index}")
             if not headings or not grids:
                 return  # replaced by a newer result meanwhile
-            headings.first(Static).update(Text(title, style="bold"))
+            headings.first(Static).update(plain(title, "bold"))
             headings.first().display = bool(title)
             grids.first(FigureGrid).show(table, kind)

@@ -4,6 +4,8 @@ from __future__ import annotations
 
 from rich.text import Text
 
+from oddsbench.tui.plain import plain
+
 TEXT_PROBLEMS = "the text now has problems"
 
 
@@ -15,7 +17,7 @@ def marked_heading(heading: str, stale: str | bool = False, busy: bool = False) 
         why = stale if isinstance(stale, str) else TEXT_PROBLEMS
         text.append(f"last good figures ({why})", style="bold black on yellow")
         text.append(" ")
-    text.append(heading, style="bold")
+    text.append(plain(heading, "bold"))
     if busy:
         text.append("  solving…", style="magenta")
     return text

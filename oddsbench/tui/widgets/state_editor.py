@@ -12,6 +12,7 @@ from textual.widgets import DataTable, Input, Static
 from oddsbench.model.document import OUTCOME_FIELDS, OutcomeList, RulesetDocument
 from oddsbench.model.errors import Problem
 from oddsbench.model.places import place_of
+from oddsbench.tui.plain import plain
 from oddsbench.tui.widgets.edits import EditRequested
 from oddsbench.tui.widgets.fields import Field, FieldRow
 
@@ -130,7 +131,7 @@ class StateEditor(Vertical):
         failing = {p.outcome for p in self._mine() if p.outcome is not None}
         for index, outcome in enumerate(self.rows):
             mark = Text(str(index + 1), style="red bold" if index in failing else "")
-            table.add_row(mark, *[outcome[field] for field in OUTCOME_FIELDS])
+            table.add_row(mark, *[plain(outcome[field]) for field in OUTCOME_FIELDS])
         if table.row_count:
             table.move_cursor(row=min(max(row, 0), table.row_count - 1))
 
@@ -178,7 +179,7 @@ class StateEditor(Vertical):
     def _show_state_problems(self) -> None:
         general = [p for p in self._problems_at(None, None) if place_of(p).field != "result"]
         message = self.query_one("#state-message", Static)
-        message.update("\n".join(str(p) for p in general))
+        message.update(plain("\n".join(str(p) for p in general)))
         message.set_class(any(p.is_error for p in general), "-error")
         message.display = bool(general)
 

@@ -9,6 +9,7 @@ from textual.containers import VerticalScroll
 from textual.widgets import Static
 
 from oddsbench.tui.analysis import RoundFailure, StrategiesResult
+from oddsbench.tui.plain import plain
 from oddsbench.tui.widgets.figure_grid import FigureGrid
 from oddsbench.tui.widgets.stale import marked_heading
 
@@ -39,7 +40,7 @@ class StrategiesPanel(VerticalScroll):
             heading.update(Text("solving every strategy…" if busy else "no figures yet", style="magenta"))
             return
         if isinstance(result, RoundFailure):
-            heading.update(Text(result.message, style="yellow"))
+            heading.update(plain(result.message, "yellow"))
             for widget in (table, *parts):
                 widget.display = False
             return
@@ -51,18 +52,18 @@ class StrategiesPanel(VerticalScroll):
         best = Text(f"Best play for {result.goal}", style="bold")
         best.append("   g: next goal", style="dim")
         self.query_one("#best-heading", Static).update(best)
-        self.query_one("#best-text", Static).update(Text(result.best))
+        self.query_one("#best-text", Static).update(plain(result.best))
         verdict = result.check_of(strategy)
         check_heading = self.query_one("#check-heading", Static)
         check_table = self.query_one("#check-table", FigureGrid)
         if verdict is None:
             check_heading.display = check_table.display = False
             return
-        title = Text(f"Strategy {verdict.strategy!r} against the best play", style="bold")
+        title = plain(f"Strategy {verdict.strategy!r} against the best play", "bold")
         title.append("   s: next strategy", style="dim")
-        title.append(f"\n{verdict.summary}", style="")
+        title.append(plain(f"\n{verdict.summary}"))
         for note in verdict.notes:
-            title.append(f"\nnote: {note}", style="#e0a060")
+            title.append(plain(f"\nnote: {note}", "#e0a060"))
         check_heading.update(title)
         check_table.display = bool(verdict.table)
         check_table.show(verdict.table, kind)

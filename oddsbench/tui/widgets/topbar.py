@@ -6,6 +6,7 @@ from rich.text import Text
 from textual.widgets import Static
 
 from oddsbench.tui.editing import EditSession
+from oddsbench.tui.plain import plain
 
 VIEWS = (
     ("edit", "Edit", "f2"),
@@ -33,7 +34,7 @@ class TopBar(Static):
             style = "bold reverse" if view == current else "dim"
             shown = label if wide else SHORT_LABELS.get(view, label)
             text.append(f" {key.upper()} {shown} ", style=style)
-        text.append(f"  {path.name if path else 'new ruleset'}")
+        text.append(plain(f"  {path.name if path else 'new ruleset'}"))
         if session.read_only and path is not None and wide:
             text.append(" (bundled)", style="dim")
         if session.dirty:
@@ -41,5 +42,5 @@ class TopBar(Static):
         if solving:
             text.append("  solving… Esc cancels", style="bold magenta")
         elif note:
-            text.append(f"  {note}", style="magenta")
+            text.append(plain(f"  {note}", "magenta"))
         self.update(text)

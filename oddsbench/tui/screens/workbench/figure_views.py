@@ -18,6 +18,7 @@ from oddsbench.model.errors import OddsbenchError
 from oddsbench.report.figure_table import CELL_KINDS
 from oddsbench.tui import analysis
 from oddsbench.tui.analysis import RoundFailure
+from oddsbench.tui.plain import plain
 from oddsbench.tui.reporting import report_path_problem, suggested_report_path
 from oddsbench.tui.screens.dialogs import AskName, Choose
 from oddsbench.tui.screens.workbench import background
@@ -91,7 +92,7 @@ class FigureViews:
         for grid_id in ("#round-table", "#side-table"):
             self.query_one(grid_id, FigureGrid).show(result.table, self.cells)
         notes = self.query_one("#round-notes", Static)
-        notes.update("\n".join(f"note: {note}" for note in result.notes))
+        notes.update(plain("\n".join(f"note: {note}" for note in result.notes)))
 
     # ----- the detail pane and the cells -----
 

@@ -24,6 +24,12 @@ from oddsbench.tui.widgets.topbar import TopBar
 
 FIGURE_VIEWS = ("round", "strategies", "sessions", "simulation")  # the views with a detail pane
 
+SOURCE_HEADING = "The file as text: anything the forms do not cover. Edits here are undoable too."
+SOURCE_HEADING_CONTROLS = (
+    "The file as text. It holds control characters, shown here as escapes such as \\x1b: "
+    "an edit here writes them as shown."
+)
+
 
 def workbench_layout() -> ComposeResult:
     """The widgets of one workbench, by id; the styles are in ``tui/styles/workbench.tcss``."""
@@ -54,8 +60,9 @@ def workbench_layout() -> ComposeResult:
             yield SimulationPanel(id="simulation-panel")
         with Vertical(id="source"):
             yield Static(
-                "The file as text: anything the forms do not cover. Edits here are undoable too.",
+                SOURCE_HEADING,
                 classes="editor-heading",
+                id="source-heading",
             )
             yield TextArea("", id="source-text", soft_wrap=False, show_line_numbers=True)
     yield DetailPane(id="detail")

@@ -59,3 +59,24 @@ def saved_message(saved: Path, problems: tuple[Problem, ...]) -> tuple[str, str]
     if errors:
         message += f" (with {len(errors)} problem(s): `oddsbench check` will report them)"
     return message, "warning" if errors else "information"
+
+
+def ask_about_disk_change(
+    app: App, message: str, overwrite: Callable[[], object], save_as: Callable[[], object]
+) -> None:
+    """Another program changed the file since it was opened or saved: overwrite it, save elsewhere, or leave it."""
+
+    def answered(answer: str) -> None:
+        if answer == "o":
+            overwrite()
+        elif answer == "a":
+            save_as()
+
+    app.push_screen(
+        Choose(
+            message.replace("; nothing was written", ""),
+            [("o", "Overwrite it with these edits"), ("a", "Save as another file"), ("c", "Cancel")],
+            detail="nothing was written yet; Cancel keeps your edits here, unsaved",
+        ),
+        answered,
+    )

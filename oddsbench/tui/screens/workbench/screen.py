@@ -16,12 +16,14 @@ from textual import on
 from textual.app import ComposeResult
 from textual.binding import Binding
 from textual.screen import Screen
-from textual.widgets import ContentSwitcher, TextArea
+from textual.widgets import ContentSwitcher, Static, TextArea
 from textual.worker import Worker, WorkerState
 
+from oddsbench.model.atomic_write import DiskChanged
 from oddsbench.model.document import DocumentError
 from oddsbench.model.errors import OddsbenchError, Problem
 from oddsbench.model.places import place_of
+from oddsbench.model.visible import visible
 from oddsbench.tui.analysis import Reading, RoundFailure, RoundResult
 from oddsbench.tui.editing import EditSession
 from oddsbench.tui.screens.workbench import background
@@ -36,9 +38,14 @@ from oddsbench.tui.screens.workbench.background import (
 )
 from oddsbench.tui.screens.workbench.commands import param_command, state_command
 from oddsbench.tui.screens.workbench.figure_views import FigureViews
-from oddsbench.tui.screens.workbench.layout import FIGURE_VIEWS, workbench_layout
+from oddsbench.tui.screens.workbench.layout import (
+    FIGURE_VIEWS,
+    SOURCE_HEADING,
+    SOURCE_HEADING_CONTROLS,
+    workbench_layout,
+)
 from oddsbench.tui.screens.workbench.recovery import RecoveryCopy
-from oddsbench.tui.screens.workbench.saving import ask_save_path, saved_message
+from oddsbench.tui.screens.workbench.saving import ask_about_disk_change, ask_save_path, saved_message
 from oddsbench.tui.widgets.edits import EditRequested
 from oddsbench.tui.widgets.fields import Field
 from oddsbench.tui.widgets.navigator import PARAMS, SESSION, SETUP, STATE, Navigator
@@ -106,6 +113,9 @@ class WorkbenchScreen(FigureViews, Screen):
         start = document.head().get("start") if document is not None else None
         self.refresh_document(STATE + start if start and start in document.state_names() else None)
         self.query_one(Navigator).focus()
+
+    def on_unmount(self) -> None:
+        self.recovery.release()
 
     def on_resize(self, event) -> None:
         self._fit_width(event.size.width, event.size.height)
@@ -176,8 +186,11 @@ class WorkbenchScreen(FigureViews, Screen):
 
     def _fill_source(self) -> None:
         area = self.query_one("#source-text", TextArea)
-        if area.text != self.session.text:
-            area.load_text(self.session.text)
+        shown = visible(self.session.text, multiline=True)
+        if area.text != shown:
+            area.load_text(shown)
+        heading = SOURCE_HEADING if shown == self.session.text else SOURCE_HEADING_CONTROLS
+        self.query_one("#source-heading", Static).update(heading)
 
     # ----- background reading and solving -----
 
@@ -330,7 +343,7 @@ class WorkbenchScreen(FigureViews, Screen):
     @on(TextArea.Changed, "#source-text")
     def _source_changed(self, event: TextArea.Changed) -> None:
         text = event.text_area.text
-        if text != self.session.text:
+        if text != visible(self.session.text, multiline=True):  # an edit, not the file shown
             self.session.replace_text(text)
             self._refresh_forced()
 
@@ -437,9 +450,12 @@ class WorkbenchScreen(FigureViews, Screen):
     def action_save_as(self) -> None:
         ask_save_path(self.app, self.session, self.folder, self._save)
 
-    def _save(self, path: Path | None) -> bool:
+    def _save(self, path: Path | None, overwrite: bool = False) -> bool:
         try:
-            saved = self.session.save(path)
+            saved = self.session.save(path, overwrite)
+        except DiskChanged as changed:
+            ask_about_disk_change(self.app, str(changed), lambda: self._save(path, overwrite=True), self.action_save_as)
+            return False
         except (OddsbenchError, DocumentError) as error:
             self.notify(str(error), severity="error")
             return False
