@@ -205,18 +205,21 @@ def build_bankroll_chain(
     values = np.repeat(values_one, levels)
     level_of = np.tile(np.arange(levels, dtype=np.int64), width)
     steps = _machine_steps(distribution, grid, int(bets.max(initial=0)))
-    landing = values[:, None] + bets[:, None] * steps[None, :]
+    landing = bets[:, None] * steps[None, :]
+    landing += values[:, None]
     inside = (landing >= low) & (landing < grid.goal)
-    nxt = np.asarray(next_level, dtype=np.int64)[level_of]
-    target = np.where(inside, (landing - low) * levels + nxt, 0)
+    target = landing - low
+    if levels > 1:  # one plan level (flat bets, timid play) needs no level arithmetic
+        target *= levels
+        target += np.asarray(next_level, dtype=np.int64)[level_of]
     outside_values = np.unique(landing[~inside])
     if low <= grid.start < grid.goal:
         starts = outside_values
     else:
         starts = np.union1d(outside_values, [grid.start])
     absorbing_values = np.asarray(starts, dtype=np.int64)
-    absorbing_index = np.searchsorted(absorbing_values, landing)
-    target = np.where(inside, target, -1 - absorbing_index)
+    outside = ~inside
+    target[outside] = -1 - np.searchsorted(absorbing_values, landing[outside])
     return BankrollChain(
         grid=grid,
         distribution=distribution,

@@ -10,10 +10,13 @@ from __future__ import annotations
 from collections.abc import Mapping
 from dataclasses import dataclass
 from pathlib import Path
+from typing import TYPE_CHECKING
 
-from oddsbench.chain.round_distribution import RoundDistribution
 from oddsbench.model.errors import OddsbenchError, Problem, RulesetError
 from oddsbench.model.ruleset import Ruleset
+
+if TYPE_CHECKING:  # the round's module imports numpy: `oddsbench check` needs neither
+    from oddsbench.chain.round_distribution import RoundDistribution
 
 INLINE_TITLE = "Inline round"
 INLINE_SOURCE = "--round"

@@ -29,19 +29,13 @@ def read_spec(path: str | Path) -> SweepSpec:
 
 
 def solve_point(ruleset_text: str, source: str, exact_limit: int, point: Point) -> PointResult:
-    """Every figure of one point (the ruleset with the point's parameters, strategy and session), as text."""
-    from oddsbench.chain.round_chain import build_round_chain
-    from oddsbench.model.load import load_ruleset_text
-    from oddsbench.solve.round import solve_round
-    from oddsbench.strategy.compare import policy_of, starting_at
+    """Every figure of one point (the ruleset with the point's parameters, strategy and session), as text.
 
+    The point is asked of the core's own questions (``round_figures``, ``sessions``), so a sweep
+    assembles no pipeline of its own.
+    """
     try:
-        overrides = {name: parse_fraction(value) for name, value in point.params}
-        ruleset = load_ruleset_text(ruleset_text, source, overrides)
-        played = starting_at(ruleset, None)
-        chain = build_round_chain(played, policy_of(played, point.strategy))
-        figures = solve_round(chain, exact_limit=exact_limit)
-        session = _session_rows(ruleset, chain, point, exact_limit) if point.plan is not None else []
+        figures, session = _point_figures(ruleset_text, source, exact_limit, point)
     except RulesetError as error:
         return PointResult(point.index, error="; ".join(str(p) for p in error.errors or error.problems))
     except OddsbenchError as error:
@@ -52,27 +46,33 @@ def solve_point(ruleset_text: str, source: str, exact_limit: int, point: Point) 
         (f"result_probability[{name}]", _text(f.exact), f.decimal) for name, f in figures.result_probability.items()
     ]
     notes = figures.notes
-    if session:
-        session_rows, session_notes = session
-        rows += session_rows
-        notes += tuple(f"session: {note}" for note in session_notes)
+    if session is not None:
+        rows += [(f"session.{name}", _text(f.exact), f.decimal) for name, f in session.figures.items()]
+        notes += tuple(f"session: {note}" for note in session.notes)
     return PointResult(point.index, tuple(rows), notes)
 
 
-def _session_rows(ruleset, chain, point: Point, exact_limit: int):
-    """The session figures of one point, named ``session.NAME``, and the session notes."""
-    from oddsbench.solve.round_distribution import round_distribution
-    from oddsbench.strategy.session import analyse_session, merge_settings, settings_from_table
+def _point_figures(ruleset_text: str, source: str, exact_limit: int, point: Point):
+    """(the round's figures, the plan's session figures or None) of one point, from the core's questions."""
+    from dataclasses import replace
 
-    overrides = {name: (int(value) if name == "max_rounds" else parse_fraction(value)) for name, value in point.session}
-    from oddsbench.core.session import for_plan
-    from oddsbench.strategy.plans import parse_plan
+    from oddsbench.core.game import game_from_text
+    from oddsbench.core.rounds import round_figures
+    from oddsbench.core.session import sessions
+    from oddsbench.core.settings import Settings, session_request
 
-    settings = merge_settings(settings_from_table(ruleset.session, ruleset.source), overrides, ruleset.source)
-    plan = parse_plan(point.plan)
-    solved = analyse_session(round_distribution(chain), for_plan(settings, plan), plan, exact_limit)
-    rows = [(f"session.{name}", _text(f.exact), f.decimal) for name, f in solved.figures.items()]
-    return rows, solved.notes
+    overrides = {name: parse_fraction(value) for name, value in point.params}
+    game = game_from_text(ruleset_text, source, overrides)
+    settings = Settings(exact_limit=exact_limit, strategies=(point.strategy,) if point.strategy else ())
+    rounds = round_figures(game, settings)
+    if len(rounds.columns) > 1:
+        raise OddsbenchError(f"{source}: has decision states: add a strategy axis to the sweep ([sweep] strategy)")
+    if point.plan is None:
+        return rounds.figures[0], None
+    given = {name: (int(value) if name == "max_rounds" else value) for name, value in point.session}
+    request = session_request(**given, plans=(point.plan,))
+    solved = sessions(game, replace(settings, session=request))
+    return rounds.figures[0], solved.plans[0].bounded
 
 
 def _text(value) -> str | None:

@@ -1,25 +1,65 @@
-"""Exact rationals for the whole project: sympy's QQ domain (FLINT's fmpq underneath).
+"""Exact rationals for the whole project: python-flint's ``fmpq`` (FLINT), through a small ``QQ``.
 
 Every module takes its exact numbers from here so the number type, its conversions and its
-size measures live in one place.
+size measures live in one place. ``QQ`` is the part of sympy's rational domain the project uses
+(``QQ(3, 4)``, ``QQ.numer``, ``QQ.denom``) on the same element type sympy itself uses when
+python-flint is installed (``oddsbench/__init__.py`` asks sympy for FLINT ground types), so values
+pass to sympy's exact solvers as they are, while reading and checking a file never imports sympy
+(0.7 s of start-up).
 """
 
 from __future__ import annotations
 
 from typing import Any
 
-from sympy.polys.domains import QQ, ZZ
+from flint import fmpq
 
-Rational = Any  # an element of QQ (flint.fmpq or sympy's PythonMPQ, depending on ground types)
+Rational = Any  # a flint.fmpq
 
-_RATIONAL_TYPE = type(QQ(1))
+__all__ = ["QQ", "Rational", "bit_size", "int_text", "is_integer", "to_int", "to_float", "text", "parse_fraction"]
 
-__all__ = ["QQ", "ZZ", "Rational", "bit_size", "int_text", "is_integer", "to_int", "to_float", "text", "parse_fraction"]
+
+class _Rationals:
+    """``QQ(3, 4)``, ``QQ(value)``, ``QQ.numer(x)``, ``QQ.denom(x)``, ``QQ.of_type(x)``: flint ``fmpq`` rationals."""
+
+    dtype = fmpq
+
+    def __call__(self, numerator: Any = 0, denominator: Any = 1) -> Rational:
+        value = _as_fmpq(numerator)
+        return value if denominator == 1 else value / _as_fmpq(denominator)
+
+    @staticmethod
+    def of_type(value: Any) -> bool:
+        return isinstance(value, fmpq)
+
+    @staticmethod
+    def numer(value: Rational):
+        return value.p
+
+    @staticmethod
+    def denom(value: Rational):
+        return value.q
+
+    def __repr__(self) -> str:
+        return "QQ"
+
+
+def _as_fmpq(value: Any) -> Rational:
+    if isinstance(value, fmpq):
+        return value
+    if isinstance(value, float):
+        return fmpq(*value.as_integer_ratio())
+    if hasattr(value, "p") and hasattr(value, "q"):  # sympy's own rationals (python ground types)
+        return fmpq(int(value.p), int(value.q))
+    return fmpq(int(value))
+
+
+QQ = _Rationals()
 
 
 def is_rational(value: object) -> bool:
     """Whether ``value`` is already an exact number of ours (a family hands its evaluated values on as such)."""
-    return isinstance(value, _RATIONAL_TYPE)
+    return isinstance(value, fmpq)
 
 
 def numerator(value: Rational) -> int:
@@ -98,3 +138,8 @@ def _int_from_text(digits: str) -> int:
     from flint import fmpz
 
     return int(fmpz(digits.strip()))
+
+
+def from_sympy(value) -> Rational:
+    """A rational from sympy's domain (whatever its ground types) as ours."""
+    return fmpq(int(value.numerator), int(value.denominator))

@@ -14,7 +14,7 @@ from typing import TYPE_CHECKING
 from oddsbench.model.figure import Figure
 from oddsbench.model.numbers import text
 from oddsbench.report.meanings import meaning
-from oddsbench.report.numbers_text import decimal_text, fit_exact
+from oddsbench.report.numbers_text import figure_decimal_text, fit_exact
 from oddsbench.report.round_report import figure_items, hand_rows, is_percent
 
 if TYPE_CHECKING:  # result types only: the core (and the engines behind it) load when a question is asked
@@ -82,8 +82,8 @@ def shown(figure: Figure | None, percent: bool = False) -> Shown | None:
     if figure is None:
         return None
     exact = None if figure.exact is None else text(figure.exact)
-    decimal = decimal_text(figure.decimal, figure.exact, percent)
-    brief = decimal_text(figure.decimal, figure.exact) if percent else None
+    decimal = figure_decimal_text(figure, percent)
+    brief = figure_decimal_text(figure) if percent else None
     return Shown(exact, decimal, brief)
 
 

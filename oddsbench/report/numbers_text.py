@@ -4,7 +4,8 @@ from __future__ import annotations
 
 import math
 
-from oddsbench.model.numbers import Rational, denominator, int_text, numerator, text
+from oddsbench.model.figure import FLOAT_TINY, Figure
+from oddsbench.model.numbers import Rational, denominator, int_text, log10_abs, numerator, text
 
 MAX_EXACT_WIDTH = 40
 SIGNIFICANT = 6
@@ -58,37 +59,67 @@ def _short_int(value: int) -> str:
     return f"{sign}{digits[:5]}...{digits[-3:]} ({len(digits)} digits)"
 
 
-def log10_abs(value: Rational) -> float:
-    """log10 |value| from the integers, so it works far below the float range."""
-    p, q = abs(numerator(value)), denominator(value)
-    return _log10_int(p) - _log10_int(q)
+def shown_log10(figure: Figure) -> float | None:
+    """log10 of a figure's size where its decimal cannot hold it (below the normal float range or
+    beyond it): from the engine's log10, else from the exact value; None where the decimal holds it."""
+    if figure.log10 is not None:
+        return figure.log10
+    decimal = figure.decimal
+    if figure.exact is not None and figure.exact != 0:
+        if not math.isfinite(decimal) or abs(decimal) < FLOAT_TINY:
+            return log10_abs(figure.exact)
+    return None
 
 
-def _log10_int(value: int) -> float:
-    bits = value.bit_length()
-    if bits < 1000:
-        return math.log10(value)
-    shift = bits - 64
-    return math.log10(value >> shift) + shift * math.log10(2)
+def figure_decimal_text(figure: Figure, percent: bool = False) -> str:
+    """A figure's decimal: six significant digits (fewer where the engine vouches for fewer), a
+    power of ten where the value is outside the float range, never a denormal or a silent 0."""
+    return decimal_text(figure.decimal, figure.exact, percent, figure.log10, figure.digits)
 
 
-def decimal_text(decimal: float, exact: Rational | None = None, percent: bool = False) -> str:
-    """Six significant digits; values beyond the float range are given as powers of ten."""
+def decimal_text(
+    decimal: float,
+    exact: Rational | None = None,
+    percent: bool = False,
+    log10: float | None = None,
+    digits: int | None = None,
+) -> str:
+    """Six significant digits (or ``digits``); values beyond the float range as powers of ten."""
     if decimal == 0:
         decimal = 0.0  # a float engine's -0.0 (a fair game's edge) reads as 0
-    if exact is not None and exact != 0 and (decimal == 0 or math.isinf(decimal)):
-        power = log10_abs(exact)
-        sign = "-" if exact < 0 else ""
-        mantissa = 10 ** (power - math.floor(power))
-        return f"{sign}{mantissa:.5f}e{math.floor(power):+d}"
+    power = shown_log10(Figure(exact, decimal, log10))
+    if power is not None:
+        negative = exact is not None and exact < 0
+        return ("-" if negative else "") + power_text(power, min(SIGNIFICANT, digits or SIGNIFICANT))
     if math.isnan(decimal):
         return "not a number"
     if math.isinf(decimal):
         return "infinite" if decimal > 0 else "-infinite"
-    shown = f"{decimal:.{SIGNIFICANT}g}"
+    if decimal != 0 and abs(decimal) < FLOAT_TINY:
+        return ("-" if decimal < 0 else "") + "below 2.2e-308"  # a denormal: only its size is known
+    significant = min(SIGNIFICANT, digits) if digits else SIGNIFICANT
+    shown = f"{decimal:.{significant}g}"
     if percent and abs(decimal) < 10:
-        shown += f" ({decimal * 100:.{max(SIGNIFICANT - 2, 1)}g} %)"
+        shown += f" ({decimal * 100:.{max(significant - 2, 1)}g} %)"
     return shown
+
+
+def power_text(log10: float, significant: int = SIGNIFICANT) -> str:
+    """10**log10 as ``7.76989e-2349``: the leading digits and the exponent, from the log alone."""
+    exponent = math.floor(log10)
+    mantissa = f"{10 ** (log10 - exponent):.{max(significant - 1, 0)}f}"
+    if float(mantissa) >= 10:  # rounding carried into the next power
+        exponent += 1
+        mantissa = f"{1:.{max(significant - 1, 0)}f}"
+    return f"{mantissa}e{exponent:+d}"
+
+
+def csv_decimal(figure: Figure) -> str:
+    """A figure's decimal for CSV: the float's repr, or its power of ten where a float cannot hold it."""
+    power = shown_log10(figure)
+    if power is not None:
+        return ("-" if figure.exact is not None and figure.exact < 0 else "") + power_text(power)
+    return repr(figure.decimal)
 
 
 def render_table(headers: list[str], rows: list[list[str]], right: set[int] | None = None) -> str:

@@ -11,6 +11,7 @@ import io
 
 from oddsbench.model.numbers import text, to_float
 from oddsbench.report.document import ReportDocument
+from oddsbench.report.numbers_text import csv_decimal
 from oddsbench.report.report_rows import param_items, round_figure_items, strategy_label
 from oddsbench.report.ruleset_echo import file_digest, outcome_rows
 
@@ -40,7 +41,7 @@ def render_csv(document: ReportDocument) -> str:
         subject = strategy_label(section)
         for key, _label, f in round_figure_items(section):
             exact = "" if f.exact is None else text(f.exact)
-            rows.append(("round", subject, key, exact, repr(f.decimal), ""))
+            rows.append(("round", subject, key, exact, csv_decimal(f), ""))
         rows += [("note", subject, "", "", "", note) for note in section.figures.notes]
     for extra in document.extra_sections:
         rows += extra.csv_rows()

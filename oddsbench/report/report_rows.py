@@ -7,7 +7,7 @@ from typing import TYPE_CHECKING
 from oddsbench.model.figure import Figure
 from oddsbench.model.numbers import text, to_float
 from oddsbench.report.document import ReportDocument
-from oddsbench.report.numbers_text import decimal_text, exact_text
+from oddsbench.report.numbers_text import exact_text, figure_decimal_text
 from oddsbench.report.round_report import figure_items, is_percent
 
 if TYPE_CHECKING:
@@ -24,7 +24,7 @@ def round_figure_items(section: RoundColumn) -> list[tuple[str, str, Figure]]:
 
 
 def shown(key: str, figure: Figure, width: int | None) -> tuple[str, str]:
-    return exact_text(figure.exact, width), decimal_text(figure.decimal, figure.exact, is_percent(key))
+    return exact_text(figure.exact, width), figure_decimal_text(figure, is_percent(key))
 
 
 def comparison_rows(document: ReportDocument) -> tuple[list[str], list[list[str]]]:

@@ -5,11 +5,11 @@ from __future__ import annotations
 import re
 from typing import TYPE_CHECKING, Any
 
-from oddsbench.model.figure import Figure
+from oddsbench.model.figure import FLOAT_TINY, Figure
 from oddsbench.model.numbers import text
 from oddsbench.report.cautions import caution_block
 from oddsbench.report.json_output import envelope
-from oddsbench.report.numbers_text import decimal_text, exact_text, render_table
+from oddsbench.report.numbers_text import exact_text, figure_decimal_text, render_table, shown_log10
 
 if TYPE_CHECKING:  # result types only: the core (and the engines behind it) load when a question is asked
     from oddsbench.core.results import RoundFigures, RoundResults
@@ -67,7 +67,7 @@ def figure_items(figures: RoundFigures) -> list[tuple[str, str, Figure]]:
 
 def figure_cells(figure: Figure, percent: bool = False, width: int | None = 40) -> tuple[str, str]:
     """(exact, decimal) text of one figure."""
-    return exact_text(figure.exact, width), decimal_text(figure.decimal, figure.exact, percent)
+    return exact_text(figure.exact, width), figure_decimal_text(figure, percent)
 
 
 def round_rows(figures: RoundFigures) -> list[tuple[str, str, str]]:
@@ -131,7 +131,7 @@ def summary_items(figures: RoundFigures, strategy: str | None = None) -> list[tu
 
 def _summary_item(label: str, figure: Figure, percent: bool) -> tuple[str, str, str]:
     exact = exact_text(figure.exact, None) if figure.exact is not None else ""
-    decimal = decimal_text(figure.decimal, figure.exact, percent)
+    decimal = figure_decimal_text(figure, percent)
     return label, exact if len(exact) <= SUMMARY_EXACT_WIDTH else "", decimal
 
 
@@ -147,7 +147,20 @@ def round_text(figures: RoundFigures, strategy: str | None = None) -> str:
 
 
 def figure_json(figure: Figure) -> dict[str, Any]:
-    return {"exact": None if figure.exact is None else text(figure.exact), "decimal": figure.decimal}
+    """``{"exact", "decimal", "log10"}``: ``log10`` (of the size) only where a float cannot hold the
+    value, and then ``decimal`` is null; ``digits`` where the float engine vouches for fewer than all."""
+    power = shown_log10(figure)
+    decimal = figure.decimal
+    if power is not None or (decimal != 0 and abs(decimal) < FLOAT_TINY):
+        decimal = None
+    out: dict[str, Any] = {
+        "exact": None if figure.exact is None else text(figure.exact),
+        "decimal": decimal,
+        "log10": power,
+    }
+    if figure.digits is not None:
+        out["digits"] = figure.digits
+    return out
 
 
 def round_result_json(figures: RoundFigures, strategy: str | None = None) -> dict[str, Any]:

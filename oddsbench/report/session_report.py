@@ -9,7 +9,7 @@ from oddsbench.model.numbers import Rational, text, to_float
 from oddsbench.report.cautions import caution_block
 from oddsbench.report.figure_table import FigureTable, Shown, row, shown
 from oddsbench.report.json_output import envelope
-from oddsbench.report.numbers_text import decimal_text, render_table
+from oddsbench.report.numbers_text import csv_decimal, decimal_text, figure_decimal_text, render_table
 from oddsbench.report.round_report import figure_json
 
 if TYPE_CHECKING:  # result types only: the core (and the engines behind it) load when a question is asked
@@ -52,7 +52,7 @@ def cell(figure: Figure | None, percent: bool = False) -> str:
     """``exact | decimal`` where an exact value exists, the decimal alone otherwise."""
     if figure is None:
         return "-"
-    shown = decimal_text(figure.decimal, figure.exact, percent)
+    shown = figure_decimal_text(figure, percent)
     if figure.exact is None:
         return shown
     return f"{compact_exact(figure.exact)} | {shown}"
@@ -174,13 +174,13 @@ def _final_lines(result: SessionFigures, values, title: str) -> list[str]:
     return lines
 
 
-def series_sample(result: SessionFigures, points: int = SERIES_POINTS) -> list[tuple[Rational, float]]:
+def series_sample(result: SessionFigures, points: int = SERIES_POINTS) -> list[tuple[Rational, Figure]]:
     """A few evenly spaced points of the goal-chance series (the whole series is in the API)."""
     size = len(result.goal_series)
     if size == 0:
         return []
     picks = sorted({round(k * (size - 1) / (points - 1)) for k in range(points)})
-    return [(result.step * k, result.goal_series[k]) for k in picks]
+    return [(result.step * k, result.series_figure(k)) for k in picks]
 
 
 def session_text(results: SessionResults, notes: list[str] | None = None) -> str:
@@ -218,7 +218,7 @@ def bounded_text(
     sample_rows = []
     samples = [series_sample(r) for r in results]
     for i, (money, _) in enumerate(samples[0]):
-        sample_rows.append([text(money)] + [decimal_text(s[i][1]) if i < len(s) else "-" for s in samples])
+        sample_rows.append([text(money)] + [figure_decimal_text(s[i][1]) if i < len(s) else "-" for s in samples])
     parts.append(render_table(["bankroll"] + [r.plan for r in results], sample_rows))
     all_notes = list(notes or [])
     for result in results:
@@ -254,14 +254,9 @@ def plan_json(result: SessionFigures, series: bool = False) -> dict[str, Any]:
         "notes": list(result.notes),
     }
     if series:
-        exact = result.goal_series_exact
         body["goal_probability_by_bankroll"] = [
-            {
-                "bankroll": text(result.step * k),
-                "exact": None if exact is None else text(exact[k]),
-                "decimal": value,
-            }
-            for k, value in enumerate(result.goal_series)
+            {"bankroll": text(result.step * k), **figure_json(result.series_figure(k))}
+            for k in range(len(result.goal_series))
         ]
     return body
 
@@ -318,5 +313,5 @@ def series_csv(results: list[SessionFigures]) -> str:
     size = max(len(r.goal_series) for r in results)
     step = results[0].step
     for k in range(size):
-        lines.append(",".join([text(step * k)] + [repr(r.goal_series[k]) for r in results]))
+        lines.append(",".join([text(step * k)] + [csv_decimal(r.series_figure(k)) for r in results]))
     return "\n".join(lines) + "\n"

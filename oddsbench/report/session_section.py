@@ -10,7 +10,7 @@ from dataclasses import dataclass
 from typing import TYPE_CHECKING, Any
 
 from oddsbench.model.numbers import text
-from oddsbench.report.numbers_text import decimal_text, exact_text
+from oddsbench.report.numbers_text import csv_decimal, exact_text, figure_decimal_text
 
 if TYPE_CHECKING:  # result types only: the core (and the engines behind it) load when a question is asked
     from oddsbench.core.results import SessionResults
@@ -73,7 +73,7 @@ class SessionSection:
                 if figure is None:
                     row += ["-", "-"]
                 else:
-                    row += [exact_text(figure.exact, MD_EXACT_WIDTH), decimal_text(figure.decimal, figure.exact)]
+                    row += [exact_text(figure.exact, MD_EXACT_WIDTH), figure_decimal_text(figure)]
             rows.append(row)
         lines += _table(headers, rows)
         notes = [f"- Note ({r.plan}): {note}" for r in self.results.plans for note in r.notes]
@@ -95,7 +95,7 @@ class SessionSection:
             if plan.bounded is not None:
                 for name, figure in plan.bounded.figures.items():
                     exact = "" if figure.exact is None else text(figure.exact)
-                    rows.append(("session", plan.plan, name, exact, repr(figure.decimal), ""))
+                    rows.append(("session", plan.plan, name, exact, csv_decimal(figure), ""))
             else:
                 from oddsbench.report.no_goal_report import no_goal_rows
 

@@ -7,7 +7,7 @@ from typing import TYPE_CHECKING, Any
 from oddsbench.model.numbers import text
 from oddsbench.report.cautions import caution_block
 from oddsbench.report.json_output import envelope
-from oddsbench.report.numbers_text import decimal_text, exact_text, render_table
+from oddsbench.report.numbers_text import decimal_text, exact_text, figure_decimal_text, render_table
 from oddsbench.report.round_report import item_label
 
 if TYPE_CHECKING:  # result types only: the core (and the engines behind it) load when a question is asked
@@ -43,7 +43,7 @@ def check_rows(checks: list[Check], sample: RoundSample | None = None) -> list[l
                 _number(check.estimate),
                 f"[{_number(check.interval.low)}, {_number(check.interval.high)}]",
                 exact_text(exact.exact) if exact is not None else "-",
-                decimal_text(exact.decimal, exact.exact) if exact is not None else "-",
+                figure_decimal_text(exact) if exact is not None else "-",
                 check_status(check),
             ]
         )

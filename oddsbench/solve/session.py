@@ -12,14 +12,18 @@ from __future__ import annotations
 from collections.abc import Callable
 from dataclasses import dataclass, field
 
+import numpy as np
+
 from oddsbench.chain.bankroll import BankrollChain
 from oddsbench.model.defaults import SESSION_EXACT_LIMIT
 from oddsbench.model.figure import Figure
 from oddsbench.model.numbers import Rational
+from oddsbench.solve.bankroll_system import skip_free_view
 from oddsbench.solve.linear import factor_float, identity_minus_float
 from oddsbench.solve.session_absorbing import absorbing_decimal, absorbing_exact
 from oddsbench.solve.session_figures import FinalValue, goal_series_of, session_figures, underflow_notes
 from oddsbench.solve.session_steps import capped_series_decimal, capped_series_exact, forward_decimal, forward_exact
+from oddsbench.solve.session_walk import walk_decimal
 
 DEFAULT_EXACT_LIMIT = SESSION_EXACT_LIMIT
 EXACT_STEP_BUDGET = 3_000_000
@@ -38,6 +42,7 @@ class SessionSolution:
     rounds: int | None = None
     exact: bool = False
     notes: tuple[str, ...] = field(default=())
+    goal_series_log10: np.ndarray | None = field(default=None, compare=False)  # log10 of each value (-inf: 0)
 
 
 def solve_session(
@@ -74,11 +79,14 @@ def solve_session(
         series = capped_series_decimal(chain, max_rounds)
         series_exact = capped_series_exact(chain, max_rounds, should_stop) if use_exact else None
     else:
-        raw_decimal = absorbing_decimal(chain)
+        view = skip_free_view(chain)
+        raw_decimal = walk_decimal(chain, view) if view.walk is not None else absorbing_decimal(chain)
         raw_exact = absorbing_exact(chain, should_stop) if use_exact else None
         series = raw_decimal["series"]
         series_exact = raw_exact["series"] if raw_exact else None
     figures, final = session_figures(chain, raw_exact, raw_decimal, notes, max_rounds)
+    if raw_exact is None:
+        notes.extend(raw_decimal.get("notes", ()))
     after: tuple[FinalValue, ...] = ()
     if rounds is not None:
         horizon = rounds if max_rounds is None else min(rounds, max_rounds)
@@ -89,10 +97,11 @@ def solve_session(
         within_exact = forward_exact(chain, horizon, should_stop) if exact_within else None
         within_figures, after = session_figures(chain, within_exact, within_decimal, notes, horizon, prefix="within")
         figures.update(within_figures)
-    goal_series, goal_exact = goal_series_of(chain, series, series_exact)
+    series_log10 = raw_decimal.get("series_log10") if max_rounds is None else None
+    goal_series, goal_exact, goal_log10 = goal_series_of(chain, series, series_exact, series_log10)
     underflow_notes(figures, notes)
     goal = figures["goal_probability"]
-    if goal.exact is None and goal.decimal == 0.0 and any(value > 0 for value in goal_series[:-1]):
+    if goal.exact is None and goal.log10 is None and goal.decimal == 0.0 and any(v > 0 for v in goal_series[:-1]):
         notes.append(
             "goal_probability: shown as 0 because it is below the float range (about 1e-308); the goal can "
             "be reached from higher bankrolls (see the series); solve a smaller grid exactly for its size"
@@ -106,6 +115,7 @@ def solve_session(
         rounds=rounds,
         exact=raw_exact is not None,
         notes=tuple(notes),
+        goal_series_log10=goal_log10,
     )
 
 

@@ -5,7 +5,9 @@ being absorbed, the chance of reaching the goal from every bankroll is N r_goal,
 number of rounds N 1 (second moment N (2t - 1)), the expected total staked N s. One transposed
 solve from the start, v = N^T e_start (expected visits), gives the whole distribution of the
 final bankroll at once: P(end at a) = sum_i v_i R[i, a]. Floats and exact rationals go through
-the front doors of ``solve/linear``; the float factors eliminate bankroll levels from the top.
+the front doors of ``solve/linear``: a band LU where the chain's band can be stored, else SuperLU
+eliminating bankroll levels from the top. The rounds' variance is solved for directly (its own
+right-hand side, ``centred_rhs``), never as E[T^2] - E[T]^2. Skip-free walks go to ``session_walk``.
 """
 
 from __future__ import annotations
@@ -14,7 +16,8 @@ import numpy as np
 
 from oddsbench.chain.bankroll import GOAL, BankrollChain
 from oddsbench.model.numbers import QQ, to_float
-from oddsbench.solve.linear import factor_exact, factor_float, identity_minus, identity_minus_float
+from oddsbench.solve.bankroll_system import float_system
+from oddsbench.solve.linear import factor_exact, factor_float, identity_minus
 
 
 def rhs_columns(chain: BankrollChain):
@@ -28,30 +31,29 @@ def rhs_columns(chain: BankrollChain):
 def absorbing_decimal(chain: BankrollChain) -> dict:
     n = chain.size
     goal_columns, staked_unit = rhs_columns(chain)
-    r = chain.r_matrix()
     values = chain.absorbing_values.astype(float) * to_float(chain.grid.step)
     if n == 0:
         return {"absorbed": np.zeros(len(values)), "start_absorbed": True, "series": np.zeros(0)}
-    # value-major bankroll levels: eliminated from the top while the band's fill fits
-    lu = factor_float(identity_minus_float(chain.q_matrix()), order="from-top")
+    r = chain.r_matrix()
+    lu = factor_float(*float_system(chain))
     r_goal = np.asarray(r[:, goal_columns].sum(axis=1)).ravel()
     staked = chain.bets.astype(float) * to_float(staked_unit)
     solved = lu.solve(np.column_stack([r_goal, np.ones(n), staked]))
     h, t, s = solved[:, 0], solved[:, 1], solved[:, 2]
     start = max(chain.start, 0)
-    second = lu.solve(2 * t - 1)
-    e = np.zeros(n)
-    e[start] = 1.0
-    visits = lu.solve_transposed(e)
+    spread = lu.solve(centred_rhs(chain, t))
+    visits = lu.solve_transposed(unit_vector(n, start))
     absorbed = r.T @ visits
     return {
         "absorbed": absorbed,
         "rounds": t[start],
-        "rounds_second": second[start],
+        "rounds_second": spread[start] + t[start] ** 2,
+        "rounds_variance": spread[start],
         "staked": s[start],
         "playing": np.zeros(0),
         "series": h,
         "values": values,
+        "method": lu.method,
     }
 
 
@@ -85,3 +87,17 @@ def absorbing_exact(chain: BankrollChain, should_stop) -> dict | None:
         "playing": [],
         "series": h,
     }
+
+
+def centred_rhs(chain: BankrollChain, rounds: np.ndarray) -> np.ndarray:
+    """One round's share of the variance of the number of rounds, from every state: the variance of
+    1 + (rounds left after it), sum_o p_o (1 + t(next) - t(k))^2, a sum of squares. Solving with it gives
+    the variance itself (the law of total variance), never as E[T^2] - E[T]^2, which cancels."""
+    after = np.where(chain.target >= 0, rounds[np.maximum(chain.target, 0)], 0.0)
+    return ((1.0 + after - rounds[:, None]) ** 2 * chain.probabilities()[None, :]).sum(axis=1)
+
+
+def unit_vector(size: int, at: int) -> np.ndarray:
+    e = np.zeros(size)
+    e[at] = 1.0
+    return e

@@ -65,6 +65,7 @@ class SessionFigures:
     after_rounds: tuple[FinalValue, ...] = ()
     rounds: int | None = None
     notes: tuple[str, ...] = field(default=())
+    goal_series_log10: np.ndarray | None = field(default=None, compare=False)  # log10 of each value (-inf: 0)
 
     @property
     def exact(self) -> bool:
@@ -72,6 +73,17 @@ class SessionFigures:
 
     def series_bankrolls(self) -> list[Rational]:
         return [self.step * k for k in range(len(self.goal_series))]
+
+    def series_figure(self, k: int) -> Figure:
+        """The goal chance from bankroll k * step as a figure: exact where known, its log10 where the
+        decimal is below the float range (0.0 in ``goal_series``)."""
+        exact = self.goal_series_exact[k] if self.goal_series_exact is not None else None
+        decimal = self.goal_series[k]
+        log10 = None
+        if exact is None and decimal == 0 and self.goal_series_log10 is not None:
+            value = float(self.goal_series_log10[k])
+            log10 = value if value != float("-inf") else None
+        return Figure(exact, decimal, log10)
 
 
 def settings_from_table(table: Mapping[str, Any], source: str) -> dict:
@@ -194,6 +206,7 @@ def analyse_session(
         after_rounds=solution.after_rounds,
         rounds=rounds,
         notes=tuple(notes) + solution.notes,
+        goal_series_log10=solution.goal_series_log10,
     )
 
 

@@ -57,7 +57,7 @@ def test_session_json_has_exact_and_decimal_pairs(capsys):
         "expected_staked",
         "expected_final_bankroll",
     ):
-        assert set(bold["figures"][name]) == {"exact", "decimal"}
+        assert set(bold["figures"][name]) == {"exact", "decimal", "log10"}
     assert bold["figures"]["goal_probability"]["exact"] is not None
     assert len(bold["goal_probability_by_bankroll"]) == 21
     assert body["cautions"]

@@ -36,7 +36,7 @@ def test_json_report_parses_back_and_echoes_the_ruleset(tmp_path):
     assert body["ruleset"]["params"]["pockets"]["exact"] == "37"
     (round_,) = body["rounds"]
     # 1/37 for an even-money bet on a single-zero wheel: common practice, no source
-    assert round_["figures"]["house_edge"] == {"exact": "1/37", "decimal": 1 / 37}
+    assert round_["figures"]["house_edge"] == {"exact": "1/37", "decimal": 1 / 37, "log10": None}
     assert body["sources"] and all(item["reference"] for item in body["sources"])
 
 

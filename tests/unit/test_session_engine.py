@@ -188,9 +188,16 @@ result = "end"
     assert [(o.net, o.prob) for o in distribution.outcomes] == [(0, QQ(1, 2)), (2, QQ(1, 2))]
 
 
-def test_a_goal_chance_below_the_float_range_is_flagged_not_shown_as_a_plain_zero():
-    # (19/18)^-20000 is about 1e-470: far below the smallest float
+def test_a_goal_chance_below_the_float_range_is_given_as_a_power_of_ten_not_a_plain_zero():
+    # (19/18)^-20000 is about 1e-470: far below the smallest float. The classical ruin formula
+    # (Feller vol. I ch. XIV sec. 2), P(goal) = (r^z - 1) / (r^a - 1) with r = q/p, in mpmath.
+    import mpmath
+
     game = parse_round_text("1:18/37,-1:19/37")
     result = analyse_session(game, SessionSettings(QQ(20_000), QQ(40_000)), "timid")
-    assert result.figures["goal_probability"].decimal == 0.0
-    assert any("below the float range" in note for note in result.notes)
+    goal = result.figures["goal_probability"]
+    assert goal.decimal == 0.0 and goal.log10 is not None
+    with mpmath.workdps(40):
+        r = mpmath.mpf(19) / 18
+        truth = mpmath.log10((r**20_000 - 1) / (r**40_000 - 1))
+    assert abs(goal.log10 - float(truth)) < 1e-9

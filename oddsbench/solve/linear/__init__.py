@@ -7,8 +7,13 @@ library routine.
 
 Float: ``factor_float(system, order=...)``.
 
+* A ``SkipFreeWalk`` (one law at every level, at most one level down a round) goes to the
+  skip-free recursion (``linear/skip_free.py``): its chances of either end from every level in
+  log space, from positive terms, and other right-hand sides by its Green function where that
+  holds its digits (else a band LU of the same walk).
 * A ``BandMatrix`` (band storage, built by walks over levels) goes to LAPACK's banded LU
-  (``gbtrf``/``gbtrs``; ``gttrf``/``gttrs`` when tridiagonal).
+  (``gbtrf``/``gbtrs``; ``gttrf``/``gttrs`` when tridiagonal); ``band_storage_fits`` says when
+  the band is small enough to store.
 * A scipy sparse matrix goes to SuperLU. ``order`` says what the caller knows of the state
   order: ``"fill-reducing"`` (irregular chains: COLAMD), ``"from-top"`` (states are bankroll
   levels, value-major: eliminate from the top without pivoting while the band's fill fits,
@@ -19,8 +24,8 @@ Exact: ``factor_exact(rows, method=...)`` over dict rows of rationals: ``"elimin
 ``DomainMatrix`` over QQ with pivoting, for small general systems), ``"fraction-free"`` (sympy's
 sparse ``solve_den`` over ZZ, an independent method for cross-checks).
 
-A new engine (a structure-aware one: a skip-free recursion, a tridiagonal solve in log space)
-is one class with ``solve``/``solve_transposed``/``method`` and one rule in ``_float_engine``.
+A new engine is one class with ``solve``/``solve_transposed``/``method`` and one rule in
+``_float_engine``.
 Heavy libraries (scipy, sympy) are imported only when a system is factored.
 """
 
@@ -38,10 +43,18 @@ from oddsbench.solve.linear.exact import (
     Row,
     identity_minus,
 )
+from oddsbench.solve.linear.skip_free import SkipFreeFactors, SkipFreeWalk
 from oddsbench.solve.linear.sparse import ORDERS, FloatSingular, SuperLUFactors, sparse_from_rows
-from oddsbench.solve.linear.structure import BANDED_FILL_LIMIT, Structure, structure_of
+from oddsbench.solve.linear.structure import (
+    BAND_STORAGE_LIMIT,
+    BANDED_FILL_LIMIT,
+    Structure,
+    band_storage_fits,
+    structure_of,
+)
 
 __all__ = [
+    "BAND_STORAGE_LIMIT",
     "BANDED_FILL_LIMIT",
     "EXACT_METHODS",
     "ORDERS",
@@ -53,8 +66,11 @@ __all__ = [
     "FloatSingular",
     "FractionFreeSolver",
     "Row",
+    "SkipFreeFactors",
+    "SkipFreeWalk",
     "Structure",
     "SuperLUFactors",
+    "band_storage_fits",
     "factor_exact",
     "factor_float",
     "identity_minus",
@@ -64,12 +80,14 @@ __all__ = [
 ]
 
 
-def factor_float(system, order: str = "fill-reducing") -> BandFactors | SuperLUFactors:
+def factor_float(system, order: str = "fill-reducing") -> BandFactors | SuperLUFactors | SkipFreeFactors:
     """Factor a square float system once (see the module text for how the engine is chosen)."""
     return _float_engine(system, order)
 
 
-def _float_engine(system, order: str) -> BandFactors | SuperLUFactors:
+def _float_engine(system, order: str) -> BandFactors | SuperLUFactors | SkipFreeFactors:
+    if isinstance(system, SkipFreeWalk):
+        return SkipFreeFactors(system)
     if isinstance(system, BandMatrix):
         return BandFactors(system)
     if order == "from-top" and not structure_of(system).band_fits:

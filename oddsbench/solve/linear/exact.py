@@ -18,7 +18,7 @@ from collections.abc import Callable, Mapping, Sequence
 from math import lcm
 
 from oddsbench.model.errors import OddsbenchError
-from oddsbench.model.numbers import QQ, ZZ, Rational
+from oddsbench.model.numbers import QQ, Rational, from_sympy
 from oddsbench.solve.cancel import SolveCancelled
 
 Row = dict[int, Rational]
@@ -136,19 +136,31 @@ class DenseExactSolver:
         for i, row in enumerate(rows):
             for j, value in row.items():
                 dense[i][j] += value
-        self._matrix = DomainMatrix(dense, (self.size, self.size), QQ)
+        self._matrix = DomainMatrix([[_to_sympy(v) for v in row] for row in dense], (self.size, self.size), _sympy_qq())
 
     def solve(self, rhs: Sequence[Rational]) -> list[Rational]:
-        from sympy.polys.matrices import DomainMatrix
-
-        column = DomainMatrix([[QQ(value)] for value in rhs], (self.size, 1), QQ)
-        return [row[0] for row in self._matrix.lu_solve(column).to_list()]
+        return self._solve(self._matrix, rhs)
 
     def solve_transposed(self, rhs: Sequence[Rational]) -> list[Rational]:
+        return self._solve(self._matrix.transpose(), rhs)
+
+    def _solve(self, matrix, rhs: Sequence[Rational]) -> list[Rational]:
         from sympy.polys.matrices import DomainMatrix
 
-        column = DomainMatrix([[QQ(value)] for value in rhs], (self.size, 1), QQ)
-        return [row[0] for row in self._matrix.transpose().lu_solve(column).to_list()]
+        column = DomainMatrix([[_to_sympy(QQ(value))] for value in rhs], (self.size, 1), _sympy_qq())
+        return [from_sympy(row[0]) for row in matrix.lu_solve(column).to_list()]
+
+
+def _sympy_qq():
+    from sympy.polys.domains import QQ as SYMPY_QQ
+
+    return SYMPY_QQ
+
+
+def _to_sympy(value: Rational):
+    """Our rational in sympy's QQ (the same object when sympy runs on FLINT ground types)."""
+    domain = _sympy_qq()
+    return value if isinstance(value, domain.dtype) else domain(int(value.p), int(value.q))
 
 
 class FractionFreeSolver:
@@ -175,6 +187,7 @@ class FractionFreeSolver:
         return self._solve(columns, rhs)
 
     def _solve(self, rows: Sequence[Mapping[int, Rational]], rhs: Sequence[Rational]) -> list[Rational]:
+        from sympy.polys.domains import ZZ
         from sympy.polys.matrices import DomainMatrix
 
         size = self.size

@@ -53,3 +53,13 @@ def structure_of(matrix) -> Structure:
     if matrix.format == "csc":
         offset = -offset
     return Structure(size, int(max(-offset.min(), 0)), int(max(offset.max(), 0)), int(matrix.nnz))
+
+
+# LAPACK's band LU stores 2 x lower + upper + 1 numbers per row; above this many it costs more memory
+# than SuperLU's fill for the same walk, and the sparse engine takes over.
+BAND_STORAGE_LIMIT = 40_000_000
+
+
+def band_storage_fits(lower: int, upper: int, size: int) -> bool:
+    """LAPACK's band storage of a system of this band and size stays within ``BAND_STORAGE_LIMIT`` numbers."""
+    return (2 * lower + upper + 1) * size <= BAND_STORAGE_LIMIT

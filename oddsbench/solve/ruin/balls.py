@@ -14,6 +14,7 @@ from contextvars import ContextVar
 from dataclasses import dataclass
 from typing import Any
 
+from oddsbench.model.defaults import NO_GOAL_DIGITS
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.numbers import Rational, denominator, numerator
 from oddsbench.solve.cancel import StopCheck, stop_if_asked
@@ -32,7 +33,7 @@ class Certified:
         return self.text
 
 
-DEFAULT_DIGITS = 30
+DEFAULT_DIGITS = NO_GOAL_DIGITS  # one default for the engines, the core and --digits
 MAX_DIGITS = 2000
 
 # the caller's cancel check (a workbench worker's), seen by the exact solves deep inside one call
