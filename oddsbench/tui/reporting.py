@@ -1,5 +1,5 @@
 """Writing a report from the workbench: the same solve, renderer and atomic writer as ``oddsbench
-report``. Pure: runs in a thread worker; the path dialog is in ``screens/workbench/report_dialog.py``."""
+report``. Pure: runs in a thread worker; the path dialog is in ``screens/workbench/figure_views.py``."""
 
 from __future__ import annotations
 
@@ -13,6 +13,7 @@ from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.ruleset import Ruleset
 from oddsbench.report.writing import FORMATS, report_format
 from oddsbench.tui.analysis import RoundFailure, session_settings_of
+from oddsbench.tui.file_targets import path_problem
 
 
 def suggested_report_path(source_path: Path | None, folder: Path) -> Path:
@@ -28,14 +29,10 @@ def suggested_report_path(source_path: Path | None, folder: Path) -> Path:
 
 def report_path_problem(value: str) -> str | None:
     """Why a report cannot be written to the typed path, or None."""
-    if not value:
-        return "a file name is needed"
-    target = Path(value).expanduser()
-    if target.is_dir():
-        return f"{value} is a folder"
-    if not target.parent.is_dir():
-        return f"no folder {target.parent}"
-    if target.suffix.lower() not in (".md", ".markdown", ".csv", ".json"):
+    problem = path_problem(value)
+    if problem is not None:
+        return problem
+    if Path(value).expanduser().suffix.lower() not in (".md", ".markdown", ".csv", ".json"):
         return f"end the name with .md, .csv or .json (the report's format: {', '.join(FORMATS)})"
     return None
 
