@@ -32,16 +32,23 @@ class Scene:
     state: str | None = None
 
 
-SCENES = (
-    Scene("workbench-80x24", "lantern-dice.toml", (80, 24)),
-    Scene("edit-payout-120x40", "lantern-dice.toml", (120, 40), ("enter", "enter", "tab", "end", "ctrl+u", "2")),
-    Scene("round-figures-100x30", "pass-line.toml", (100, 30), ("f3",)),
-    Scene("bad-value-100x30", "pass-line.toml", (100, 30), ("enter", "enter", "end", "ctrl+u", *"8/3(")),
-    Scene("strategies-120x40", "lamplighter-ladder.toml", (120, 40), ("f4",)),
-    Scene("sessions-120x40", "single-zero-wheel.toml", (120, 40), ("f5",)),
-    Scene("help-100x30", "pass-line.toml", (100, 30), ("f1",)),
-    Scene("workbench-160x40", "pass-line.toml", (160, 40), ("down", "enter")),
+SIZES = ((80, 24), (120, 40))
+VIEWS = (  # (name, ruleset, keys): every view, each shown at every size in ``SIZES``
+    ("edit", "lantern-dice.toml", ("enter", "enter", "tab", "end", "ctrl+u", "2")),  # a payout edited
+    ("round", "lantern-dice.toml", ("f3",)),
+    ("strategies", "pig-turn.toml", ("f4",)),
+    ("sessions", "single-zero-wheel.toml", ("f5",)),
+    ("source", "pass-line.toml", ("f6",)),
+    ("simulation", "lantern-dice.toml", ("f7", *"20000", "tab", *"7", "enter")),
+    ("help", "pass-line.toml", ("f1",)),
+    ("cautions", "pass-line.toml", ("f9",)),
+    ("bad-value", "pass-line.toml", ("enter", "enter", "end", "ctrl+u", *"8/3(")),
 )
+SCENES = tuple(
+    Scene(f"{name}-{width}x{height}", ruleset, (width, height), keys)
+    for name, ruleset, keys in VIEWS
+    for width, height in SIZES
+) + (Scene("wide-160x40", "pass-line.toml", (160, 40), ("down", "enter")),)
 
 
 async def _settle(pilot) -> None:

@@ -153,6 +153,11 @@ def fit_table(table: FigureTable, width: int, kind: str = "both") -> FittedTable
     over = sum(w + PAD for w in widths) - room
     if over > 0:  # the labels give way first, down to a readable width
         label_width = max(min(label_width, MIN_LABEL), label_width - over)
+    spare = -over
+    for j, name in enumerate(table.columns):  # headers cut to make room take back what is left
+        grow = min(max(0, len(name) - widths[j]), max(0, spare))
+        widths[j] += grow
+        spare -= grow
     cells = [[_cell(_at(r, j), kind, widths[j]) for j in range(count)] for r in table.rows]
     headers = [_cut(name, w) for name, w in zip(table.columns, widths)]
     widths = [max([w] + [len(c[j]) for c in cells]) for j, w in enumerate(widths)]

@@ -98,7 +98,7 @@ class WorkbenchApp(App):
     def _offer_recovery(self) -> None:
         """Claim the open file's recovery copies and offer back what a killed session left."""
         screen = self.workbench
-        offer_recovery(self, screen.recovery, self.session, screen._refresh_forced)
+        offer_recovery(self, screen.recovery, self.session, screen.refresh_forms)
 
     async def _drop_screen(self, screen: WorkbenchScreen) -> None:
         if screen in self.screen_stack:
@@ -118,7 +118,7 @@ class WorkbenchApp(App):
                 if session.read_only:
                     screen.action_save_as()
                     return
-                if screen._save(None):
+                if screen.save_to(None):
                     then()
             elif answer == "d":
                 self.workbench.drop_recovery()

@@ -345,7 +345,7 @@ class WorkbenchScreen(FigureViews, Screen):
         text = event.text_area.text
         if text != visible(self.session.text, multiline=True):  # an edit, not the file shown
             self.session.replace_text(text)
-            self._refresh_forced()
+            self.refresh_forms()
 
     # ----- actions -----
 
@@ -382,7 +382,7 @@ class WorkbenchScreen(FigureViews, Screen):
             self.notify("nothing to undo")
             return
         self.notify(f"undone: {step.label}")
-        self._refresh_forced()
+        self.refresh_forms()
 
     def action_redo(self) -> None:
         step = self.session.redo()
@@ -390,9 +390,11 @@ class WorkbenchScreen(FigureViews, Screen):
             self.notify("nothing to redo")
             return
         self.notify(f"redone: {step.label}")
-        self._refresh_forced()
+        self.refresh_forms()
 
-    def _refresh_forced(self) -> None:
+    def refresh_forms(self) -> None:
+        """Show the document again with every form refilled from the text (after undo, redo or a
+        recovered copy, where the text changed under the fields)."""
         self.force_fields = True
         try:
             self.refresh_document()
@@ -445,16 +447,17 @@ class WorkbenchScreen(FigureViews, Screen):
         if self.session.read_only:
             self.action_save_as()
             return
-        self._save(None)
+        self.save_to(None)
 
     def action_save_as(self) -> None:
-        ask_save_path(self.app, self.session, self.folder, self._save)
+        ask_save_path(self.app, self.session, self.folder, self.save_to)
 
-    def _save(self, path: Path | None, overwrite: bool = False) -> bool:
+    def save_to(self, path: Path | None, overwrite: bool = False) -> bool:
+        """Save to ``path`` (None: the open file); True once written, else the user was told why."""
         try:
             saved = self.session.save(path, overwrite)
         except DiskChanged as changed:
-            ask_about_disk_change(self.app, str(changed), lambda: self._save(path, overwrite=True), self.action_save_as)
+            ask_about_disk_change(self.app, str(changed), lambda: self.save_to(path, overwrite=True), self.action_save_as)
             return False
         except (OddsbenchError, DocumentError) as error:
             self.notify(str(error), severity="error")
