@@ -20,6 +20,7 @@ from oddsbench.cli import (
     solve_command,
     sweep_command,
 )
+from oddsbench.cli.options import add_budget, budget_of
 from oddsbench.model.errors import OddsbenchError, RulesetError, one_line
 from oddsbench.model.visible import visible
 
@@ -37,6 +38,8 @@ EXIT_BAD_INPUT = 2
 EXIT_INTERNAL = 70
 EXIT_INTERRUPTED = 130
 EXIT_BROKEN_PIPE = 141
+EXIT_TERMINATED = 143
+WITHOUT_BUDGET = ("open",)  # the workbench bounds each analysis itself, not the session
 
 
 class OneLineParser(argparse.ArgumentParser):
@@ -104,25 +107,41 @@ def build_parser() -> argparse.ArgumentParser:
     commands = parser.add_subparsers(dest="command", metavar="COMMAND")
     for module in COMMANDS:
         module.register(commands)
+    for name, command in commands.choices.items():
+        if name not in WITHOUT_BUDGET:
+            add_budget(command)
     return parser
 
 
-def main(argv: Sequence[str] | None = None) -> int:
+class Terminated(BaseException):
+    """SIGTERM, turned into an exception so that cleanups run (sweep workers and detached solves end)."""
+
+
+def main(argv: Sequence[str] | None = None, hard_limits: bool = False) -> int:
+    """Run one command; ``hard_limits`` (the real process, not a test calling in) also caps this
+    process's memory at the budget, so an allocation past it fails instead of swapping."""
     for stream in (sys.stdout, sys.stderr):
         if hasattr(stream, "reconfigure"):
             stream.reconfigure(errors="backslashreplace")  # odd names never crash the output
     parser = build_parser()
     with visible_output():  # the workbench draws on the terminal itself (sys.__stderr__), not through these
         args = parser.parse_args(joined_signed_values(sys.argv[1:] if argv is None else argv))
-        return _run(args)
+        return _run(args, hard_limits)
 
 
-def _run(args: argparse.Namespace) -> int:
-    """One command, with every expected failure turned into its exit code and one line."""
+def _run(args: argparse.Namespace, hard_limits: bool = False) -> int:
+    """One command under its work budget, with every expected failure turned into its exit code and one line."""
+    from oddsbench.model import budget as budgets
+    from oddsbench.model.families import state_limit
+
+    budget = budget_of(args)
+    if hard_limits and budget is not None:
+        budgets.limit_process_memory(budget.memory_mb)
     try:
         if args.command is None:
             return open_command.run_workbench(None)
-        return int(args.run(args) or 0)
+        with budgets.scope(budget), state_limit(getattr(args, "max_states", None)):
+            return int(args.run(args) or 0)
     except RulesetError as error:
         for problem in error.problems:
             print(problem, file=sys.stderr)
@@ -133,13 +152,16 @@ def _run(args: argparse.Namespace) -> int:
     except KeyboardInterrupt:
         print("oddsbench: interrupted", file=sys.stderr)
         return EXIT_INTERRUPTED
+    except Terminated:
+        print("oddsbench: terminated", file=sys.stderr)
+        return EXIT_TERMINATED
     except BrokenPipeError:
         # The reader went away (``| head``): stop quietly, and keep Python's exit flush quiet too.
         devnull = os.open(os.devnull, os.O_WRONLY)
         os.dup2(devnull, sys.stdout.fileno())
         return EXIT_BROKEN_PIPE
     except MemoryError:
-        print("oddsbench: out of memory: lower --exact-limit or --max-states", file=sys.stderr)
+        print(f"oddsbench: {budgets.over_memory('out of memory', budget or budgets.Budget())}", file=sys.stderr)
         return EXIT_BAD_INPUT
     except Exception as error:  # the last line of defence: one line, never a traceback
         if os.environ.get("ODDSBENCH_DEBUG"):
@@ -153,10 +175,20 @@ def _run(args: argparse.Namespace) -> int:
         return EXIT_INTERNAL
 
 
+def _terminate(signum, frame) -> None:
+    raise Terminated
+
+
 def entry() -> None:
+    import signal
+
+    signal.signal(signal.SIGTERM, _terminate)
     try:
-        code = main()
+        code = main(hard_limits=True)
     except KeyboardInterrupt:  # Ctrl-C before a command started (while parsing or importing)
         print("oddsbench: interrupted", file=sys.stderr)
         code = EXIT_INTERRUPTED
+    except Terminated:
+        print("oddsbench: terminated", file=sys.stderr)
+        code = EXIT_TERMINATED
     sys.exit(code)

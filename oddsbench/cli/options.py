@@ -25,6 +25,49 @@ def non_negative_int(text: str) -> int:
     return value
 
 
+def positive_seconds(text: str) -> float:
+    try:
+        value = float(text)
+    except ValueError:
+        raise argparse.ArgumentTypeError(f"expected a number of seconds, got {text!r}") from None
+    if not 0 < value < 10**7:  # also refuses nan and inf
+        raise argparse.ArgumentTypeError(f"expected a number of seconds above 0 and below 10,000,000, got {text!r}")
+    return value
+
+
+def add_budget(parser: argparse.ArgumentParser) -> None:
+    """``--budget`` and ``--memory``: the work budget of the command (``model/budget.py``)."""
+    from oddsbench.model.defaults import DEFAULT_BUDGET_SECONDS, DEFAULT_MEMORY_MB
+
+    group = parser.add_argument_group(
+        "work budget", "every step estimates its cost first; what does not fit is refused or given in decimals only"
+    )
+    group.add_argument(
+        "--budget",
+        type=positive_seconds,
+        default=DEFAULT_BUDGET_SECONDS,
+        metavar="SECONDS",
+        help=f"time the command may take, reading included (default {DEFAULT_BUDGET_SECONDS}); exact arithmetic "
+        "may use the first 40%%, then decimals only",
+    )
+    group.add_argument(
+        "--memory",
+        type=positive_int,
+        default=DEFAULT_MEMORY_MB,
+        metavar="MB",
+        help=f"memory the command may hold, in MB (default {DEFAULT_MEMORY_MB:,})",
+    )
+
+
+def budget_of(args: argparse.Namespace):
+    """The work budget a command asked for (None for a command without one: the workbench)."""
+    if getattr(args, "budget", None) is None:
+        return None
+    from oddsbench.model.budget import Budget
+
+    return Budget(args.budget, args.memory)
+
+
 def add_max_states(parser: argparse.ArgumentParser) -> None:
     from oddsbench.model.defaults import DEFAULT_MAX_STATES
 

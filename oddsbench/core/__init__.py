@@ -1,8 +1,9 @@
 """The analysis core: the one way a front end (command line, workbench, reports, sweeps, the Python
 API) asks for figures.
 
-A loaded game and one ``Settings`` in, frozen results out; cancellation and progress through one
-``Work`` object. The core never imports textual and never formats text (the report layer does).
+A loaded game and one ``Settings`` in, frozen results out; cancellation, progress and the work
+budget (time and memory) through one ``Work`` object. The core never imports textual and never
+formats text (the report layer does).
 
 Entry points:
 
@@ -49,7 +50,9 @@ _WHERE = {
     "solve_task": "sweeps",
     "sweep": "sweeps",
     "NO_WORK": "work",
+    "Budget": "work",
     "Cancelled": "work",
+    "OverBudget": "work",
     "Work": "work",
 }
 

@@ -11,7 +11,7 @@ from dataclasses import dataclass
 from oddsbench.core.game import Game
 from oddsbench.core.session import SessionResults
 from oddsbench.core.settings import DEFAULTS, Settings
-from oddsbench.core.work import NO_WORK, Work
+from oddsbench.core.work import NO_WORK, Work, budgeted
 from oddsbench.strategy.compare import RoundResults
 
 
@@ -24,6 +24,7 @@ class ReportFigures:
     sessions: SessionResults | None = None
 
 
+@budgeted
 def report_figures(game: Game, settings: Settings = DEFAULTS, work: Work = NO_WORK) -> ReportFigures:
     """The round under each requested strategy (all of the file's when none is named); sessions under the first."""
     from oddsbench.solve.round_distribution import round_distribution_of

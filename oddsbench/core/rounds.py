@@ -11,7 +11,7 @@ from typing import TYPE_CHECKING
 
 from oddsbench.core.game import Game
 from oddsbench.core.settings import DEFAULTS, Settings
-from oddsbench.core.work import NO_WORK, Work
+from oddsbench.core.work import NO_WORK, Work, budgeted
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.ruleset import Ruleset
 from oddsbench.strategy.compare import (
@@ -39,6 +39,7 @@ class BestResults:
     checks: tuple[StrategyCheck, ...] = ()
 
 
+@budgeted
 def round_figures(game: Game, settings: Settings = DEFAULTS, work: Work = NO_WORK) -> RoundResults:
     """Every figure of one round; side by side for several start states or several strategies.
 
@@ -75,6 +76,7 @@ def _one_strategy(ruleset: Ruleset, settings: Settings, why: str) -> str | None:
     return strategy
 
 
+@budgeted
 def best_play(game: Game, settings: Settings = DEFAULTS, work: Work = NO_WORK) -> BestResults:
     """The best action in every decision state for ``settings.best_goal``, its value and certificate."""
     from oddsbench.strategy.best_policy import best_policy
@@ -84,6 +86,7 @@ def best_play(game: Game, settings: Settings = DEFAULTS, work: Work = NO_WORK) -
     return BestResults(ruleset.title, ruleset.start, best.goal, best)
 
 
+@budgeted
 def check_strategy(game: Game, name: str, settings: Settings = DEFAULTS, work: Work = NO_WORK) -> BestResults:
     """Hold a named strategy against ``settings.best_goal``: every state where one change of action does better."""
     from oddsbench.strategy.best_policy import check_strategy as held_against

@@ -16,7 +16,7 @@ from typing import TYPE_CHECKING
 from oddsbench.chain.round_distribution import RoundDistribution
 from oddsbench.core.game import Game
 from oddsbench.core.settings import DEFAULTS, SessionRequest, Settings
-from oddsbench.core.work import NO_WORK, Work
+from oddsbench.core.work import NO_WORK, Work, budgeted
 from oddsbench.model.defaults import DEFAULT_PLANS, NO_GOAL_DEFAULT_PLANS
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.strategy.plans import Plan, parse_plan
@@ -97,6 +97,7 @@ def session_round(game: Game, strategy: str | None, max_states: int | None = Non
     return round_distribution_of(played, policy_of(played, strategy))
 
 
+@budgeted
 def sessions(game: Game, settings: Settings = DEFAULTS, work: Work = NO_WORK) -> SessionResults:
     """Every plan of ``settings.session`` (default timid and bold), with a goal or with none."""
     request = settings.session or SessionRequest()
@@ -175,6 +176,7 @@ def _no_goal(
     )
 
 
+@budgeted
 def still_playing(results: SessionResults, plan: str, rounds: Sequence[int], work: Work = NO_WORK) -> tuple[float, ...]:
     """The chance that a plan's session is still going after each number of rounds (decimals: for a chart).
 

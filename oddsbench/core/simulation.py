@@ -11,7 +11,7 @@ from dataclasses import dataclass
 
 from oddsbench.core.game import Game
 from oddsbench.core.settings import DEFAULTS, Settings
-from oddsbench.core.work import NO_WORK, Work
+from oddsbench.core.work import NO_WORK, Work, budgeted
 from oddsbench.model.defaults import DEFAULT_PLANS, DEFAULT_ROUND_TRIALS, DEFAULT_SESSION_TRIALS
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.simulate.checks import Check
@@ -56,6 +56,7 @@ def fresh_seed() -> int:
     return int(np.random.SeedSequence().entropy % (1 << 63))
 
 
+@budgeted
 def simulate(game: Game, settings: Settings = DEFAULTS, work: Work = NO_WORK) -> Simulation:
     """Play many rounds (or sessions) at random and check every exact figure against the sample."""
     from oddsbench.chain.round_chain import build_round_chain

@@ -10,7 +10,7 @@ from __future__ import annotations
 import time
 from pathlib import Path
 
-from oddsbench.core.work import NO_WORK, Work
+from oddsbench.core.work import NO_WORK, Work, budgeted
 from oddsbench.model.errors import OddsbenchError, RulesetError
 from oddsbench.model.numbers import parse_fraction, text
 from oddsbench.sweep.points import Point, PointResult, PointTask, grid_points
@@ -89,6 +89,7 @@ def point_settings(point: Point) -> str:
     return ", ".join(f"{label}={value}" for label, value in point.settings) or "no axes"
 
 
+@budgeted
 def sweep(spec: SweepSpec, workers: int | None = None, cluster: str | None = None, work: Work = NO_WORK) -> SweepResult:
     """Solve the whole grid: point 0 first (a bad point or an unknown figure is one line before any
     runner starts), then every point on this process, local processes or the cluster.

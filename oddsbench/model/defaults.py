@@ -14,6 +14,11 @@ SESSION_EXACT_LIMIT = 3_000  # bankroll sessions asked on their own (``oddsbench
 DEFAULT_EXACT_LIMIT = ROUND_EXACT_LIMIT
 DEFAULT_EXACT_BITS = 16_000_000_000  # estimated bits held by the exact factors before the exact engine stops
 
+# The work budget of one question (``--budget``, ``--memory``; ``model/budget.py``): every command on any
+# file ends within about a minute and 2 GB on a 2-core machine, in figures, figures with a note, or one line.
+DEFAULT_BUDGET_SECONDS = 50
+DEFAULT_MEMORY_MB = 1_900
+
 # Sessions.
 DEFAULT_PLANS = ("timid", "bold")  # the plans compared when none is named
 NO_GOAL_DEFAULT_PLANS = ("timid",)  # ... and with no goal (bold play needs a goal)

@@ -22,17 +22,40 @@ the family and the index values where it failed. The result is plain state table
 from __future__ import annotations
 
 from collections.abc import Iterator, Mapping
+from contextlib import contextmanager
+from contextvars import ContextVar
 from dataclasses import dataclass
 from typing import Any
 
+from oddsbench.model import budget as budgets
 from oddsbench.model.errors import Problem, shown_name, type_name
-from oddsbench.model.expr import ExpressionError, Node, evaluate, is_tree, names_in, parse, partial, uses_hands
+from oddsbench.model.expr import (
+    Binary,
+    Call,
+    Conditional,
+    ExpressionError,
+    Node,
+    Unary,
+    evaluate,
+    is_tree,
+    names_in,
+    parse,
+    partial,
+    uses_hands,
+)
 from oddsbench.model.numbers import Rational, is_integer, text, to_int
 
 MAX_FAMILY_STATES = 100_000
 MAX_FAMILY_OUTCOMES = 1_000_000
 MAX_INDEX_VARIABLES = 8
 MAX_FAMILY_COMBINATIONS = 2_000_000  # index values tried, kept or not: a filter cannot hide a hang
+
+# The work of an expansion, in expression steps (one node of an expression evaluated); a member
+# or an outcome table also costs its own bookkeeping. Measured: about 1.7 microseconds a step.
+STEPS_PER_SECOND = 400_000
+READING_SHARE = 0.5  # of the time left in the work budget, for expanding families
+TABLE_STEPS = 30  # a table also costs its reading: the loader parses each rendered value again
+CHECK_EVERY_STEPS = 100_000
 
 FAMILY_KEYS = frozenset({"state", "index", "let", "when", "outcomes", "choices", "result", "about", "draw"})
 FAMILY_OUTCOME_KEYS = frozenset({"to", "prob", "pay", "stake", "note", "when", "each", "let"})
@@ -42,6 +65,67 @@ _RESERVED_NAMES = frozenset({"if", "then", "else", "and", "or", "not", "min", "m
 
 class FamilyError(Exception):
     """One failure inside a family; the message already names the family and index values."""
+
+
+_STATE_LIMIT: ContextVar[int | None] = ContextVar("family_state_limit", default=None)
+
+
+@contextmanager
+def state_limit(limit: int | None) -> Iterator[None]:
+    """Refuse families past ``limit`` states while they expand (``--max-states``), not after."""
+    token = _STATE_LIMIT.set(limit)
+    try:
+        yield
+    finally:
+        _STATE_LIMIT.reset(token)
+
+
+def steps_in(node: Node | int | None) -> int:
+    """Nodes of an expression: the steps one evaluation of it takes."""
+    if node is None or isinstance(node, int):
+        return 0
+    count, stack = 0, [node]
+    while stack:
+        item = stack.pop()
+        count += 1
+        if isinstance(item, Unary):
+            stack.append(item.operand)
+        elif isinstance(item, Binary):
+            stack += [item.left, item.right]
+        elif isinstance(item, Call):
+            stack += list(item.args)
+        elif isinstance(item, Conditional):
+            stack += [item.test, item.then, item.otherwise]
+    return count
+
+
+class _Steps:
+    """The expression steps an expansion may still take: a share of the time left in the work budget
+    (``model/budget.py``; the default budget when none is in force)."""
+
+    def __init__(self) -> None:
+        left = budgets.time_left()
+        if left == float("inf"):
+            left = budgets.Budget().seconds
+        self.seconds = max(left, 0.0) * READING_SHARE
+        self.limit = int(self.seconds * STEPS_PER_SECOND)
+        self.left = self.limit
+        self.next_check = CHECK_EVERY_STEPS
+
+    def spend(self, steps: int) -> None:
+        self.left -= steps
+        if self.left < 0:
+            raise FamilyError(self.over(f"families evaluate more than {self.limit:,} expression steps"))
+        self.next_check -= steps
+        if self.next_check < 0:
+            self.next_check = CHECK_EVERY_STEPS
+            budgets.check("expanding families")
+
+    def over(self, what: str) -> str:
+        return (
+            f"{what}, more than reading may take in {budgets.seconds_text(self.seconds)} "
+            f"(raise it with {budgets.TIME_OPTION})"
+        )
 
 
 class _TooManyCombinations(FamilyError):
@@ -70,6 +154,10 @@ class _Template:
 
     parts: tuple[str | Node, ...]
     raw: str
+
+    @property
+    def steps(self) -> int:
+        return sum(steps_in(part) for part in self.parts if not isinstance(part, str))
 
     def render(self, env: Mapping[str, Rational]) -> str:
         pieces = []
@@ -284,9 +372,26 @@ class _Outcome:
             raise FamilyError(f"{where}, note: must be text")
         self.values = {key: _value_node(raw[key], f"{where}, {key}") for key in ("prob", "pay", "stake") if key in raw}
         self.where = where
+        self.steps = (
+            TABLE_STEPS
+            + sum(steps_in(node) for _, node in self.lets)
+            + steps_in(self.when)
+            + sum(steps_in(test) + template.steps for test, template in self.cases)
+            + sum(steps_in(node) for node in self.values.values())
+            + (self.note.steps if self.note is not None else 0)
+        )
 
-    def render(self, env: dict[str, Rational], tried: list[int] | None = None) -> Iterator[dict[str, Any]]:
+    def tables_per_member(self, params: Mapping[str, Rational]) -> int:
+        """How many tables this outcome renders per member, when its ranges are fixed (else 1)."""
+        count = _fixed_count(self.each, params)
+        return 1 if count is None else count
+
+    def render(
+        self, env: dict[str, Rational], tried: list[int] | None = None, steps: _Steps | None = None
+    ) -> Iterator[dict[str, Any]]:
         for inner in _combinations(self.each, env, tried):
+            if steps is not None:
+                steps.spend(self.steps)
             try:
                 inner = _with_lets(inner, self.lets)
                 table: dict[str, Any] = {}
@@ -354,6 +459,8 @@ class _Family:
         self.name = name
         self._current = "state"
         self.tried = [MAX_FAMILY_COMBINATIONS]
+        self.steps: _Steps | None = None
+        self.states_left = MAX_FAMILY_STATES
         where = f"family {name!r}"
         if not isinstance(raw, dict):
             raise FamilyError(f"{where}: must be a table, not {type_name(raw)}")
@@ -400,6 +507,16 @@ class _Family:
             raise FamilyError(f"{where}: must be a list of outcome tables, not {type_name(raw)}")
         return [_Outcome(item, f"{where}, outcome {i}", taken, warn) for i, item in enumerate(raw, start=1)]
 
+    def member_steps(self) -> int:
+        """Steps of one index combination: its lets, its condition, its name."""
+        return TABLE_STEPS + sum(steps_in(node) for _, node in self.lets) + steps_in(self.when) + self.state.steps
+
+    def outcome_steps(self, params: Mapping[str, Rational]) -> tuple[int, int]:
+        """(steps, tables) of one member's outcome tables, where their ranges are fixed."""
+        listed = list(self.outcomes or []) + [outcome for _, outcomes in self.choices for outcome in outcomes]
+        tables = [outcome.tables_per_member(params) for outcome in listed]
+        return sum(outcome.steps * count for outcome, count in zip(listed, tables)), sum(tables)
+
     def members(self, params: dict[str, Rational]) -> Iterator[tuple[dict[str, Rational], str]]:
         env: dict[str, Rational] = params
         count = _fixed_count(self.ranges, params)
@@ -408,9 +525,22 @@ class _Family:
                 f"family {self.name!r}: index ranges give {count:,} combinations, over the limit of "
                 f"{MAX_FAMILY_COMBINATIONS:,}"
             )
+        if count is not None and self.when is None and count > self.states_left:
+            raise _too_many_states(self.name, self.states_left)
+        each = self.member_steps()
+        if count is not None and self.steps is not None:
+            outcome_steps, tables = self.outcome_steps(params) if self.when is None else (0, 0)
+            work = count * (each + outcome_steps)
+            # past the combination limit that limit speaks first; the running count bounds the rest
+            if count * (1 + tables) <= self.tried[0] and work > self.steps.left:
+                combinations = "index combination" if count == 1 else "index combinations"
+                shown = f"about {work:,} expression steps to expand ({count:,} {combinations}, {work // count:,} each)"
+                raise FamilyError(f"family {self.name!r}: " + self.steps.over(shown))
         combinations = _combinations(self.ranges, params, self.tried)
         while True:
             try:
+                if self.steps is not None:
+                    self.steps.spend(each)
                 env = next(combinations)
                 env = _with_lets(env, self.lets)
                 if self.when is not None and evaluate(self.when, env) == 0:
@@ -462,7 +592,7 @@ class _Family:
         listed = []
         for outcome in outcomes:
             self._current = outcome.where.removeprefix(f"family {self.name!r}, ")
-            for table in outcome.render(env, self.tried):
+            for table in outcome.render(env, self.tried, self.steps):
                 budget[0] -= 1
                 if budget[0] < 0:
                     raise FamilyError(
@@ -471,6 +601,15 @@ class _Family:
                     )
                 listed.append(table)
         return listed
+
+
+def _too_many_states(name: str, cap: int) -> FamilyError:
+    if cap < MAX_FAMILY_STATES:
+        return FamilyError(
+            f"family {name!r}: families expand to more than {cap:,} states, over the state limit "
+            "(raise it with --max-states)"
+        )
+    return FamilyError(f"family {name!r}: families expand to more than {MAX_FAMILY_STATES:,} states (the limit)")
 
 
 def expand_families(
@@ -487,13 +626,18 @@ def expand_families(
     def warn(where: str, message: str) -> None:
         problems.append(Problem(source, where, message, "warning"))
 
-    states_left = MAX_FAMILY_STATES
+    state_cap = _STATE_LIMIT.get()
+    states_cap = MAX_FAMILY_STATES if state_cap is None else min(state_cap, MAX_FAMILY_STATES)
+    states_left = states_cap
     budget = [MAX_FAMILY_OUTCOMES]
     tried = [MAX_FAMILY_COMBINATIONS]
+    steps = _Steps()
     for name, body in raw.items():
         try:
             family = _Family(name, body, params, warn)
             family.tried = tried
+            family.steps = steps
+            family.states_left = states_left
             found: dict[str, dict[str, Rational]] = {}
             for env, state in family.members(params):
                 if state in found:
@@ -504,9 +648,7 @@ def expand_families(
                     raise FamilyError(f"family {name!r}{_where(env, family.variables)}: state {state!r} is made twice")
                 states_left -= 1
                 if states_left < 0:
-                    raise FamilyError(
-                        f"family {name!r}: families expand to more than {MAX_FAMILY_STATES:,} states (the limit)"
-                    )
+                    raise _too_many_states(name, states_cap)
                 found[state] = env
             for state, env in found.items():
                 tables[state] = family.table(env, budget)

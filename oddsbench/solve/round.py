@@ -20,7 +20,6 @@ from oddsbench.model.defaults import DEFAULT_EXACT_BITS, ROUND_EXACT_LIMIT
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.figure import Figure
 from oddsbench.model.numbers import QQ, Rational, log10_abs, to_float
-from oddsbench.solve.cancel import SolveCancelled
 from oddsbench.solve.linear import (
     ExactTooLarge,
     FloatSingular,
@@ -32,12 +31,12 @@ from oddsbench.solve.linear import (
 )
 
 DEFAULT_EXACT_LIMIT = ROUND_EXACT_LIMIT
-DEFAULT_STEP_BUDGET = 20_000_000
 RELATIVE_TOLERANCE = 1e-9
 ZERO_TOLERANCE = 1e-12
 NEAR_SINGULAR = 1e7  # condition number past which the float engine may lose 7 of its 16 digits
 FLOAT_TINY = 2.2250738585072014e-308  # smallest normal float; below it values are underflow
 UNRELIABLE_TINY = 1e-300
+EXACT_SOLVES = 6  # end chances (one transposed solve), net, extra stake, net second moment, steps, steps second
 
 FIGURE_ORDER = (
     "expected_net",
@@ -178,7 +177,8 @@ def _exact_moments(
     if n == 0:
         return _Moments([QQ(1)], QQ(0), QQ(0), QQ(0), QQ(0), QQ(0))
     lu = factor_exact(identity_minus(chain.q_rows()), should_stop=should_stop, max_bits=max_bits)
-    end = [lu.solve(column)[0] for column in chain.end_columns()]
+    lu.expect_solves(EXACT_SOLVES)
+    end = _end_chances_exact(chain, lu)
     net = lu.solve(_one_step(chain, lambda e: e.pay))
     extra = lu.solve(_one_step(chain, lambda e: e.stake))
 
@@ -189,6 +189,21 @@ def _exact_moments(
     steps = lu.solve([QQ(1)] * n)
     steps_second = lu.solve([2 * t - 1 for t in steps])
     return _Moments(end, net[0], extra[0], net_second[0], steps[0], steps_second[0])
+
+
+def _end_chances_exact(chain: RoundChain, lu) -> list[Rational]:
+    """The chance of ending in each end state from the start: one transposed solve gives the expected
+    visits v to every transient state, and P(end j) = sum over edges i -> j of v_i p (no transient x
+    end matrix: a star of 10,000 branches needs one solve, not 10,000)."""
+    start = [QQ(0)] * chain.transient_count
+    start[0] = QQ(1)
+    visits = lu.solve_transposed(start)
+    n = chain.transient_count
+    end = [QQ(0)] * len(chain.ends)
+    for edge in chain.edges:
+        if edge.target >= n and visits[edge.source] != 0:
+            end[edge.target - n] += visits[edge.source] * edge.prob
+    return end
 
 
 def _decimal_moments(chain: RoundChain) -> _Moments:
@@ -206,18 +221,18 @@ def _decimal_moments(chain: RoundChain) -> _Moments:
     def one_step(values: np.ndarray) -> np.ndarray:
         return np.bincount(source, weights=prob * values, minlength=n)
 
-    end_columns = np.zeros((n, len(chain.ends)))
+    start = np.zeros(n)
+    start[0] = 1.0
+    visits = lu.solve_transposed(start)  # expected visits from the start (see _end_chances_exact)
     into_end = target >= n
-    np.add.at(end_columns, (source[into_end], target[into_end] - n), prob[into_end])
-    rhs = np.column_stack([end_columns, one_step(pay), one_step(stake), np.ones(n)])
-    solved = lu.solve(rhs)
-    ends_count = len(chain.ends)
-    net, extra, steps = solved[:, ends_count], solved[:, ends_count + 1], solved[:, ends_count + 2]
+    end = np.bincount(
+        target[into_end] - n, weights=visits[source[into_end]] * prob[into_end], minlength=len(chain.ends)
+    )
+    solved = lu.solve(np.column_stack([one_step(pay), one_step(stake), np.ones(n)]))
+    net, extra, steps = solved[:, 0], solved[:, 1], solved[:, 2]
     net_after = np.where(target < n, net[np.minimum(target, n - 1)], 0.0)
     second = lu.solve(np.column_stack([one_step(pay * pay + 2 * pay * net_after), 2 * steps - 1]))
-    return _Moments(
-        list(solved[0, :ends_count]), net[0], extra[0], second[0, 0], steps[0], second[0, 1], _condition(rows, steps)
-    )
+    return _Moments(list(end), net[0], extra[0], second[0, 0], steps[0], second[0, 1], _condition(rows, steps))
 
 
 def _condition(rows: list[dict[int, float]], steps: np.ndarray) -> float:
@@ -322,38 +337,11 @@ def _by_result(chain: RoundChain, ends: dict[str, Figure]) -> dict[str, Figure]:
 def _by_step(
     chain: RoundChain, rounds: int, exact: bool, notes: list[str], should_stop: Callable[[], bool] | None
 ) -> dict[str, Figure]:
-    """Chance of being in each end state after ``rounds`` steps: repeated products with P."""
-    size = len(chain.names)
-    n = chain.transient_count
-    use_exact = exact and rounds * max(len(chain.edges), 1) <= DEFAULT_STEP_BUDGET
-    if exact and not use_exact:
-        notes.append(
-            f"chances by step {rounds:,}: exact products skipped (over {DEFAULT_STEP_BUDGET:,} "
-            "edge updates); decimals are from the float engine"
-        )
-    source = np.fromiter((e.source for e in chain.edges), dtype=np.int64)
-    target = np.fromiter((e.target for e in chain.edges), dtype=np.int64)
-    prob = np.fromiter((to_float(e.prob) for e in chain.edges), dtype=float)
-    floats = np.zeros(size)
-    floats[0] = 1.0
-    values = [QQ(0)] * size
-    values[0] = QQ(1)
-    for step in range(rounds):
-        if should_stop is not None and step % 64 == 0 and should_stop():
-            raise SolveCancelled
-        moved = np.zeros(size)
-        moved[n:] = floats[n:]
-        np.add.at(moved, target, floats[source] * prob)
-        floats = moved
-        if use_exact:
-            nxt = [QQ(0)] * n + values[n:]
-            for edge in chain.edges:
-                weight = values[edge.source]
-                if weight != 0:
-                    nxt[edge.target] += weight * edge.prob
-            values = nxt
-    result = {}
-    for j, name in enumerate(chain.ends):
-        exact_value = values[n + j] if use_exact else None
-        result[name] = _checked(f"end_probability_by_step[{name}]", exact_value, floats[n + j], notes)
-    return result
+    """Chance of being in each end state after ``rounds`` steps (``solve/by_step.py``)."""
+    from oddsbench.solve.by_step import end_chances_by_step
+
+    exact_values, decimals = end_chances_by_step(chain, rounds, exact, notes, should_stop)
+    return {
+        name: _checked(f"end_probability_by_step[{name}]", exact_values[j], decimals[j], notes)
+        for j, name in enumerate(chain.ends)
+    }

@@ -19,7 +19,8 @@ from oddsbench.model.defaults import SESSION_EXACT_LIMIT
 from oddsbench.model.figure import Figure
 from oddsbench.model.numbers import Rational
 from oddsbench.solve.bankroll_system import skip_free_view
-from oddsbench.solve.linear import factor_float, identity_minus_float
+from oddsbench.solve.by_step import require_exact_steps
+from oddsbench.solve.linear import ExactTooLarge, factor_float, identity_minus_float
 from oddsbench.solve.session_absorbing import absorbing_decimal, absorbing_exact
 from oddsbench.solve.session_figures import FinalValue, goal_series_of, session_figures, underflow_notes
 from oddsbench.solve.session_steps import capped_series_decimal, capped_series_exact, forward_decimal, forward_exact
@@ -75,13 +76,22 @@ def solve_session(
             )
         use_exact = use_exact and budget_ok
         raw_decimal = forward_decimal(chain, max_rounds)
-        raw_exact = forward_exact(chain, max_rounds, should_stop) if use_exact else None
         series = capped_series_decimal(chain, max_rounds)
-        series_exact = capped_series_exact(chain, max_rounds, should_stop) if use_exact else None
+        raw_exact = series_exact = None
+        if use_exact:
+            capped = _exact_or_note(lambda: _capped_exact(chain, max_rounds, should_stop), notes, "time cap")
+            raw_exact, series_exact = capped or (None, None)
+            use_exact = capped is not None
     else:
         view = skip_free_view(chain)
-        raw_decimal = walk_decimal(chain, view) if view.walk is not None else absorbing_decimal(chain)
-        raw_exact = absorbing_exact(chain, should_stop) if use_exact else None
+        if view.walk is not None:
+            raw_decimal = walk_decimal(chain, view)
+        else:
+            raw_decimal = absorbing_decimal(chain, should_stop)
+        raw_exact = None
+        if use_exact:
+            raw_exact = _exact_or_note(lambda: absorbing_exact(chain, should_stop), notes, "session")
+            use_exact = raw_exact is not None
         series = raw_decimal["series"]
         series_exact = raw_exact["series"] if raw_exact else None
     figures, final = session_figures(chain, raw_exact, raw_decimal, notes, max_rounds)
@@ -94,7 +104,11 @@ def solve_session(
         if use_exact and not exact_within:
             notes.append(f"figures within {horizon:,} rounds: exact stepping skipped; decimals only")
         within_decimal = forward_decimal(chain, horizon)
-        within_exact = forward_exact(chain, horizon, should_stop) if exact_within else None
+        within_exact = None
+        if exact_within:
+            within_exact = _exact_or_note(
+                lambda: _stepped_exact(chain, horizon, should_stop), notes, f"figures within {horizon:,} rounds"
+            )
         within_figures, after = session_figures(chain, within_exact, within_decimal, notes, horizon, prefix="within")
         figures.update(within_figures)
     series_log10 = raw_decimal.get("series_log10") if max_rounds is None else None
@@ -117,6 +131,29 @@ def solve_session(
         notes=tuple(notes),
         goal_series_log10=goal_log10,
     )
+
+
+def _exact_or_note(compute: Callable, notes: list[str], what: str):
+    """The exact result, or None with a note when exact arithmetic would not fit the work budget."""
+    try:
+        return compute()
+    except ExactTooLarge as error:
+        notes.append(f"{what}: exact arithmetic stopped: {error}; decimals are from the float engine")
+        return None
+
+
+def _stepped_exact(chain: BankrollChain, steps: int, should_stop) -> dict | None:
+    """``forward_exact`` once its cost is known to fit (``by_step.require_exact_steps``)."""
+    probabilities = [outcome.prob for outcome in chain.distribution.outcomes]
+    require_exact_steps(probabilities, chain.target.size, steps, f"{steps:,} exact rounds")
+    return forward_exact(chain, steps, should_stop)
+
+
+def _capped_exact(chain: BankrollChain, steps: int, should_stop) -> tuple[dict | None, list | None]:
+    """The exact session and goal series with a time cap: forward and backward stepping."""
+    probabilities = [outcome.prob for outcome in chain.distribution.outcomes]
+    require_exact_steps(probabilities, 2 * chain.target.size, steps, f"{steps:,} exact rounds")
+    return forward_exact(chain, steps, should_stop), capped_series_exact(chain, steps, should_stop)
 
 
 def exact_work(chain: BankrollChain) -> int:

@@ -28,14 +28,14 @@ def rhs_columns(chain: BankrollChain):
     return goal_columns, staked_unit
 
 
-def absorbing_decimal(chain: BankrollChain) -> dict:
+def absorbing_decimal(chain: BankrollChain, should_stop=None) -> dict:
     n = chain.size
     goal_columns, staked_unit = rhs_columns(chain)
     values = chain.absorbing_values.astype(float) * to_float(chain.grid.step)
     if n == 0:
         return {"absorbed": np.zeros(len(values)), "start_absorbed": True, "series": np.zeros(0)}
     r = chain.r_matrix()
-    lu = factor_float(*float_system(chain))
+    lu = factor_float(*float_system(chain), should_stop=should_stop)
     r_goal = np.asarray(r[:, goal_columns].sum(axis=1)).ravel()
     staked = chain.bets.astype(float) * to_float(staked_unit)
     solved = lu.solve(np.column_stack([r_goal, np.ones(n), staked]))

@@ -2,7 +2,10 @@
 
 With a cap of N rounds the chain is no longer time-homogeneous, so the figures come from
 stepping the distribution over states forward from the start (and the goal chance from every
-bankroll backward), exactly where the work is small enough and in floats always.
+bankroll backward), exactly where the work is small enough and in floats always. Float stepping
+stops early once nothing moves (no mass left, or a fixed point in floating point), so a cap of
+10^9 rounds costs what the chain needs to drain; exact stepping gives way to decimals when its
+share of the work budget runs out (``solve/linear/costs.py``).
 """
 
 from __future__ import annotations
@@ -10,9 +13,12 @@ from __future__ import annotations
 import numpy as np
 
 from oddsbench.chain.bankroll import GOAL, BankrollChain
+from oddsbench.model import budget
 from oddsbench.model.numbers import QQ, Rational, to_float
-from oddsbench.solve.cancel import SolveCancelled
+from oddsbench.solve.linear.costs import ExactClock
 from oddsbench.solve.session_absorbing import rhs_columns
+
+POLL_STEPS = 64  # the cancel check, the work budget and exact arithmetic's share are polled this often
 
 
 def forward_decimal(chain: BankrollChain, steps: int) -> dict:
@@ -29,6 +35,8 @@ def forward_decimal(chain: BankrollChain, steps: int) -> dict:
     d[chain.start] = 1.0
     rounds = second = spent = 0.0
     for step in range(steps):
+        if step % POLL_STEPS == 0:
+            budget.check(f"the session stepped over {steps:,} rounds")
         alive = d.sum()
         if alive == 0.0:
             break
@@ -50,9 +58,10 @@ def forward_exact(chain: BankrollChain, steps: int, should_stop) -> dict | None:
     d: dict[int, Rational] = {chain.start: QQ(1)}
     absorbed = [QQ(0)] * len(chain.absorbing_values)
     rounds = second = spent = QQ(0)
+    clock = ExactClock(should_stop, steps, "stepping")
     for step in range(steps):
-        if should_stop is not None and step % 64 == 0 and should_stop():
-            raise SolveCancelled
+        if step % POLL_STEPS == 0:
+            clock.poll(step)
         if not d:
             break
         alive = sum(d.values(), QQ(0))
@@ -81,8 +90,13 @@ def capped_series_decimal(chain: BankrollChain, steps: int) -> np.ndarray:
     r = chain.r_matrix()
     r_goal = np.asarray(r[:, chain.absorbing_kinds == GOAL].sum(axis=1)).ravel()
     h = np.zeros(n)
-    for _ in range(steps):
-        h = q @ h + r_goal
+    for step in range(steps):
+        if step % POLL_STEPS == 0:
+            budget.check(f"the goal chances within {steps:,} rounds")
+        moved = q @ h + r_goal
+        if np.array_equal(moved, h):  # a fixed point in floating point: every further round gives it again
+            break
+        h = moved
     return h
 
 
@@ -94,8 +108,9 @@ def capped_series_exact(chain: BankrollChain, steps: int, should_stop) -> list |
     goal_set = set(np.flatnonzero(chain.absorbing_kinds == GOAL).tolist())
     r_goal = [sum((p for a, p in row.items() if a in goal_set), QQ(0)) for row in r_rows]
     h = [QQ(0)] * n
+    clock = ExactClock(should_stop, steps, "stepping")
     for step in range(steps):
-        if should_stop is not None and step % 64 == 0 and should_stop():
-            raise SolveCancelled
+        if step % POLL_STEPS == 0:
+            clock.poll(step)
         h = [r_goal[i] + sum((p * h[j] for j, p in q_rows[i].items()), QQ(0)) for i in range(n)]
     return h

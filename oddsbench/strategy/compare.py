@@ -9,11 +9,13 @@ shows the same columns.
 from __future__ import annotations
 
 import dataclasses
+import time
 from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 
 from oddsbench.chain.deal import dealt, single_draw
 from oddsbench.chain.round_chain import build_round_chain
+from oddsbench.model import budget
 from oddsbench.model.defaults import DEFAULT_EXACT_BITS, DEFAULT_MAX_STATES, ROUND_EXACT_LIMIT
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.ruleset import Ruleset, Strategy
@@ -180,16 +182,30 @@ def solve_rounds(
     max_states: int = DEFAULT_MAX_STATES,
     exact_bits: int | None = DEFAULT_EXACT_BITS,
 ) -> RoundResults:
-    """Solve one round per (start state, strategy name or None), in order."""
+    """Solve one round per (start state, strategy name or None), in order.
+
+    The columns are timed as they go: as soon as the rest, at the pace so far, would not fit the
+    time left in the work budget, they are refused in one line.
+    """
     columns = []
     shared = _shared_deal(ruleset, [start for start, _ in plays], max_states)
-    for start, strategy in plays:
+    began = time.monotonic()
+    for number, (start, strategy) in enumerate(plays, start=1):
         played = shared(start) or starting_at(ruleset, start, max_states)
         policy = policy_of(played, strategy)
         chain = build_round_chain(played, policy, max_states)
         figures = with_hands(_started(ruleset, start), solve_round(chain, rounds, exact_limit, should_stop, exact_bits))
         columns.append(RoundColumn(figures.start, strategy, policy, figures))
+        _require_the_rest(len(plays) - number, (time.monotonic() - began) / number, compared)
     return RoundResults(ruleset.title, tuple(columns), compared)
+
+
+def _require_the_rest(left: int, each: float, compared: str | None) -> None:
+    if left > 0:
+        what = "start states" if compared == "starts" else "plays"
+        budget.require(
+            f"solving {left:,} more {what} side by side ({budget.seconds_text(each)} each)", seconds=each * left
+        )
 
 
 def compare_strategies(

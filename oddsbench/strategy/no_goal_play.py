@@ -26,6 +26,7 @@ from oddsbench.chain.session_rules import (
     table_rules,
     whole_units,
 )
+from oddsbench.model import budget
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.numbers import QQ, Rational, denominator, numerator, text, to_int
 from oddsbench.solve.ruin import DEFAULT_DIGITS, Law, NoGoalRuin, solve_cut_bet_ruin, solve_progression_ruin
@@ -132,6 +133,7 @@ def no_goal_walk(
         return tuple(sorted(law.items()))
 
     full = rules.table_bet(bet_units)
+    _require_levels(max(low, rules.cover_steps(full)) - low, bet * full / bet_units)
     bottom = []
     for value in range(low, max(low, rules.cover_steps(full))):
         units = rules.placed(bet_units, value)  # the cut bet: what this bankroll covers
@@ -149,6 +151,20 @@ def no_goal_walk(
         low=low,
         level=held - low + 1,
         rules=rules,
+    )
+
+
+# Measured: each bankroll level below the full bet (its cut bet and its law) takes about this long and this much.
+LEVEL_SECONDS = 2e-5
+LEVEL_BYTES = 600
+
+
+def _require_levels(levels: int, full_bet: Rational) -> None:
+    """Refuse, before building them, more levels below the full bet than the work budget allows."""
+    budget.require(
+        f"the {levels:,} bankroll levels that cannot cover the full bet of {text(full_bet)}",
+        seconds=levels * LEVEL_SECONDS,
+        memory=levels * LEVEL_BYTES,
     )
 
 

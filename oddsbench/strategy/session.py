@@ -147,6 +147,7 @@ def session_chain(
     """The one builder of a plan's bankroll chain: solved by ``analyse_session``, played by the simulation."""
     plan = parse_plan(plan) if isinstance(plan, str) else plan
     grid = settings.grid(distribution)
+    _require_room(grid, plan, distribution)
     notes: list[str] = []
     if plan.kind == "best":
         from oddsbench.strategy.bet_optimiser import optimise_bets
@@ -162,6 +163,23 @@ def session_chain(
         planned, next_level, plan_notes = planned_bets(plan, distribution, grid)
         notes.extend(plan_notes)
     return PlannedChain(build_bankroll_chain(distribution, grid, planned, next_level), grid, tuple(notes))
+
+
+# Measured peak while building a bankroll chain (numpy temporaries included).
+CHAIN_BYTES_PER_EDGE = 48
+CHAIN_BYTES_PER_STATE = 60
+
+
+def _require_room(grid: BankrollGrid, plan: Plan, distribution: RoundDistribution) -> None:
+    """Refuse, before building it, a bankroll chain that would not fit the memory budget."""
+    from oddsbench.model import budget
+
+    states = grid.width * plan.levels
+    edges = states * len(distribution.outcomes)
+    budget.require(
+        f"the bankroll chain of {states:,} states ({plan.spelling})",
+        memory=CHAIN_BYTES_PER_EDGE * edges + CHAIN_BYTES_PER_STATE * states,
+    )
 
 
 def analyse_session(

@@ -129,6 +129,11 @@ def test_a_single_draw_is_counted_in_hands():
         (one_draw("[deck]\ncolour = 1", "1", '{ to = "yes" }'), "[deck]: unknown field 'colour'"),
         (one_draw('[deck]\nremove = ["Z"]', "1", '{ to = "yes" }'), "'Z' is not a card of this deck"),
         (one_draw("[deck]", "53", '{ to = "yes" }'), "state 'deal', draw: draws 53 cards from a deck of 52"),
+        (
+            one_draw('[deck]\nitems = { red = 2 }\nsuits = ["a"]', "1", '{ to = "yes" }'),
+            "[deck]: 'suits' belongs to a deck of cards: a deck of items gives every count in 'items'",
+        ),
+        (one_draw('[deck]\ncopies = "1/2"', "1", '{ to = "yes" }'), "[deck], copies: must be a whole number from 1"),
         (one_draw("[deck]", '{ take = ["Z"] }', '{ to = "yes" }'), "state 'deal', draw, take: 'Z' is not a card"),
         (
             one_draw("[deck]", "2", '{ when = "flush(player)", to = "yes" }, { to = "no" }'),

@@ -33,12 +33,16 @@ from __future__ import annotations
 
 from collections.abc import Callable, Sequence
 
+import numpy as np
+
+from oddsbench.model import budget
+from oddsbench.solve.detached import Detached, can_detach
 from oddsbench.solve.linear.banded import BandFactors, BandMatrix
+from oddsbench.solve.linear.costs import ExactTooLarge, float_cost
 from oddsbench.solve.linear.exact import (
     EXACT_METHODS,
     DenseExactSolver,
     ExactSparseLU,
-    ExactTooLarge,
     FractionFreeSolver,
     Row,
     identity_minus,
@@ -61,6 +65,7 @@ __all__ = [
     "BandFactors",
     "BandMatrix",
     "DenseExactSolver",
+    "DetachedFactors",
     "ExactSparseLU",
     "ExactTooLarge",
     "FloatSingular",
@@ -80,8 +85,24 @@ __all__ = [
 ]
 
 
-def factor_float(system, order: str = "fill-reducing") -> BandFactors | SuperLUFactors | SkipFreeFactors:
-    """Factor a square float system once (see the module text for how the engine is chosen)."""
+def factor_float(
+    system, order: str = "fill-reducing", should_stop: Callable[[], bool] | None = None
+) -> BandFactors | SuperLUFactors | SkipFreeFactors | DetachedFactors:
+    """Factor a square float system once (see the module text for how the engine is chosen).
+
+    Its cost is estimated first (``costs.float_cost``): a factorisation that would not fit the
+    memory left in the work budget is refused in one line, and a long one runs in a child process
+    (``DetachedFactors``) that Ctrl-C, ``should_stop`` and the deadline can abandon.
+    """
+    if isinstance(system, SkipFreeWalk):
+        return SkipFreeFactors(system)  # a recursion of O(levels) in numpy: nothing to bound
+    cost = float_cost(system, order)
+    if order == "from-top" and cost.memory > budget.memory_left():
+        order = "fill-reducing"  # the band would not fit: let COLAMD look for less fill
+        cost = float_cost(system, order)
+    budget.require(f"the float factorisation of {cost.size:,} states", memory=cost.memory)
+    if cost.detach and can_detach():
+        return DetachedFactors(system, order, should_stop)
     return _float_engine(system, order)
 
 
@@ -93,6 +114,28 @@ def _float_engine(system, order: str) -> BandFactors | SuperLUFactors | SkipFree
     if order == "from-top" and not structure_of(system).band_fits:
         order = "fill-reducing"
     return SuperLUFactors(system, order)
+
+
+class DetachedFactors:
+    """A float factorisation made and kept in a child process (``solve/detached.py``): the same
+    ``solve``/``solve_transposed``/``method`` as the factors it holds; the child ends with this object."""
+
+    def __init__(self, system, order: str, should_stop: Callable[[], bool] | None = None) -> None:
+        size = system.size if isinstance(system, BandMatrix) else system.shape[0]
+        what = f"the float factorisation of {size:,} states"
+        self._child = Detached(_float_engine, (system, order), what, should_stop)
+        self.size = size
+        self.method = self._child.attributes.get("method", "")
+        self.stored = self._child.attributes.get("stored", 0)
+
+    def solve(self, rhs) -> np.ndarray:
+        return self._child.call("solve", rhs)
+
+    def solve_transposed(self, rhs) -> np.ndarray:
+        return self._child.call("solve_transposed", rhs)
+
+    def close(self) -> None:
+        self._child.close()
 
 
 def identity_minus_float(q_matrix):

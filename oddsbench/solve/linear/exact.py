@@ -19,18 +19,18 @@ from math import lcm
 
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.numbers import QQ, Rational, from_sympy
-from oddsbench.solve.cancel import SolveCancelled
+from oddsbench.solve.linear.costs import (
+    POLL_OPERATIONS,
+    POLL_ROWS,
+    ExactClock,
+    ExactTooLarge,
+    require_exact_seconds,
+    solve_seconds,
+)
+from oddsbench.solve.linear.costs import bits as _bits
 
 Row = dict[int, Rational]
 EXACT_METHODS = ("elimination", "dense", "fraction-free")
-
-
-class ExactTooLarge(OddsbenchError):
-    """The exact factors would outgrow the size limit; callers fall back to decimals only."""
-
-
-def _bits(value: Rational) -> int:
-    return QQ.numer(value).bit_length() + QQ.denom(value).bit_length()
 
 
 class ExactSparseLU:
@@ -43,22 +43,31 @@ class ExactSparseLU:
     ) -> None:
         """``max_bits`` bounds an estimate of the factors' size (stored numbers times the
         pivot's bits), checked row by row, so a chain whose rationals or fill-in explode stops
-        early with ExactTooLarge instead of exhausting memory."""
+        early with ExactTooLarge instead of exhausting memory. The work budget's clock
+        (``ExactClock``) is polled as rows and operations go by, and again in every solve."""
         size = len(rows)
         stored_bits = 0
         self.size = size
+        self.should_stop = should_stop
         self.lower: list[list[tuple[int, Rational]]] = []
         self.upper: list[list[tuple[int, Rational]]] = []
         self.pivots: list[Rational] = []
+        self._solve_seconds: float | None = None
         upper_maps: list[Row] = []
+        clock = ExactClock(should_stop, size, "factorisation")
+        operations = 0
         for i in range(size):
-            if should_stop is not None and i % 256 == 0 and should_stop():
-                raise SolveCancelled
+            if i % POLL_ROWS == 0:
+                clock.poll(i)
             row = {j: v for j, v in rows[i].items() if v != 0}
             pending = [j for j in row if j < i]
             heapq.heapify(pending)
             multipliers: list[tuple[int, Rational]] = []
             while pending:
+                operations += len(upper_maps[pending[0]]) + 1
+                if operations > POLL_OPERATIONS:
+                    operations = 0
+                    clock.poll(i)
                 k = heapq.heappop(pending)
                 value = row.pop(k, None)
                 if value is None or value == 0:
@@ -85,16 +94,38 @@ class ExactSparseLU:
             self.upper.append(sorted(kept.items()))
             self.pivots.append(pivot)
 
+    def solve_seconds(self) -> float:
+        """Estimated seconds of one solve with these factors (``costs.solve_seconds``), measured once."""
+        if self._solve_seconds is None:
+            touched = self.size + sum(len(r) for r in self.lower) + sum(len(r) for r in self.upper)
+            entry = next((v for r in self.upper for _, v in r), QQ(1))
+            self._solve_seconds = solve_seconds(self.pivots, entry, touched)
+        return self._solve_seconds
+
+    def expect_solves(self, count: int) -> None:
+        """``ExactTooLarge`` now, before any of them, when ``count`` solves would not fit the time left
+        to exact arithmetic: callers that know how many solves follow say so right after factoring."""
+        require_exact_seconds(count * self.solve_seconds(), f"{count} exact solves of {self.size:,} states")
+
+    def _clock(self, doing: str) -> ExactClock:
+        require_exact_seconds(self.solve_seconds(), f"an exact solve of {self.size:,} states")
+        return ExactClock(self.should_stop, self.size, doing)
+
     def solve(self, rhs: Sequence[Rational]) -> list[Rational]:
         size = self.size
+        clock = self._clock("solve")
         y: list[Rational] = [QQ(0)] * size
         for i in range(size):
+            if i % POLL_ROWS == 0:
+                clock.poll(i // 2)
             total = rhs[i]
             for k, factor in self.lower[i]:
                 total -= factor * y[k]
             y[i] = total
         x: list[Rational] = [QQ(0)] * size
         for i in range(size - 1, -1, -1):
+            if i % POLL_ROWS == 0:
+                clock.poll((2 * size - i) // 2)
             total = y[i]
             for j, u in self.upper[i]:
                 total -= u * x[j]
@@ -108,14 +139,19 @@ class ExactSparseLU:
         hence the whole distribution of where the chain is absorbed.
         """
         size = self.size
+        clock = self._clock("solve")
         z: list[Rational] = list(rhs)
         for i in range(size):
+            if i % POLL_ROWS == 0:
+                clock.poll(i // 2)
             value = z[i] / self.pivots[i]
             z[i] = value
             if value != 0:
                 for j, u in self.upper[i]:
                     z[j] -= u * value
         for i in range(size - 1, -1, -1):
+            if i % POLL_ROWS == 0:
+                clock.poll((2 * size - i) // 2)
             value = z[i]
             if value != 0:
                 for k, factor in self.lower[i]:

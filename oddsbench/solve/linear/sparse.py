@@ -44,8 +44,12 @@ class SuperLUFactors:
                 self._lu = splu(system[::-1, ::-1].tocsc(), permc_spec="NATURAL", diag_pivot_thresh=0)
             else:
                 self._lu = splu(csc_matrix(system), permc_spec="NATURAL", diag_pivot_thresh=0)
-        except RuntimeError as error:  # SuperLU: "Factor is exactly singular"
+        except RuntimeError as error:  # SuperLU: "Factor is exactly singular", or its allocation failed
+            if "MALLOC" in str(error) or "memory" in str(error).lower():
+                raise MemoryError(str(error)) from None
             raise FloatSingular(str(error)) from None
+        except SystemError as error:  # SuperLU's own size counters overflowed: as good as out of memory
+            raise MemoryError(str(error)) from None
 
     @property
     def stored(self) -> int:

@@ -1,4 +1,5 @@
-"""Ball (interval) arithmetic with python-flint's arb/acb, and the cancel check of a ruin solve.
+"""Ball (interval) arithmetic with python-flint's arb/acb (and, re-exported, the cancel context
+of ``solve/cancel.py`` the ruin engines use: ``cancellable``, ``current_stop``).
 
 Every decimal of play with no goal is a ball: a midpoint and a proved radius. ``certified``
 prints only the digits the radius proves; ``with_retries`` raises the working precision until
@@ -10,14 +11,13 @@ from __future__ import annotations
 import math
 from collections.abc import Callable, Iterator
 from contextlib import contextmanager
-from contextvars import ContextVar
 from dataclasses import dataclass
 from typing import Any
 
 from oddsbench.model.defaults import NO_GOAL_DIGITS
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.numbers import Rational, denominator, numerator
-from oddsbench.solve.cancel import StopCheck, stop_if_asked
+from oddsbench.solve.cancel import cancellable, current_stop, stop_if_asked  # noqa: F401 - the ruin engines' names
 
 
 @dataclass(frozen=True)
@@ -35,25 +35,6 @@ class Certified:
 
 DEFAULT_DIGITS = NO_GOAL_DIGITS  # one default for the engines, the core and --digits
 MAX_DIGITS = 2000
-
-# the caller's cancel check (a workbench worker's), seen by the exact solves deep inside one call
-_SHOULD_STOP: ContextVar[StopCheck] = ContextVar("no_goal_ruin_should_stop", default=None)
-
-
-@contextmanager
-def cancellable(should_stop: StopCheck) -> Iterator[None]:
-    """Make ``should_stop`` the cancel check of every solve inside this block."""
-    token = _SHOULD_STOP.set(should_stop) if should_stop is not None else None
-    try:
-        yield
-    finally:
-        if token is not None:
-            _SHOULD_STOP.reset(token)
-
-
-def current_stop() -> StopCheck:
-    """The cancel check of the ruin solve running now (None outside one)."""
-    return _SHOULD_STOP.get()
 
 
 @contextmanager

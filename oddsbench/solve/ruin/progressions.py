@@ -75,13 +75,16 @@ def stationary_drift(states: int, moves_top: Sequence[Sequence[Move]]) -> Ration
     return sum((pi[j] * means[j] for j in range(states)), QQ(0))
 
 
+MAX_EXPONENT = 600.0  # exp(-R x jump) is capped here: a tilt that large only says "radius past 1"
+
+
 def _tilted(moves_top, states: int, rate: float):
     import numpy as np
 
     matrix = np.zeros((states, states))
     for j, moves in enumerate(moves_top):
         for jump, chance, nxt in moves:
-            matrix[j, nxt] += float(chance) * math.exp(-rate * jump)
+            matrix[j, nxt] += float(chance) * math.exp(min(-rate * jump, MAX_EXPONENT))
     return matrix
 
 
@@ -91,7 +94,11 @@ def verified_lundberg(moves_top, states: int):
     from flint import arb
 
     def radius(rate: float) -> float:
-        return float(max(abs(np.linalg.eigvals(_tilted(moves_top, states, rate)))))
+        try:
+            found = float(max(abs(np.linalg.eigvals(_tilted(moves_top, states, rate)))))
+        except np.linalg.LinAlgError:  # entries near the float limit: the radius is past 1 anyway
+            return math.inf
+        return found if math.isfinite(found) else math.inf
 
     low, high = 0.0, 1.0
     while radius(high) < 1 and high < 1e3:

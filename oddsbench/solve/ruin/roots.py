@@ -89,8 +89,55 @@ def polynomial_text(coefficients_high_first: tuple[int, ...], variable: str = "t
     return " ".join(parts) or "0"
 
 
+# Root finding within the work budget. Measured on characteristic polynomials of rounds with up to
+# 300 results (coefficients of about 16 bits): isolating rho with sympy (factoring, Sturm
+# sequences) takes about ROOT_SECONDS x degree^ROOT_POWER seconds, flint's complex_roots less;
+# both grow with the coefficients' size. Past DETACH_DEGREE they run detached (solve/detached.py),
+# where Ctrl-C, a cancelled worker and the deadline can stop them.
+ROOT_SECONDS = 1.2e-6
+ROOT_POWER = 2.6
+COEFFICIENT_BITS = 16
+DETACH_DEGREE = 40
+
+
+def root_seconds(low_first: tuple[int, ...]) -> float:
+    """Estimated seconds to isolate the roots of a characteristic polynomial."""
+    degree = max(len(low_first) - 1, 1)
+    size = max((abs(c).bit_length() for c in low_first), default=1)
+    return ROOT_SECONDS * degree**ROOT_POWER * max(1.0, size / COEFFICIENT_BITS)
+
+
+def require_root_budget(low_first: tuple[int, ...]) -> None:
+    """Refuse root finding (one line) that would not fit the time left in the work budget."""
+    from oddsbench.model import budget
+
+    degree = len(low_first) - 1
+    what = f"finding the roots of the degree-{degree:,} characteristic polynomial"
+    budget.require(what, seconds=root_seconds(low_first))
+
+
+def _detached(low_first: tuple[int, ...], function, args: tuple, what: str):
+    """``function(*args)`` detached when the polynomial is large (see ``DETACH_DEGREE``), else here."""
+    if len(low_first) - 1 < DETACH_DEGREE:
+        return function(*args)
+    from oddsbench.solve.detached import run_detached
+    from oddsbench.solve.ruin.balls import current_stop
+
+    return run_detached(function, args, what, current_stop())
+
+
+def _ball_text(ball, prec: int) -> str:
+    """An arb ball as text that encloses it (arb balls do not pickle)."""
+    return ball.str(int(prec * 0.30103) + 5, radius=True, more=True)
+
+
 def root_in_unit_interval(low_first: tuple[int, ...], digits: int) -> CharacteristicRoot:
     """rho: the unique root of P in (0, 1), exactly (sympy) and as a certified decimal."""
+    require_root_budget(low_first)
+    return _detached(low_first, _root_in_unit_interval, (low_first, digits), "finding the root rho")
+
+
+def _root_in_unit_interval(low_first: tuple[int, ...], digits: int) -> CharacteristicRoot:
     from sympy import CRootOf, Poly, Symbol
 
     t = Symbol("t")
@@ -125,17 +172,49 @@ def root_in_unit_interval(low_first: tuple[int, ...], digits: int) -> Characteri
 
 def real_root_ball(high_first: tuple[int, ...], low: int, high: int):
     """The root of an integer polynomial inside (low, high), as an arb ball (proved)."""
-    from flint import fmpz_poly
+    import flint
 
-    roots = fmpz_poly(list(reversed(high_first))).complex_roots()
+    prec = flint.ctx.prec
+    found = _detached(high_first, _real_root_text, (high_first, low, high, prec), "finding a root in (0, 1)")
+    return flint.arb(found)
+
+
+def _real_root_text(high_first: tuple[int, ...], low: int, high: int, prec: int) -> str:
+    import flint
+
+    flint.ctx.prec = prec
+    roots = flint.fmpz_poly(list(reversed(high_first))).complex_roots()
     inside = [r.real for r, _m in roots if r.imag == 0 and r.real > low and r.real < high]
     if len(inside) != 1:
         raise OddsbenchError("internal check failed: the root in (0, 1) is not isolated")
-    return inside[0]
+    return _ball_text(inside[0], prec)
 
 
 def roots_inside(low_first: tuple[int, ...]):
     """(roots strictly inside the unit disc, all simple?) as acb balls; None if undecidable."""
+    import flint
+
+    prec = flint.ctx.prec
+    found = _detached(low_first, _roots_inside_text, (low_first, prec), "finding the roots inside the unit disc")
+    if found is None:
+        return None
+    texts, simple = found
+    return [flint.acb(flint.arb(real), flint.arb(imag)) for real, imag in texts], simple
+
+
+def _roots_inside_text(low_first: tuple[int, ...], prec: int):
+    """``_roots_inside`` with its balls as text, so that a detached child can send them back."""
+    import flint
+
+    flint.ctx.prec = prec
+    found = _roots_inside(low_first)
+    if found is None:
+        return None
+    inside, simple = found
+    return [(_ball_text(root.real, prec), _ball_text(root.imag, prec)) for root in inside], simple
+
+
+def _roots_inside(low_first: tuple[int, ...]):
     from flint import acb, fmpz_poly
 
     # t = 1 is always a root (simple when the mean is not 0) and lies on the circle: divide it out.
