@@ -50,6 +50,11 @@ class TestEditing:
         headline figures on one line, the cautions on one line, and a footer that does not wrap."""
         assert snap_compare(workbench(scratch, "lantern-dice.toml"), terminal_size=size, run_before=settle)
 
+    def test_the_state_lists_keys_fit_the_footer(self, snap_compare, scratch, size):
+        """F2 puts the cursor in the state list: its keys (add, add end, rename, delete) and the
+        file's keys on one footer line, at 80 columns too (compact, Ctrl+P left to the help)."""
+        assert snap_compare(workbench(scratch, "pass-line.toml"), terminal_size=size, run_before=pressing("f2"))
+
     def test_a_bad_value_keeps_the_last_good_figures(self, snap_compare, scratch, size):
         """A value that does not read: its message beside the field, the summary marked as the last
         good figures."""

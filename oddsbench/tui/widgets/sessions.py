@@ -19,8 +19,7 @@ from oddsbench.tui.widgets.figure_grid import FigureGrid
 from oddsbench.tui.widgets.stale import marked_heading
 
 PLAN_HINT = (
-    "bankroll, goal: F2 > Session · plans: timid, bold, flat:B, fraction:F, kelly[:F], "
-    "martingale:B:K, paroli:B:K, best"
+    "bankroll, goal: F2 > Session · plans: timid, bold, flat:B, fraction:F, kelly[:F], martingale:B:K, paroli:B:K, best"
 )
 
 

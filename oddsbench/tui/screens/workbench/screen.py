@@ -16,7 +16,7 @@ from textual import on
 from textual.app import ComposeResult
 from textual.binding import Binding
 from textual.screen import Screen
-from textual.widgets import ContentSwitcher, Static, TextArea
+from textual.widgets import ContentSwitcher, Footer, Static, TextArea
 from textual.worker import Worker, WorkerState
 
 from oddsbench.model.atomic_write import DiskChanged
@@ -56,6 +56,7 @@ from oddsbench.tui.widgets.topbar import TopBar
 
 WIDE = 150
 TALL = 36  # rows from which the detail pane has room for more lines
+ROOMY = 100  # columns from which the footer spaces its keys and names Ctrl+P (F1 lists it anyway)
 
 
 class WorkbenchScreen(FigureViews, Screen):
@@ -123,6 +124,9 @@ class WorkbenchScreen(FigureViews, Screen):
     def _fit_width(self, width: int, height: int | None = None) -> None:
         self.set_class(width >= WIDE, "-wide")
         self.set_class((height or self.app.size.height) >= TALL, "-tall")
+        for footer in self.query(Footer):  # one line at any width: never a wrapped key
+            footer.compact = width < ROOMY
+            footer.show_command_palette = width >= ROOMY
         if self.is_mounted:
             self._update_topbar()
 
@@ -457,7 +461,8 @@ class WorkbenchScreen(FigureViews, Screen):
         try:
             saved = self.session.save(path, overwrite)
         except DiskChanged as changed:
-            ask_about_disk_change(self.app, str(changed), lambda: self.save_to(path, overwrite=True), self.action_save_as)
+            again = lambda: self.save_to(path, overwrite=True)  # noqa: E731
+            ask_about_disk_change(self.app, str(changed), again, self.action_save_as)
             return False
         except (OddsbenchError, DocumentError) as error:
             self.notify(str(error), severity="error")
