@@ -195,6 +195,9 @@ def parse_plans(text: str) -> tuple[str, ...]:
     return tuple(plan.spelling for plan in read_plans(text))
 
 
+NO_BANKROLL = "no bankroll yet: set bankroll (and goal, or none) under Session in the Edit view (F2)"
+
+
 def session_settings_of(ruleset: Ruleset):
     """The file's ``[session]`` table as settings (raises OddsbenchError naming the field)."""
     from oddsbench.core.session import session_settings
@@ -215,6 +218,8 @@ def sessions_text(
 
     if not plans:
         return RoundFailure("type one or more plans to compare, e.g. timid, bold, flat:2, martingale:1:6")
+    if "bankroll" not in (ruleset.session or {}):
+        return RoundFailure(NO_BANKROLL)
     work = _work(should_stop)
     settings = Settings(strategies=_played(ruleset, strategy), session=SessionRequest(plans=tuple(plans)))
     try:

@@ -91,3 +91,9 @@ def test_adding_a_plan_never_changes_another_plans_figures(capsys):
     _, beside, _ = run_cli(capsys, *common, "--plan", "flat:1", "--plan", "flat:1/2")
     first = json.loads(alone)["plans"][0]
     assert json.loads(beside)["plans"][0]["figures"] == first["figures"]
+
+
+def test_the_workbench_says_where_to_set_a_bankroll_when_the_file_has_none():
+    result = analysis.sessions_text(load_ruleset(RULESETS / "pig-turn.toml"), None, ("timid",))
+    assert isinstance(result, analysis.RoundFailure)
+    assert "under Session in the Edit view" in result.message and "--" not in result.message
