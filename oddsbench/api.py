@@ -21,7 +21,16 @@ from typing import Any
 
 from oddsbench import core
 from oddsbench.core import Game, Work, inline_round, make_settings
-from oddsbench.core.results import BestResults, ReportFigures, RoundResults, SessionResults, Simulation, SweepResult
+from oddsbench.core.results import (
+    BestResults,
+    HorizonResults,
+    ReportFigures,
+    RoundResults,
+    SessionResults,
+    Simulation,
+    SweepResult,
+    TuneResults,
+)
 
 # Names chosen not to clash with the subpackages (oddsbench.solve, .report, .simulate, .sweep).
 __all__ = [
@@ -29,6 +38,7 @@ __all__ = [
     "Work",
     "best_play",
     "check_strategy",
+    "horizon",
     "inline_round",
     "load",
     "loads",
@@ -40,6 +50,7 @@ __all__ = [
     "to_dict",
     "to_json",
     "to_text",
+    "tune",
 ]
 
 
@@ -81,6 +92,35 @@ def simulation(game: Game, work: Work | None = None, **settings: Any) -> Simulat
     return core.simulate(game, make_settings(**settings), work or Work())
 
 
+def horizon(game: Game, rounds: Any = (1, 10, 100, 1000), work: Work | None = None, **settings: Any) -> HorizonResults:
+    """The total net after each number of ``rounds`` (a list, or text such as ``"1,10,100"``): chance ahead,
+    even and behind, quantiles, the realised return's range (``strategies=[NAME]`` for a game with decisions)."""
+    if isinstance(rounds, str):
+        rounds = [int(item) for item in rounds.split(",") if item.strip()]
+    elif isinstance(rounds, int):
+        rounds = [rounds]
+    return core.horizon(game, tuple(rounds), make_settings(**settings), work or Work())
+
+
+def tune(
+    game: Game,
+    vary: str,
+    target: str | None = None,
+    tolerance: str = "1e-9",
+    between: tuple[Any, Any] | None = None,
+    work: Work | None = None,
+    **settings: Any,
+) -> TuneResults:
+    """The figure of ``target`` (``"house_edge=1.5%"``; None: the break-even) as an exact function of the
+    parameter ``vary``, and every value of it giving the target (``strategies=[NAME]`` for decisions)."""
+    chosen = core.parse_target(target) if target is not None else None
+    span = None
+    if between is not None:
+        span = (core.parse_amount(str(between[0]), "between"), core.parse_amount(str(between[1]), "between"))
+    tolerance_value = core.parse_amount(tolerance, "tolerance")
+    return core.tune(game, vary, chosen, make_settings(**settings), tolerance_value, span, work or Work())
+
+
 def report_text(game: Game, fmt: str = "md", work: Work | None = None, **settings: Any) -> str:
     """A report as Markdown (``md``), ``csv`` or ``json`` text, as ``oddsbench report`` writes it."""
     from oddsbench.report.document import build_report
@@ -117,6 +157,14 @@ def to_dict(result: Any, series: bool = False) -> dict[str, Any]:
         return simulate_json(result)
     if isinstance(result, SweepResult):
         return sweep_json(result)
+    if isinstance(result, HorizonResults):
+        from oddsbench.report.horizon_report import horizon_json
+
+        return horizon_json(result)
+    if isinstance(result, TuneResults):
+        from oddsbench.report.tune_report import tune_json
+
+        return tune_json(result)
     if isinstance(result, ReportFigures):
         from oddsbench.report.document import build_report
         from oddsbench.report.render_json import report_json
@@ -151,4 +199,12 @@ def to_text(result: Any) -> str:
         from oddsbench.report.sweep_report import sweep_table
 
         return sweep_table(result)
+    if isinstance(result, HorizonResults):
+        from oddsbench.report.horizon_report import horizon_text
+
+        return horizon_text(result)
+    if isinstance(result, TuneResults):
+        from oddsbench.report.tune_report import tune_text
+
+        return tune_text(result)
     raise TypeError(f"to_text takes a result of oddsbench (solve, best, session, ...), not {type(result).__name__}")

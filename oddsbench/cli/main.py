@@ -13,12 +13,14 @@ from oddsbench import __version__
 from oddsbench.cli import (
     best_command,
     check_command,
+    horizon_command,
     open_command,
     report_command,
     session_command,
     simulate_command,
     solve_command,
     sweep_command,
+    tune_command,
 )
 from oddsbench.cli.options import add_budget, budget_of
 from oddsbench.model.errors import OddsbenchError, RulesetError, one_line
@@ -32,6 +34,8 @@ COMMANDS = (
     simulate_command,
     report_command,
     sweep_command,
+    horizon_command,
+    tune_command,
     open_command,
 )
 EXIT_BAD_INPUT = 2
@@ -53,7 +57,8 @@ class OneLineParser(argparse.ArgumentParser):
 # argparse would take ``--round -1:1/2,...`` for two options, so such a value is joined to its
 # option as ``--round=-1:1/2,...`` before parsing.
 SIGNED_VALUE_OPTIONS = frozenset(
-    {"--round", "--floor", "--bankroll", "--goal", "--min-bet", "--max-bet", "--unit", "--plan"}
+    {"--round", "--target", "--between", "--floor", "--bankroll", "--goal", "--min-bet", "--max-bet", "--unit"}
+    | {"--plan"}
 )
 
 
@@ -132,7 +137,7 @@ def main(argv: Sequence[str] | None = None, hard_limits: bool = False) -> int:
 def _run(args: argparse.Namespace, hard_limits: bool = False) -> int:
     """One command under its work budget, with every expected failure turned into its exit code and one line."""
     from oddsbench.model import budget as budgets
-    from oddsbench.model.families import state_limit
+    from oddsbench.model.family_budget import state_limit
 
     budget = budget_of(args)
     if hard_limits and budget is not None:

@@ -193,3 +193,13 @@ def load_game(path: str):
     for warning in game.warnings:
         print(warning, file=sys.stderr)
     return game
+
+
+def file_or_round(args: argparse.Namespace, command: str):
+    """The game of a command that takes a ruleset FILE or an inline ``--round NET:PROB,...``: exactly one."""
+    from oddsbench.core import inline_round
+    from oddsbench.model.errors import OddsbenchError
+
+    if (args.file is None) == (args.round is None):
+        raise OddsbenchError(f"{command}: give a ruleset FILE or --round NET:PROB,..., not both and not neither")
+    return inline_round(args.round) if args.round is not None else load_game(args.file)

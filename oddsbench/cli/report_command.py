@@ -41,9 +41,11 @@ def register(commands) -> None:
 def run(args: argparse.Namespace) -> int:
     from oddsbench.cli.options import load_game, settings_of, wants_session
     from oddsbench.core import report_figures
-    from oddsbench.model.atomic_write import write_atomically
+    from oddsbench.model.atomic_write import check_target, write_atomically
     from oddsbench.report.writing import render_report, report_format
 
+    if args.output is not None:
+        check_target(args.output, force=args.force)  # refused before the work, not after it
     settings = settings_of(args, sessions=wants_session(args), strategies=tuple(args.strategy))
     fmt = report_format(args.format, args.output)
     rendered = render_report(report_figures(load_game(args.file), settings), fmt)

@@ -80,15 +80,17 @@ def register(commands) -> None:
 
 
 def run(args: argparse.Namespace) -> int:
-    from oddsbench.cli.options import load_game, settings_of
-    from oddsbench.core import inline_round, session_settings, sessions
+    from oddsbench.cli.options import file_or_round, settings_of
+    from oddsbench.core import session_settings, sessions
     from oddsbench.model.errors import OddsbenchError
     from oddsbench.report.json_output import dumps
     from oddsbench.report.session_report import series_csv, session_json, session_text
 
-    if (args.file is None) == (args.round is None):
-        raise OddsbenchError("session: give a ruleset FILE or --round NET:PROB,..., not both and not neither")
-    game = inline_round(args.round) if args.round is not None else load_game(args.file)
+    if args.series_csv:
+        from oddsbench.model.atomic_write import check_target
+
+        check_target(args.series_csv, force=args.force)  # refused before the work, not after it
+    game = file_or_round(args, "session")
     settings = settings_of(args, sessions=True)
     if session_settings(game, settings.session).no_goal:
         for option, given in (("--rounds", args.rounds), ("--series", args.series), ("--series-csv", args.series_csv)):

@@ -43,19 +43,17 @@ def register(commands) -> None:
 
 
 def run(args: argparse.Namespace) -> int:
-    from pathlib import Path
 
     from oddsbench.core import read_spec
     from oddsbench.core.sweeps import point_settings
-    from oddsbench.model.atomic_write import write_atomically
-    from oddsbench.model.errors import OddsbenchError
+    from oddsbench.model.atomic_write import check_target, write_atomically
     from oddsbench.report.cautions import caution_block
     from oddsbench.report.sweep_report import render_sweep_csv, render_sweep_json, sweep_table
 
     spec = read_spec(args.spec)
     for target in (args.csv, args.json):
-        if target and Path(target).exists() and not args.force:
-            raise OddsbenchError(f"{target}: already exists and was not overwritten (add --force to replace it)")
+        if target:
+            check_target(target, force=args.force)  # refused before the work, not after it
     result = _run(spec, args)
     if result.errors:
         for solved in result.errors:

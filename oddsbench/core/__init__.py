@@ -14,6 +14,8 @@ Entry points:
 - ``simulate(game, settings, work) -> Simulation``: rounds, or sessions per plan
 - ``read_spec(path)``, ``sweep(spec, workers, cluster, work) -> SweepResult``, ``solve_point(...)``
 - ``report_figures(game, settings, work) -> ReportFigures``
+- ``horizon(game, rounds, settings, work) -> HorizonResults``: the total net after N rounds
+- ``tune(game, name, (figure, value), settings, tolerance, between, work) -> TuneResults``
 """
 
 import importlib as _importlib
@@ -27,6 +29,8 @@ _WHERE = {
     "load_game": "game",
     "check_size": "game",
     "dealt_size": "game",
+    "HorizonResults": "horizons",
+    "horizon": "horizons",
     "ReportFigures": "reports",
     "report_figures": "reports",
     "BestResults": "rounds",
@@ -49,6 +53,10 @@ _WHERE = {
     "solve_point": "sweeps",
     "solve_task": "sweeps",
     "sweep": "sweeps",
+    "TuneResults": "tuning",
+    "parse_amount": "tuning",
+    "parse_target": "tuning",
+    "tune": "tuning",
     "NO_WORK": "work",
     "Budget": "work",
     "Cancelled": "work",

@@ -31,6 +31,7 @@ class Game:
     round: RoundDistribution | None = None
     text: str | None = None
     warnings: tuple[Problem, ...] = ()
+    params: tuple[tuple[str, object], ...] = ()  # the [params] overrides it was read with (exact values)
 
     @property
     def title(self) -> str:
@@ -43,11 +44,12 @@ class Game:
         return self.ruleset
 
 
-def _read(loaded, text: str | None) -> Game:
+def _read(loaded, text: str | None, params: dict | None) -> Game:
     if loaded.ruleset is None:
         raise RulesetError(loaded.problems)
     ruleset = loaded.ruleset
-    return Game(ruleset.source, ruleset=ruleset, text=text, warnings=tuple(loaded.warnings))
+    overrides = tuple((params or {}).items())
+    return Game(ruleset.source, ruleset=ruleset, text=text, warnings=tuple(loaded.warnings), params=overrides)
 
 
 def load_game(path: str | Path, params: Mapping[str, object] | None = None) -> Game:
@@ -57,15 +59,17 @@ def load_game(path: str | Path, params: Mapping[str, object] | None = None) -> G
     """
     from oddsbench.model.load import read_ruleset_file
 
-    loaded = read_ruleset_file(path, _exact(params))
-    return _read(loaded, loaded.text)
+    exact = _exact(params)
+    loaded = read_ruleset_file(path, exact)
+    return _read(loaded, loaded.text, exact)
 
 
 def game_from_text(text: str, source: str = "<text>", params: Mapping[str, object] | None = None) -> Game:
     """A ruleset from TOML text, as ``load_game`` reads a file (``source`` names it in messages)."""
     from oddsbench.model.load import read_ruleset_text
 
-    return _read(read_ruleset_text(text, source, _exact(params)), text)
+    exact = _exact(params)
+    return _read(read_ruleset_text(text, source, exact), text, exact)
 
 
 def inline_round(spelled: str) -> Game:

@@ -2,14 +2,20 @@
 import them from here, never from the engines (so an engine can move without touching them)."""
 
 from oddsbench.chain.round_distribution import RoundDistribution, RoundOutcome
+from oddsbench.core.horizons import HorizonResults
 from oddsbench.core.reports import ReportFigures
 from oddsbench.core.rounds import BestResults
 from oddsbench.core.session import PlanResult, SessionResults
 from oddsbench.core.simulation import SessionRun, Simulation
+from oddsbench.core.tune_scan import Bracket
+from oddsbench.core.tuning import DegreeBound, Edge, TunedValue, TuneResults
 from oddsbench.model.figure import Figure
 from oddsbench.simulate.checks import Check
 from oddsbench.simulate.round_sim import RoundSample
 from oddsbench.simulate.session_sim import SessionSample
+from oddsbench.solve.horizon import Horizon, ReturnRange
+from oddsbench.solve.rational_function import RationalFunction, Solution
+from oddsbench.solve.return_table import NetValue, PayShare, ReturnTable
 from oddsbench.solve.round import RoundFigures
 from oddsbench.solve.ruin import Certified, NoGoalRuin, RoundsToRuin
 from oddsbench.solve.session import FinalValue
@@ -23,6 +29,9 @@ from oddsbench.sweep.spec import Axis, SweepSpec
 
 __all__ = [
     "Axis",
+    "Bracket",
+    "DegreeBound",
+    "Edge",
     "BestPolicy",
     "BestResults",
     "Certificate",
@@ -30,14 +39,21 @@ __all__ = [
     "Check",
     "Figure",
     "FinalValue",
+    "Horizon",
+    "HorizonResults",
     "Improvement",
     "NoGoalFigures",
     "NoGoalRuin",
+    "NetValue",
     "NoGoalWalk",
+    "PayShare",
     "PlanResult",
     "Point",
     "PointResult",
+    "RationalFunction",
     "ReportFigures",
+    "ReturnRange",
+    "ReturnTable",
     "RoundColumn",
     "RoundDistribution",
     "RoundFigures",
@@ -50,9 +66,12 @@ __all__ = [
     "SessionRun",
     "SessionSample",
     "SessionSettings",
+    "Solution",
     "Simulation",
     "StrategyCheck",
     "SweepResult",
     "SweepSpec",
     "Tie",
+    "TuneResults",
+    "TunedValue",
 ]

@@ -76,6 +76,17 @@ def _one_strategy(ruleset: Ruleset, settings: Settings, why: str) -> str | None:
     return strategy
 
 
+def one_play(ruleset: Ruleset, settings: Settings, question: str) -> str | None:
+    """The one strategy a question repeating one round plays (None: a game without decisions), or one
+    line saying a game with decisions needs one, and one start state."""
+    if names_several(settings.starts):
+        raise OddsbenchError(f"{ruleset.source}: {question} repeats one round: name one start state, not several")
+    if ruleset.has_decisions and len(settings.strategies) != 1:
+        known = ", ".join(s.name for s in ruleset.strategies) or "none defined"
+        raise OddsbenchError(f"{ruleset.source}: has decision states: choose one --strategy NAME (known: {known})")
+    return settings.strategies[0] if settings.strategies else None
+
+
 @budgeted
 def best_play(game: Game, settings: Settings = DEFAULTS, work: Work = NO_WORK) -> BestResults:
     """The best action in every decision state for ``settings.best_goal``, its value and certificate."""

@@ -40,8 +40,9 @@ class OnDisk:
     text: str | None
 
 
-def write_atomically(path: str | Path, content: str | bytes, force: bool = False, expect: OnDisk | None = None) -> Path:
-    """Write ``content`` to ``path``; refuse an existing file unless ``force``. Returns the path."""
+def check_target(path: str | Path, force: bool = False) -> Path:
+    """The file ``write_atomically`` would write (a link's target), or the one-line refusal it would
+    give: a command checks its output this way before the work, not after."""
     target = Path(path)
     real = _through_links(target)
     folder = real.parent if str(real.parent) else Path(".")
@@ -56,6 +57,14 @@ def write_atomically(path: str | Path, content: str | bytes, force: bool = False
             raise OddsbenchError(f"{target}: {refusal}: only regular files are replaced")
         if not force:
             raise OddsbenchError(f"{target}: already exists and was not overwritten (add --force to replace it)")
+    return real
+
+
+def write_atomically(path: str | Path, content: str | bytes, force: bool = False, expect: OnDisk | None = None) -> Path:
+    """Write ``content`` to ``path``; refuse an existing file unless ``force``. Returns the path."""
+    target = Path(path)
+    real = check_target(target, force)
+    folder = real.parent if str(real.parent) else Path(".")
     data = content.encode("utf-8") if isinstance(content, str) else content
     mode = _mode_for(real)
     try:

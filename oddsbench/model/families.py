@@ -16,120 +16,43 @@ Index variables (and any ``each`` variables of an outcome) are names in the expr
 beside the file's ``[params]``. Everything goes through ``model/expr.py``; nothing is run as code.
 The expansion is bounded (``MAX_FAMILY_STATES``, ``MAX_FAMILY_OUTCOMES``) and every error names
 the family and the index values where it failed. The result is plain state tables, read by
-``model/load.py`` exactly as if written out by hand.
+``model/load.py`` exactly as if written out by hand. The index space (templates, ranges, ``let``,
+combinations) is ``model/family_index.py``; the work budget of an expansion, ``model/family_budget.py``.
 """
 
 from __future__ import annotations
 
 from collections.abc import Iterator, Mapping
-from contextlib import contextmanager
-from contextvars import ContextVar
 from dataclasses import dataclass
 from typing import Any
 
-from oddsbench.model import budget as budgets
-from oddsbench.model.errors import Problem, shown_name, type_name
-from oddsbench.model.expr import (
-    Binary,
-    Call,
-    Conditional,
-    ExpressionError,
-    Node,
-    Unary,
-    evaluate,
-    is_tree,
-    names_in,
-    parse,
-    partial,
-    uses_hands,
+from oddsbench.model import family_index
+from oddsbench.model.errors import Problem, type_name
+from oddsbench.model.expr import ExpressionError, Node, evaluate, parse, partial
+from oddsbench.model.family_budget import STATE_LIMIT, TABLE_STEPS, ExpansionSteps
+from oddsbench.model.family_index import (
+    FamilyError,
+    Template,
+    TooManyCombinations,
+    at_index,
+    fixed_count,
+    index_combinations,
+    index_ranges,
+    parse_template,
+    read_lets,
+    reads_hands,
+    steps_in,
+    value_node,
+    with_lets,
 )
-from oddsbench.model.numbers import Rational, is_integer, text, to_int
+from oddsbench.model.numbers import Rational
 
 MAX_FAMILY_STATES = 100_000
 MAX_FAMILY_OUTCOMES = 1_000_000
-MAX_INDEX_VARIABLES = 8
-MAX_FAMILY_COMBINATIONS = 2_000_000  # index values tried, kept or not: a filter cannot hide a hang
-
-# The work of an expansion, in expression steps (one node of an expression evaluated); a member
-# or an outcome table also costs its own bookkeeping. Measured: about 1.7 microseconds a step.
-STEPS_PER_SECOND = 400_000
-READING_SHARE = 0.5  # of the time left in the work budget, for expanding families
-TABLE_STEPS = 30  # a table also costs its reading: the loader parses each rendered value again
-CHECK_EVERY_STEPS = 100_000
 
 FAMILY_KEYS = frozenset({"state", "index", "let", "when", "outcomes", "choices", "result", "about", "draw"})
 FAMILY_OUTCOME_KEYS = frozenset({"to", "prob", "pay", "stake", "note", "when", "each", "let"})
 CASE_KEYS = frozenset({"when", "to"})
-_RESERVED_NAMES = frozenset({"if", "then", "else", "and", "or", "not", "min", "max", "abs", "floor", "ceil"})
-
-
-class FamilyError(Exception):
-    """One failure inside a family; the message already names the family and index values."""
-
-
-_STATE_LIMIT: ContextVar[int | None] = ContextVar("family_state_limit", default=None)
-
-
-@contextmanager
-def state_limit(limit: int | None) -> Iterator[None]:
-    """Refuse families past ``limit`` states while they expand (``--max-states``), not after."""
-    token = _STATE_LIMIT.set(limit)
-    try:
-        yield
-    finally:
-        _STATE_LIMIT.reset(token)
-
-
-def steps_in(node: Node | int | None) -> int:
-    """Nodes of an expression: the steps one evaluation of it takes."""
-    if node is None or isinstance(node, int):
-        return 0
-    count, stack = 0, [node]
-    while stack:
-        item = stack.pop()
-        count += 1
-        if isinstance(item, Unary):
-            stack.append(item.operand)
-        elif isinstance(item, Binary):
-            stack += [item.left, item.right]
-        elif isinstance(item, Call):
-            stack += list(item.args)
-        elif isinstance(item, Conditional):
-            stack += [item.test, item.then, item.otherwise]
-    return count
-
-
-class _Steps:
-    """The expression steps an expansion may still take: a share of the time left in the work budget
-    (``model/budget.py``; the default budget when none is in force)."""
-
-    def __init__(self) -> None:
-        left = budgets.time_left()
-        if left == float("inf"):
-            left = budgets.Budget().seconds
-        self.seconds = max(left, 0.0) * READING_SHARE
-        self.limit = int(self.seconds * STEPS_PER_SECOND)
-        self.left = self.limit
-        self.next_check = CHECK_EVERY_STEPS
-
-    def spend(self, steps: int) -> None:
-        self.left -= steps
-        if self.left < 0:
-            raise FamilyError(self.over(f"families evaluate more than {self.limit:,} expression steps"))
-        self.next_check -= steps
-        if self.next_check < 0:
-            self.next_check = CHECK_EVERY_STEPS
-            budgets.check("expanding families")
-
-    def over(self, what: str) -> str:
-        return (
-            f"{what}, more than reading may take in {budgets.seconds_text(self.seconds)} "
-            f"(raise it with {budgets.TIME_OPTION})"
-        )
-
-
-class _TooManyCombinations(FamilyError):
-    """The combination budget ran out; re-raised with the family's name by the caller."""
 
 
 @dataclass(frozen=True)
@@ -148,201 +71,6 @@ class FamilyExpansion:
     members: dict[str, FamilyMember]
 
 
-@dataclass(frozen=True)
-class _Template:
-    """Text with ``{expression}`` holes; ``{{`` and ``}}`` are literal braces."""
-
-    parts: tuple[str | Node, ...]
-    raw: str
-
-    @property
-    def steps(self) -> int:
-        return sum(steps_in(part) for part in self.parts if not isinstance(part, str))
-
-    def render(self, env: Mapping[str, Rational]) -> str:
-        pieces = []
-        for part in self.parts:
-            if isinstance(part, str):
-                pieces.append(part)
-                continue
-            value = evaluate(part, env)
-            if not is_integer(value):
-                raise ExpressionError(f"placeholder in {shown_name(self.raw)} gives {text(value)}, not a whole number")
-            pieces.append(str(to_int(value)))
-        return "".join(pieces)
-
-
-def parse_template(raw: str) -> _Template:
-    parts: list[str | Node] = []
-    literal: list[str] = []
-    i = 0
-    while i < len(raw):
-        char = raw[i]
-        if raw.startswith("{{", i) or raw.startswith("}}", i):
-            literal.append(char)
-            i += 2
-            continue
-        if char == "}":
-            raise ExpressionError(f"unmatched '}}' in {shown_name(raw)} (write '}}}}' for a literal brace)")
-        if char == "{":
-            end = raw.find("}", i + 1)
-            if end < 0:
-                raise ExpressionError(f"unclosed '{{' in {shown_name(raw)}")
-            if literal:
-                parts.append("".join(literal))
-                literal = []
-            parts.append(parse(raw[i + 1 : end]))
-            i = end + 1
-            continue
-        literal.append(char)
-        i += 1
-    if literal:
-        parts.append("".join(literal))
-    return _Template(tuple(parts), raw)
-
-
-@dataclass(frozen=True)
-class _Range:
-    name: str
-    low: Node | int
-    high: Node | int
-
-
-def _value_node(raw: Any, what: str) -> Node | int:
-    if isinstance(raw, float):
-        raise FamilyError(f'{what}: write decimals in quotes ("{raw}") so they stay exact')
-    if isinstance(raw, bool) or not isinstance(raw, int | str):
-        raise FamilyError(f"{what} must be a whole number or an expression in quotes, not {type_name(raw)}")
-    if isinstance(raw, int):
-        return raw
-    try:
-        return parse(raw)
-    except ExpressionError as error:
-        raise FamilyError(f"{what} {shown_name(raw)}: {error}") from None
-
-
-def _whole(node: Node | int, env: Mapping[str, Rational], what: str) -> int:
-    if isinstance(node, int):
-        return node
-    value = evaluate(node, env)
-    if not is_integer(value):
-        raise ExpressionError(f"{what} is {text(value)}, not a whole number")
-    return to_int(value)
-
-
-def _ranges(raw: Any, what: str, taken: set[str]) -> list[_Range]:
-    if not isinstance(raw, dict) or not raw:
-        raise FamilyError(f"{what} must be a table of name = [low, high], e.g. {{ t = [0, 99] }}")
-    if len(raw) > MAX_INDEX_VARIABLES:
-        raise FamilyError(f"{what} has {len(raw)} variables, more than the limit of {MAX_INDEX_VARIABLES}")
-    ranges = []
-    for name, bounds in raw.items():
-        try:
-            plain = names_in(parse(name)) == {name}
-        except ExpressionError:
-            plain = False
-        if not plain or name in _RESERVED_NAMES:
-            raise FamilyError(f"{what}: {name!r} is not a usable variable name (letters, digits and _)")
-        if name in taken:
-            raise FamilyError(f"{what}: variable {name!r} is already a parameter or index variable")
-        if not isinstance(bounds, list) or len(bounds) != 2:
-            raise FamilyError(f"{what}, {name}: must be [low, high] (both included), not {shown_name(bounds)}")
-        low = _value_node(bounds[0], f"{what}, {name}, low end")
-        high = _value_node(bounds[1], f"{what}, {name}, high end")
-        ranges.append(_Range(name, low, high))
-        taken.add(name)
-    return ranges
-
-
-def _lets(raw: Any, what: str, taken: set[str]) -> list[tuple[str, Node]]:
-    """Named helper values, in order, each free to use the ones before it."""
-    if raw is None:
-        return []
-    if not isinstance(raw, dict):
-        raise FamilyError(f'{what} must be a table of name = "expression"')
-    lets = []
-    for name, expression in raw.items():
-        try:
-            plain = names_in(parse(name)) == {name}
-        except ExpressionError:
-            plain = False
-        if not plain or name in _RESERVED_NAMES:
-            raise FamilyError(f"{what}: {name!r} is not a usable name (letters, digits and _)")
-        if name in taken:
-            raise FamilyError(f"{what}: {name!r} is already a parameter or variable")
-        if not isinstance(expression, int | str) or isinstance(expression, bool):
-            raise FamilyError(f"{what}, {name}: must be an expression in quotes")
-        try:
-            lets.append((name, parse(str(expression))))
-        except ExpressionError as error:
-            raise FamilyError(f"{what}, {name} {shown_name(expression)}: {error}") from None
-        taken.add(name)
-    return lets
-
-
-def _reads_hands(node: Node, env: Mapping[str, Any]) -> bool:
-    """Whether a value depends on the cards dealt: a hand function in it, or a ``let`` that has one.
-    Such values stay expressions (with the index values put in) for the dealer of a deck game."""
-    return uses_hands(node) or any(is_tree(env.get(name)) for name in names_in(node))
-
-
-def _with_lets(env: dict[str, Rational], lets: list[tuple[str, Node]]) -> dict[str, Rational]:
-    if not lets:
-        return env
-    env = dict(env)
-    for name, node in lets:
-        try:
-            env[name] = partial(node, env) if _reads_hands(node, env) else evaluate(node, env)
-        except ExpressionError as error:
-            raise ExpressionError(f"let {name}: {error}") from None
-    return env
-
-
-def _combinations(
-    ranges: list[_Range], env: dict[str, Rational], tried: list[int] | None = None
-) -> Iterator[dict[str, Rational]]:
-    """Every assignment of the index variables, the later ranges free to use the earlier values.
-    ``tried`` counts down the combinations left in the whole expansion (``when`` filters can
-    discard every one, so the count of members alone does not bound the time)."""
-    from oddsbench.model.numbers import QQ
-
-    if not ranges:
-        if tried is not None:
-            tried[0] -= 1
-            if tried[0] < 0:
-                raise _TooManyCombinations(
-                    f"index ranges give more than {MAX_FAMILY_COMBINATIONS:,} combinations to try (the limit)"
-                )
-        yield dict(env)
-        return
-    first, rest = ranges[0], ranges[1:]
-    low = _whole(first.low, env, f"low end of {first.name}")
-    high = _whole(first.high, env, f"high end of {first.name}")
-    for value in range(low, high + 1):
-        inner = dict(env)
-        inner[first.name] = QQ(value)
-        yield from _combinations(rest, inner, tried)
-
-
-def _fixed_count(ranges: list[_Range], params: Mapping[str, Rational]) -> int | None:
-    """How many combinations the ranges give, when no range depends on another (else None):
-    a hopeless expansion is refused at once, with its size, instead of after the budget runs out."""
-    count = 1
-    for item in ranges:
-        try:
-            low = _whole(item.low, params, "low end")
-            high = _whole(item.high, params, "high end")
-        except ExpressionError:
-            return None
-        count *= max(high - low + 1, 0)
-    return count
-
-
-def _where(env: Mapping[str, Rational], names: list[str]) -> str:
-    shown = ", ".join(f"{name}={text(env[name])}" for name in names if name in env)
-    return f" at {shown}" if shown else ""
-
-
 class _Outcome:
     """One outcome table of a family, parsed once and rendered per index combination."""
 
@@ -358,8 +86,8 @@ class _Outcome:
                 f"{where}: needs 'to', a state name in quotes (with {{...}} placeholders) or a list of cases"
             )
         inner_taken = set(taken)
-        self.each = _ranges(raw["each"], f"{where}, each", inner_taken) if "each" in raw else []
-        self.lets = _lets(raw.get("let"), f"{where}, let", inner_taken)
+        self.each = index_ranges(raw["each"], f"{where}, each", inner_taken) if "each" in raw else []
+        self.lets = read_lets(raw.get("let"), f"{where}, let", inner_taken)
         try:
             self.cases = self._cases(target, where)
             self.note = parse_template(raw["note"]) if isinstance(raw.get("note"), str) else None
@@ -370,7 +98,7 @@ class _Outcome:
             raise FamilyError(f"{where}, when: must be a condition in quotes")
         if "note" in raw and not isinstance(raw["note"], str):
             raise FamilyError(f"{where}, note: must be text")
-        self.values = {key: _value_node(raw[key], f"{where}, {key}") for key in ("prob", "pay", "stake") if key in raw}
+        self.values = {key: value_node(raw[key], f"{where}, {key}") for key in ("prob", "pay", "stake") if key in raw}
         self.where = where
         self.steps = (
             TABLE_STEPS
@@ -383,19 +111,19 @@ class _Outcome:
 
     def tables_per_member(self, params: Mapping[str, Rational]) -> int:
         """How many tables this outcome renders per member, when its ranges are fixed (else 1)."""
-        count = _fixed_count(self.each, params)
+        count = fixed_count(self.each, params)
         return 1 if count is None else count
 
     def render(
-        self, env: dict[str, Rational], tried: list[int] | None = None, steps: _Steps | None = None
+        self, env: dict[str, Rational], tried: list[int] | None = None, steps: ExpansionSteps | None = None
     ) -> Iterator[dict[str, Any]]:
-        for inner in _combinations(self.each, env, tried):
+        for inner in index_combinations(self.each, env, tried):
             if steps is not None:
                 steps.spend(self.steps)
             try:
-                inner = _with_lets(inner, self.lets)
+                inner = with_lets(inner, self.lets)
                 table: dict[str, Any] = {}
-                if self.when is not None and _reads_hands(self.when, inner):
+                if self.when is not None and reads_hands(self.when, inner):
                     table["when"] = partial(self.when, inner)  # a case of a deck game, chosen by the cards
                 elif self.when is not None and evaluate(self.when, inner) == 0:
                     continue
@@ -406,19 +134,19 @@ class _Outcome:
                 for key, node in self.values.items():
                     if isinstance(node, int):
                         table[key] = node
-                    elif _reads_hands(node, inner):
+                    elif reads_hands(node, inner):
                         table[key] = partial(node, inner)
                     else:  # the exact value itself: read as written by hand, without a second parse
                         table[key] = evaluate(node, inner)
                 if self.note is not None:
                     table["note"] = self.note.render(inner)
             except ExpressionError as error:
-                shown = _where(inner, [r.name for r in self.each]).removeprefix(" at ")
+                shown = at_index(inner, [r.name for r in self.each]).removeprefix(" at ")
                 raise ExpressionError(f"{shown}: {error}" if shown else str(error)) from None
             yield table
 
     @staticmethod
-    def _cases(target: str | list, where: str) -> list[tuple[Node | None, _Template]]:
+    def _cases(target: str | list, where: str) -> list[tuple[Node | None, Template]]:
         if isinstance(target, str):
             return [(None, parse_template(target))]
         cases = []
@@ -438,7 +166,7 @@ class _Outcome:
     def _target(self, env: dict[str, Rational]) -> str | None:
         """The first case whose condition holds; None when no case matches (no outcome)."""
         for test, template in self.cases:
-            if test is not None and _reads_hands(test, env):
+            if test is not None and reads_hands(test, env):
                 raise ExpressionError(
                     "a case in 'to' cannot read the hands: write one outcome per case, each with its own 'when'"
                 )
@@ -458,8 +186,8 @@ class _Family:
     def __init__(self, name: str, raw: Any, params: Mapping[str, Rational], warn, plain: bool = False) -> None:
         self.name = name
         self._current = "state"
-        self.tried = [MAX_FAMILY_COMBINATIONS]
-        self.steps: _Steps | None = None
+        self.tried = [family_index.MAX_FAMILY_COMBINATIONS]
+        self.steps: ExpansionSteps | None = None
         self.states_left = MAX_FAMILY_STATES
         where = f"family {name!r}"
         if not isinstance(raw, dict):
@@ -470,9 +198,9 @@ class _Family:
         if not isinstance(raw.get("state"), str):
             raise FamilyError(f"{where}: needs 'state', the member name with placeholders, e.g. \"total-{{t}}\"")
         taken = set(params)
-        self.ranges = [] if plain else _ranges(raw.get("index"), f"{where}, index", taken)
+        self.ranges = [] if plain else index_ranges(raw.get("index"), f"{where}, index", taken)
         self.variables = [r.name for r in self.ranges]
-        self.lets = _lets(raw.get("let"), f"{where}, let", taken)
+        self.lets = read_lets(raw.get("let"), f"{where}, let", taken)
         try:
             self.state = parse_template(raw["state"])
             self.when = parse(raw["when"]) if "when" in raw else None
@@ -519,11 +247,11 @@ class _Family:
 
     def members(self, params: dict[str, Rational]) -> Iterator[tuple[dict[str, Rational], str]]:
         env: dict[str, Rational] = params
-        count = _fixed_count(self.ranges, params)
+        count = fixed_count(self.ranges, params)
         if count is not None and count > self.tried[0]:
             raise FamilyError(
                 f"family {self.name!r}: index ranges give {count:,} combinations, over the limit of "
-                f"{MAX_FAMILY_COMBINATIONS:,}"
+                f"{family_index.MAX_FAMILY_COMBINATIONS:,}"
             )
         if count is not None and self.when is None and count > self.states_left:
             raise _too_many_states(self.name, self.states_left)
@@ -536,28 +264,28 @@ class _Family:
                 combinations = "index combination" if count == 1 else "index combinations"
                 shown = f"about {work:,} expression steps to expand ({count:,} {combinations}, {work // count:,} each)"
                 raise FamilyError(f"family {self.name!r}: " + self.steps.over(shown))
-        combinations = _combinations(self.ranges, params, self.tried)
+        combinations = index_combinations(self.ranges, params, self.tried)
         while True:
             try:
                 if self.steps is not None:
                     self.steps.spend(each)
                 env = next(combinations)
-                env = _with_lets(env, self.lets)
+                env = with_lets(env, self.lets)
                 if self.when is not None and evaluate(self.when, env) == 0:
                     continue
                 name = self.state.render(env)
             except StopIteration:
                 return
             except ExpressionError as error:
-                raise FamilyError(f"family {self.name!r}{_where(env, self.variables)}: {error}") from None
-            except _TooManyCombinations as error:
+                raise FamilyError(f"family {self.name!r}{at_index(env, self.variables)}: {error}") from None
+            except TooManyCombinations as error:
                 raise FamilyError(f"family {self.name!r}: {error}") from None
             yield env, name
 
     def table(self, env: dict[str, Rational], budget: list[int]) -> dict[str, Any]:
         """One member's plain state table; ``budget`` counts outcomes left before the limit."""
         table: dict[str, Any] = {}
-        where = f"family {self.name!r}{_where(env, self.variables)}"
+        where = f"family {self.name!r}{at_index(env, self.variables)}"
         try:
             if self.result is not None:
                 table["result"] = self.result.render(env)
@@ -578,7 +306,7 @@ class _Family:
                         choices[action] = listed
                 if choices:
                     table["choices"] = choices
-        except (ExpressionError, _TooManyCombinations) as error:
+        except (ExpressionError, TooManyCombinations) as error:
             raise FamilyError(f"{where}, {self._current}: {error}") from None
         return table
 
@@ -586,7 +314,7 @@ class _Family:
         """The member's draw: as written, with ``{...}`` placeholders in ``take`` filled in."""
         if self.take is None:
             return self.draw
-        return dict(self.draw, take=[t.render(env) if isinstance(t, _Template) else t for t in self.take])
+        return dict(self.draw, take=[t.render(env) if isinstance(t, Template) else t for t in self.take])
 
     def _render(self, outcomes: list[_Outcome], env: dict[str, Rational], budget: list[int]) -> list[dict[str, Any]]:
         listed = []
@@ -626,12 +354,12 @@ def expand_families(
     def warn(where: str, message: str) -> None:
         problems.append(Problem(source, where, message, "warning"))
 
-    state_cap = _STATE_LIMIT.get()
+    state_cap = STATE_LIMIT.get()
     states_cap = MAX_FAMILY_STATES if state_cap is None else min(state_cap, MAX_FAMILY_STATES)
     states_left = states_cap
     budget = [MAX_FAMILY_OUTCOMES]
-    tried = [MAX_FAMILY_COMBINATIONS]
-    steps = _Steps()
+    tried = [family_index.MAX_FAMILY_COMBINATIONS]
+    steps = ExpansionSteps()
     for name, body in raw.items():
         try:
             family = _Family(name, body, params, warn)
@@ -641,11 +369,12 @@ def expand_families(
             found: dict[str, dict[str, Rational]] = {}
             for env, state in family.members(params):
                 if state in found:
-                    first = _where(found[state], family.variables).removeprefix(" at ")
-                    again = _where(env, family.variables).removeprefix(" at ")
+                    first = at_index(found[state], family.variables).removeprefix(" at ")
+                    again = at_index(env, family.variables).removeprefix(" at ")
                     raise FamilyError(f"family {name!r}: {first} and {again} both give the state name {state!r}")
                 if state in tables:
-                    raise FamilyError(f"family {name!r}{_where(env, family.variables)}: state {state!r} is made twice")
+                    where = f"family {name!r}{at_index(env, family.variables)}"
+                    raise FamilyError(f"{where}: state {state!r} is made twice")
                 states_left -= 1
                 if states_left < 0:
                     raise _too_many_states(name, states_cap)

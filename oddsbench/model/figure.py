@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+from collections.abc import Iterable
 from dataclasses import dataclass
 from typing import TYPE_CHECKING
 
@@ -25,3 +26,13 @@ class Figure:
     decimal: float
     log10: float | None = None
     digits: int | None = None
+
+
+# Figures that are square roots of exact ones (the standard deviation per unit staked): their exact
+# value is given only where it is rational, so they do not count when asking whether a result is exact.
+ROOT_FIGURES = frozenset({"net_sd"})
+
+
+def all_exact(named: Iterable[tuple[str, object]]) -> bool:
+    """Whether every (name, exact) pair has its exact value, square roots aside."""
+    return all(exact is not None for name, exact in named if name not in ROOT_FIGURES)

@@ -20,11 +20,13 @@ _FIELD = re.compile(r"^, (?P<field>[A-Za-z_][\w-]*)")
 _PARAM = re.compile(rf"^param (?P<name>{_QUOTED})")
 _STRATEGY = re.compile(rf"^strategy (?P<name>{_QUOTED})(?:, (?P<field>.+))?$")
 _HEAD = re.compile(r"^\[ruleset\](?:, (?P<field>\w+))?")
+_DECK = re.compile(r"^\[deck\](?:, (?P<field>\w+)(?:, (?P<name>\w+))?)?")
 
 
 @dataclass(frozen=True)
 class Place:
-    """A section (``ruleset``, ``params``, ``states``, ``strategies``, ``session``, ``file``) and the spot in it."""
+    """A section (``ruleset``, ``params``, ``deck``, ``states``, ``strategies``, ``session``, ``file``) and the
+    spot in it (for the deck: the field, and the item or rank named after it)."""
 
     section: str
     state: str | None = None
@@ -62,6 +64,8 @@ def place_of(problem: Problem) -> Place:
         return Place("strategies", name=_unquote(match["name"]), field=match["field"])
     if match := _HEAD.match(where):
         return Place("ruleset", field=match["field"])
+    if match := _DECK.match(where):
+        return Place("deck", field=match["field"], name=match["name"])
     if where.startswith("[session]"):
         return Place("session")
     if where.startswith("[states]"):

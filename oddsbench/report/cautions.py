@@ -8,6 +8,12 @@ CAUTIONS: tuple[str, ...] = (
     "Gambling law and age limits vary: defer to local law, and to licensed practice for certification.",
 )
 
+# Shown beside figures over many rounds (``oddsbench horizon``, the workbench's horizon chart).
+HORIZON_CAUTIONS: tuple[str, ...] = (
+    "Over many rounds the result converges on the house edge: the realised return to player closes in on its "
+    "expected value, and no betting plan changes that.",
+)
+
 
 def caution_block() -> str:
     """The cautions as a short text block for terminal output."""

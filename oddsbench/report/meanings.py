@@ -26,6 +26,11 @@ ROUND = {
     "house edge.",
     "net_variance": "How widely one round's net result spreads around its average (the square of its standard "
     "deviation).",
+    "net_sd": "The standard deviation of one round's net result per unit staked: how far a round typically "
+    "lands from its average. Its exact value exists only where the square root is rational.",
+    "hit_frequency": "The chance that one round ends with the player ahead (net result above zero).",
+    "push_probability": "The chance that one round ends even: the net result is exactly zero.",
+    "loss_probability": "The chance that one round ends with the player behind (net result below zero).",
     "expected_steps": "The average number of steps (moves from state to state) one round takes before it ends.",
     "steps_variance": "How widely the number of steps in one round spreads around its average.",
     "ended_by": "The chance that the round has ended within the given number of steps.",

@@ -13,6 +13,7 @@ from oddsbench.model.numbers import text, to_float
 from oddsbench.report.document import ReportDocument
 from oddsbench.report.numbers_text import csv_decimal
 from oddsbench.report.report_rows import param_items, round_figure_items, strategy_label
+from oddsbench.report.return_table_report import return_table_csv_rows
 from oddsbench.report.ruleset_echo import file_digest, outcome_rows
 
 COLUMNS = ("section", "subject", "quantity", "exact", "decimal", "note")
@@ -42,6 +43,7 @@ def render_csv(document: ReportDocument) -> str:
         for key, _label, f in round_figure_items(section):
             exact = "" if f.exact is None else text(f.exact)
             rows.append(("round", subject, key, exact, csv_decimal(f), ""))
+        rows += return_table_csv_rows(section.figures, subject)
         rows += [("note", subject, "", "", "", note) for note in section.figures.notes]
     for extra in document.extra_sections:
         rows += extra.csv_rows()

@@ -6,6 +6,8 @@ from oddsbench.model.numbers import text, to_float
 from oddsbench.report.document import ReportDocument
 from oddsbench.report.numbers_text import decimal_text
 from oddsbench.report.report_rows import comparison_rows, param_items, round_figure_items, shown
+from oddsbench.report.return_table_report import LAW_HEADERS, SHARE_HEADERS, net_law_rows, share_rows
+from oddsbench.report.round_report import irrational_cell
 from oddsbench.report.ruleset_echo import file_digest, outcome_rows
 
 EXACT_WIDTH = 60
@@ -19,6 +21,29 @@ def _table(headers: list[str], rows: list[list[str]]) -> list[str]:
     lines = ["| " + " | ".join(_cell(h) for h in headers) + " |", "|" + "---|" * len(headers)]
     lines += ["| " + " | ".join(_cell(c) for c in row) + " |" for row in rows]
     return lines
+
+
+def _figure_row(key: str, label: str, figure, figures) -> list[str]:
+    exact, decimal = shown(key, figure, EXACT_WIDTH)
+    return [label, irrational_cell(key, figures) or exact, decimal]
+
+
+def _return_table(figures) -> list[str]:
+    """The net law and each paying step's share of the expected net (every row: a report is complete)."""
+    out: list[str] = []
+    if figures.return_table is None:
+        return out
+    if figures.return_table.law is not None:
+        out += [
+            "",
+            "Net result of the round (chance x net = contribution; contributions add up to the expected net):",
+            "",
+        ]
+        out += _table(LAW_HEADERS, net_law_rows(figures, limit=None, width=EXACT_WIDTH))
+    if figures.return_table.shares:
+        out += ["", "Where the expected net comes from (expected times each paying step is taken x its pay):", ""]
+        out += _table(SHARE_HEADERS, share_rows(figures, limit=None, width=EXACT_WIDTH))
+    return out
 
 
 def render_markdown(document: ReportDocument) -> str:
@@ -88,8 +113,9 @@ def render_markdown(document: ReportDocument) -> str:
         out += ["", title, "", f"One round from `{figures.start}` ({figures.states} states).", ""]
         out += _table(
             ["quantity", "exact", "decimal"],
-            [[label, *shown(key, f, EXACT_WIDTH)] for key, label, f in round_figure_items(section)],
+            [_figure_row(key, label, f, figures) for key, label, f in round_figure_items(section)],
         )
+        out += _return_table(figures)
         if figures.notes:
             out += ["", *[f"- Note: {note}" for note in figures.notes]]
     if document.compares_strategies:

@@ -10,6 +10,7 @@ from oddsbench.model.numbers import text
 from oddsbench.report.cautions import caution_block
 from oddsbench.report.json_output import envelope
 from oddsbench.report.numbers_text import exact_text, figure_decimal_text, render_table, shown_log10
+from oddsbench.report.return_table_report import net_law_json, return_shares_json, return_table_text
 
 if TYPE_CHECKING:  # result types only: the core (and the engines behind it) load when a question is asked
     from oddsbench.core.results import RoundFigures, RoundResults
@@ -20,11 +21,19 @@ LABELS = {
     "house_edge": "house edge",
     "return_to_player": "return to player",
     "net_variance": "net variance",
+    "net_sd": "net sd per unit staked",
+    "hit_frequency": "hit frequency (net > 0)",
+    "push_probability": "push (net = 0)",
+    "loss_probability": "loss (net < 0)",
     "expected_steps": "expected steps",
     "steps_variance": "steps variance",
     "ended_by": "ended by step N",
 }
-PERCENT_FIGURES = frozenset({"house_edge", "return_to_player", "ended_by"})
+PERCENT_FIGURES = frozenset(
+    {"house_edge", "return_to_player", "ended_by", "hit_frequency", "push_probability", "loss_probability"}
+)
+# A square root (``net_sd``) has an exact value only where it is rational: its cell says why it is empty.
+IRRATIONAL = "irrational"
 _KEYED = re.compile(r"^(end_probability|result_probability|end_probability_by_step)\[(.*)\]$")
 
 
@@ -74,7 +83,8 @@ def round_rows(figures: RoundFigures) -> list[tuple[str, str, str]]:
     """quantity | exact | decimal rows: the figures, then the chance of each end state."""
     rows = []
     for name, figure in figures.figures.items():
-        rows.append((figure_label(name, figures.rounds), *figure_cells(figure, name in PERCENT_FIGURES)))
+        exact, decimal = figure_cells(figure, name in PERCENT_FIGURES)
+        rows.append((figure_label(name, figures.rounds), irrational_cell(name, figures) or exact, decimal))
     for name, figure in figures.end_probability.items():
         result = figures.end_results.get(name)
         label = f"ends in {name!r}" + (f" ({result})" if result else "")
@@ -82,6 +92,14 @@ def round_rows(figures: RoundFigures) -> list[tuple[str, str, str]]:
     for name, figure in figures.end_probability_by_step.items():
         rows.append((f"in {name!r} by step {figures.rounds}", *figure_cells(figure, percent=True)))
     return rows + hand_rows(figures)
+
+
+def irrational_cell(name: str, figures: RoundFigures) -> str | None:
+    """``irrational`` for the exact cell of a square root whose radicand is exact but not a square."""
+    variance = figures.figures.get("net_variance")
+    if name == "net_sd" and figures.figures[name].exact is None and variance is not None and variance.exact is not None:
+        return IRRATIONAL
+    return None
 
 
 def hand_rows(figures: RoundFigures) -> list[tuple[str, str, str]]:
@@ -140,6 +158,9 @@ def round_text(figures: RoundFigures, strategy: str | None = None) -> str:
     heading = round_heading(figures, strategy)
     table = render_table(["quantity", "exact", "decimal"], [list(row) for row in round_rows(figures)])
     parts = [heading, "", table]
+    returns = return_table_text(figures)
+    if returns:
+        parts += ["", returns]
     if figures.notes:
         parts += ["", "Notes:"] + [f"  - {note}" for note in figures.notes]
     parts += ["", caution_block()]
@@ -176,6 +197,8 @@ def round_result_json(figures: RoundFigures, strategy: str | None = None) -> dic
         "states": figures.states,
         "rounds": figures.rounds,
         "figures": body,
+        "net_law": net_law_json(figures),
+        "return_shares": return_shares_json(figures),
         "policy": dict(figures.actions),
         "notes": list(figures.notes),
     }

@@ -15,6 +15,7 @@ from oddsbench.report.round_report import (
     figure_cells,
     figure_json,
     figure_label,
+    irrational_cell,
     round_result_json,
     round_rows,
 )
@@ -65,7 +66,12 @@ def comparison_rows(comparison: RoundResults, kind: str = "both") -> tuple[list[
     for name in names:
         label = figure_label(name, first.rounds if first else None)
         percent = name in PERCENT_FIGURES
-        rows.append([label] + [cell(f.figures.get(name), percent, kind=kind) for f in comparison.figures])
+        cells = [cell(f.figures.get(name), percent, kind=kind) for f in comparison.figures]
+        for i, figures in enumerate(comparison.figures):
+            why = irrational_cell(name, figures)
+            if why and kind != "decimal":
+                cells[i] = cells[i].replace("-", why, 1)
+        rows.append([label] + cells)
     zero = Figure(None, 0.0)
     for name in ends:
         result = next((f.end_results.get(name) for f in comparison.figures if name in f.end_results), None)

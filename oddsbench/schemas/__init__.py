@@ -1,7 +1,7 @@
 """JSON Schemas of every ``--json`` output (draft 2020-12), shipped with the package.
 
 ``schema("session")`` returns the schema of ``oddsbench session --json`` as a dict; the files are
-``oddsbench/schemas/<command>.schema.json`` for solve, best, session, simulate, sweep and report.
+``oddsbench/schemas/<command>.schema.json`` for solve, best, session, simulate, sweep, report, horizon and tune.
 """
 
 from __future__ import annotations
@@ -9,7 +9,7 @@ from __future__ import annotations
 import json
 from importlib import resources
 
-COMMANDS = ("solve", "best", "session", "simulate", "sweep", "report")
+COMMANDS = ("solve", "best", "session", "simulate", "sweep", "report", "horizon", "tune")
 
 
 def schema(command: str) -> dict:

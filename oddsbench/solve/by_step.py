@@ -131,8 +131,7 @@ def _exact(chain: RoundChain, rounds: int, should_stop: Callable[[], bool] | Non
     values[0] = QQ(1)
     clock = ExactClock(should_stop, rounds, "products by step")
     for step in range(rounds):
-        if step % POLL_STEPS == 0:
-            clock.poll(step)
+        clock.tick(step)
         nxt = [QQ(0)] * n + values[n:]
         for edge in chain.edges:
             weight = values[edge.source]

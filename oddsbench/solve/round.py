@@ -18,25 +18,23 @@ from oddsbench.chain.deal import HandCounts
 from oddsbench.chain.round_chain import RoundChain
 from oddsbench.model.defaults import DEFAULT_EXACT_BITS, ROUND_EXACT_LIMIT
 from oddsbench.model.errors import OddsbenchError
-from oddsbench.model.figure import Figure
-from oddsbench.model.numbers import QQ, Rational, log10_abs, to_float
+from oddsbench.model.figure import Figure, all_exact
+from oddsbench.model.numbers import QQ, Rational, to_float
+from oddsbench.solve.checked import Tolerance, checked_figure
 from oddsbench.solve.linear import (
     ExactTooLarge,
     FloatSingular,
     factor_exact,
     factor_float,
     identity_minus,
-    identity_minus_float,
     sparse_from_rows,
 )
+from oddsbench.solve.return_table import CHANCE_FIGURES, ReturnTable, net_sd, return_table
 
 DEFAULT_EXACT_LIMIT = ROUND_EXACT_LIMIT
-RELATIVE_TOLERANCE = 1e-9
-ZERO_TOLERANCE = 1e-12
+TOLERANCE = Tolerance(relative=1e-9, absolute=1e-12)
 NEAR_SINGULAR = 1e7  # condition number past which the float engine may lose 7 of its 16 digits
-FLOAT_TINY = 2.2250738585072014e-308  # smallest normal float; below it values are underflow
-UNRELIABLE_TINY = 1e-300
-EXACT_SOLVES = 6  # end chances (one transposed solve), net, extra stake, net second moment, steps, steps second
+EXACT_SOLVES = 3  # expected visits from the start (one transposed solve), net, steps
 
 FIGURE_ORDER = (
     "expected_net",
@@ -68,10 +66,11 @@ class RoundFigures:
     notes: tuple[str, ...] = ()
     actions: tuple[tuple[str, str], ...] = ()
     hands: HandCounts | None = None  # a deck game dealt in one draw: each end's count of hands
+    return_table: ReturnTable | None = None  # the net law and each paying step's share (exact only)
 
     @property
     def exact(self) -> bool:
-        return all(figure.exact is not None for figure in self.figures.values())
+        return all_exact((name, figure.exact) for name, figure in self.figures.items())
 
 
 @dataclass
@@ -85,6 +84,9 @@ class _Moments:
     steps: object
     steps_second: object
     condition: float = 1.0
+    net_variance: object = None  # centred, where the engine solved for it (floats)
+    steps_variance: object = None
+    resolution: float = 0.0  # the smallest net variance the float engine resolves
 
 
 def solve_round(
@@ -93,8 +95,10 @@ def solve_round(
     exact_limit: int = DEFAULT_EXACT_LIMIT,
     should_stop: Callable[[], bool] | None = None,
     exact_bits: int | None = DEFAULT_EXACT_BITS,
+    with_return_table: bool = True,
 ) -> RoundFigures:
-    """Solve a round chain both ways and collect figures, notes and checks."""
+    """Solve a round chain both ways and collect figures, notes and checks (``with_return_table``
+    False skips the net law and the hit, push and loss chances: a caller that needs only moments)."""
     notes: list[str] = []
     exact = None
     if chain.transient_count <= exact_limit:
@@ -108,7 +112,7 @@ def solve_round(
             f"limit of {exact_limit:,} (raise it with --exact-limit); decimals are from the float engine"
         )
     try:
-        with np.errstate(all="ignore"):  # inf and nan are caught and named by _checked
+        with np.errstate(all="ignore"):  # inf and nan are caught and named by checked_figure
             decimal = _decimal_moments(chain)
     except FloatSingular:
         if exact is None:
@@ -131,6 +135,10 @@ def solve_round(
     with np.errstate(all="ignore"):
         figures, ends = _figures(chain, exact, decimal, notes)
     results = _by_result(chain, ends)
+    _add_net_sd(figures)
+    table = None
+    if with_return_table:
+        table = _return_table(chain, figures, exact is not None, exact_limit, should_stop, exact_bits, notes)
     by_step: dict[str, Figure] = {}
     if rounds is not None:
         by_step = _by_step(chain, rounds, exact is not None, notes, should_stop)
@@ -147,7 +155,44 @@ def solve_round(
         end_probability_by_step=by_step,
         notes=tuple(notes),
         actions=chain.actions,
+        return_table=table,
     )
+
+
+def _add_net_sd(figures: dict[str, Figure]) -> None:
+    """``net_sd`` right after ``net_variance``, where something is staked."""
+    if "house_edge" not in figures:
+        return
+    ordered = {}
+    for name, figure in figures.items():
+        ordered[name] = figure
+        if name == "net_variance":
+            ordered["net_sd"] = net_sd(figure, figures["expected_staked"])
+    figures.clear()
+    figures.update(ordered)
+
+
+def _return_table(
+    chain: RoundChain,
+    figures: dict[str, Figure],
+    exact: bool,
+    exact_limit: int,
+    should_stop: Callable[[], bool] | None,
+    exact_bits: int | None,
+    notes: list[str],
+) -> ReturnTable | None:
+    """Where exact arithmetic ran, add the hit, push and loss chances to ``figures``; return the
+    table (None, with a note, when it is not listed)."""
+    if not exact:
+        notes.append("return table (net law; hit, push and loss chances) not listed: it needs exact arithmetic")
+        return None
+    table = return_table(chain, exact_limit, should_stop, exact_bits)
+    if isinstance(table, str):
+        notes.append(table)
+        return None
+    figures.update((name, table.chances[name]) for name in CHANCE_FIGURES)
+    notes.extend(table.notes)
+    return table
 
 
 def _one_step(chain: RoundChain, weight: Callable) -> list:
@@ -173,31 +218,44 @@ def _floats_of(exact: _Moments) -> _Moments:
 def _exact_moments(
     chain: RoundChain, should_stop: Callable[[], bool] | None, max_bits: int | None = DEFAULT_EXACT_BITS
 ) -> _Moments | None:
+    """One exact factorisation, three solves: the expected visits from the start (a transposed solve)
+    give every end chance and every figure needed only at the start; expected net and steps are
+    solved for every state because the second moments' right-hand sides need them."""
     n = chain.transient_count
     if n == 0:
         return _Moments([QQ(1)], QQ(0), QQ(0), QQ(0), QQ(0), QQ(0))
     lu = factor_exact(identity_minus(chain.q_rows()), should_stop=should_stop, max_bits=max_bits)
     lu.expect_solves(EXACT_SOLVES)
-    end = _end_chances_exact(chain, lu)
+    visits = _visits_from_start(lu, n)
+
+    def at_start(rhs: list) -> Rational:
+        return sum((v * r for v, r in zip(visits, rhs) if v and r), QQ(0))
+
+    end = _end_chances_exact(chain, visits)
     net = lu.solve(_one_step(chain, lambda e: e.pay))
-    extra = lu.solve(_one_step(chain, lambda e: e.stake))
 
     def net_after(edge) -> Rational:
         return net[edge.target] if edge.target < n else QQ(0)
 
-    net_second = lu.solve(_one_step(chain, lambda e: e.pay * e.pay + 2 * e.pay * net_after(e)))
+    net_second = at_start(_one_step(chain, lambda e: e.pay * e.pay + 2 * e.pay * net_after(e)))
     steps = lu.solve([QQ(1)] * n)
-    steps_second = lu.solve([2 * t - 1 for t in steps])
-    return _Moments(end, net[0], extra[0], net_second[0], steps[0], steps_second[0])
+    steps_second = at_start([2 * t - 1 for t in steps])
+    extra = at_start(_one_step(chain, lambda e: e.stake))
+    return _Moments(end, net[0], extra, net_second, steps[0], steps_second)
 
 
-def _end_chances_exact(chain: RoundChain, lu) -> list[Rational]:
-    """The chance of ending in each end state from the start: one transposed solve gives the expected
-    visits v to every transient state, and P(end j) = sum over edges i -> j of v_i p (no transient x
-    end matrix: a star of 10,000 branches needs one solve, not 10,000)."""
-    start = [QQ(0)] * chain.transient_count
+def _visits_from_start(lu, n: int) -> list[Rational]:
+    """Expected visits to every transient state from the start: one transposed solve that answers every
+    figure needed only at the start (end chances, second moments, staked) as a sum of products."""
+    start = [QQ(0)] * n
     start[0] = QQ(1)
-    visits = lu.solve_transposed(start)
+    return lu.solve_transposed(start)
+
+
+def _end_chances_exact(chain: RoundChain, visits: list[Rational]) -> list[Rational]:
+    """The chance of ending in each end state from the start: P(end j) = sum over edges i -> j of v_i p,
+    from the expected visits v (no transient x end matrix: a star of 10,000 branches needs one solve,
+    not 10,000)."""
     n = chain.transient_count
     end = [QQ(0)] * len(chain.ends)
     for edge in chain.edges:
@@ -207,11 +265,15 @@ def _end_chances_exact(chain: RoundChain, lu) -> list[Rational]:
 
 
 def _decimal_moments(chain: RoundChain) -> _Moments:
+    """Float moments. I - Q is built from the exact I - Q (each diagonal is the exact chance of leaving
+    the state, rounded once, as Grassmann, Taksar and Heyman take it from what leaves a state, so a stay
+    chance of 1 - 3e-16 does not cancel to nothing), and the variances are solved for directly (centred
+    second moments, sums of squares), never as E[X^2] - E[X]^2."""
     n = chain.transient_count
     if n == 0:
-        return _Moments([1.0], 0.0, 0.0, 0.0, 0.0, 0.0)
-    rows = [{j: to_float(v) for j, v in row.items()} for row in chain.q_rows()]
-    lu = factor_float(identity_minus_float(sparse_from_rows(rows, n)))
+        return _Moments([1.0], 0.0, 0.0, 0.0, 0.0, 0.0, net_variance=0.0, steps_variance=0.0)
+    system = [{j: to_float(v) for j, v in row.items()} for row in identity_minus(chain.q_rows())]
+    lu = factor_float(sparse_from_rows(system, n))
     source = np.fromiter((e.source for e in chain.edges), dtype=np.int64)
     target = np.fromiter((e.target for e in chain.edges), dtype=np.int64)
     prob = np.fromiter((to_float(e.prob) for e in chain.edges), dtype=float)
@@ -220,6 +282,9 @@ def _decimal_moments(chain: RoundChain) -> _Moments:
 
     def one_step(values: np.ndarray) -> np.ndarray:
         return np.bincount(source, weights=prob * values, minlength=n)
+
+    def after(values: np.ndarray) -> np.ndarray:
+        return np.where(target < n, values[np.minimum(target, n - 1)], 0.0)
 
     start = np.zeros(n)
     start[0] = 1.0
@@ -230,17 +295,53 @@ def _decimal_moments(chain: RoundChain) -> _Moments:
     )
     solved = lu.solve(np.column_stack([one_step(pay), one_step(stake), np.ones(n)]))
     net, extra, steps = solved[:, 0], solved[:, 1], solved[:, 2]
-    net_after = np.where(target < n, net[np.minimum(target, n - 1)], 0.0)
-    second = lu.solve(np.column_stack([one_step(pay * pay + 2 * pay * net_after), 2 * steps - 1]))
-    return _Moments(list(end), net[0], extra[0], second[0, 0], steps[0], second[0, 1], _condition(rows, steps))
+    spread = lu.solve(
+        np.column_stack(
+            [one_step((pay + after(net) - net[source]) ** 2), one_step((1.0 + after(steps) - steps[source]) ** 2)]
+        )
+    )
+    net_variance, steps_variance = spread[0, 0], spread[0, 1]
+    return _Moments(
+        list(end),
+        net[0],
+        extra[0],
+        net_variance + net[0] ** 2,
+        steps[0],
+        steps_variance + steps[0] ** 2,
+        _condition(system, steps),
+        net_variance=net_variance,
+        steps_variance=steps_variance,
+        resolution=_resolution(net, steps),
+    )
 
 
-def _condition(rows: list[dict[int, float]], steps: np.ndarray) -> float:
+def _resolution(net: np.ndarray, steps: np.ndarray) -> float:
+    """About the smallest net variance the float engine resolves: each step's share is the square of a
+    difference of expected nets known to some units of the last place of the largest of them."""
+    largest = float(np.max(np.abs(net))) if len(net) else 0.0
+    return float((8 * np.finfo(float).eps * max(largest, 1e-300)) ** 2 * max(float(steps[0]), 1.0))
+
+
+def _condition(system: list[dict[int, float]], steps: np.ndarray) -> float:
     """The infinity-norm condition number of I - Q, at no extra cost: (I - Q)^-1 is non-negative,
     so its norm is its largest row sum, which is the largest expected number of steps."""
-    norm = max(abs(1 - row.get(i, 0.0)) + sum(abs(v) for j, v in row.items() if j != i) for i, row in enumerate(rows))
+    norm = max(sum(abs(v) for v in row.values()) for row in system)
     largest = float(np.max(np.abs(steps))) if len(steps) else 1.0
     return norm * largest if np.isfinite(largest) else float("inf")
+
+
+def _variance(centred, second, first):
+    """The engine's centred variance where it solved for one, else second moment minus the squared mean."""
+    return centred if centred is not None else second - first**2
+
+
+def _vouched_digits(condition: float) -> int | None:
+    """Significant digits a float solve vouches for, from the condition estimate (None: all six shown)."""
+    if not math.isfinite(condition):
+        return 1
+    lost = condition * 4 * np.finfo(float).eps
+    digits = math.floor(-math.log10(lost)) if lost > 0 else 16
+    return None if digits >= 6 else max(digits, 1)
 
 
 def _figures(chain: RoundChain, exact: _Moments | None, decimal: _Moments, notes: list[str]):
@@ -249,9 +350,9 @@ def _figures(chain: RoundChain, exact: _Moments | None, decimal: _Moments, notes
     values_decimal = {
         "expected_net": decimal.net,
         "expected_staked": stake + decimal.staked_extra,
-        "net_variance": decimal.net_second - decimal.net**2,
+        "net_variance": _variance(decimal.net_variance, decimal.net_second, decimal.net),
         "expected_steps": decimal.steps,
-        "steps_variance": decimal.steps_second - decimal.steps**2,
+        "steps_variance": _variance(decimal.steps_variance, decimal.steps_second, decimal.steps),
     }
     if exact is not None:
         nothing_staked = stake_exact + exact.staked_extra == 0
@@ -278,44 +379,25 @@ def _figures(chain: RoundChain, exact: _Moments | None, decimal: _Moments, notes
         if not nothing_staked:
             values_exact["house_edge"] = -exact.net / staked
             values_exact["return_to_player"] = 1 + exact.net / staked
-    figures = {name: _checked(name, values_exact[name], values_decimal[name], notes) for name in order}
+    digits = _vouched_digits(decimal.condition)
+    figures = {
+        name: checked_figure(name, values_exact[name], values_decimal[name], notes, TOLERANCE, None, digits)
+        for name in order
+    }
     ends = {
-        name: _checked(f"end_probability[{name}]", exact.end[j] if exact else None, decimal.end[j], notes)
+        name: checked_figure(
+            f"end_probability[{name}]", exact.end[j] if exact else None, decimal.end[j], notes, TOLERANCE, None, digits
+        )
         for j, name in enumerate(chain.ends)
     }
+    variance = figures.get("net_variance")
+    if variance is not None and variance.exact is None and abs(variance.decimal) < decimal.resolution:
+        notes.append(
+            f"net_variance: {variance.decimal:.3g} is below what the float engine resolves here (about "
+            f"{decimal.resolution:.1g}: the outcome is all but certain); raise --exact-limit for the exact value"
+        )
+        figures["net_variance"] = Figure(None, variance.decimal, None, 1)
     return figures, ends
-
-
-def _checked(name: str, exact: Rational | None, decimal: float, notes: list[str]) -> Figure:
-    """The figure to show, with a note where the float engine disagrees with the exact one."""
-    decimal = float(decimal)
-    if exact is None:
-        if not np.isfinite(decimal):
-            notes.append(f"{name}: the float engine gave {decimal}; no exact value to fall back on")
-        elif decimal != 0 and abs(decimal) < UNRELIABLE_TINY:
-            notes.append(
-                f"{name}: the float engine gives {decimal:.3g}, so small that floating point is unreliable "
-                "(underflow); raise --exact-limit for the exact value"
-            )
-        elif name.startswith("end_probability") and decimal < 0:
-            notes.append(f"{name}: the float engine gives a negative chance ({decimal:.3g}): rounding error")
-        return Figure(None, decimal)
-    truth = to_float(exact)
-    if exact != 0 and abs(truth) < FLOAT_TINY:
-        notes.append(
-            f"{name}: the exact value is about 1e{log10_abs(exact):.0f}, below the floating-point range; the float "
-            f"engine gives {decimal!r} (underflow); the exact value stands"
-        )
-        return Figure(exact, truth)
-    gap = abs(decimal - truth)
-    limit = RELATIVE_TOLERANCE * abs(truth) if truth != 0 else ZERO_TOLERANCE
-    if not np.isfinite(decimal) or gap > limit:
-        shown = repr(truth) if np.isfinite(truth) else f"about 1e{log10_abs(exact):.0f}, beyond the float range"
-        notes.append(
-            f"numerical warning: {name}: float engine gives {decimal!r}, exact value is {shown}; "
-            "the exact value is shown"
-        )
-    return Figure(exact, truth)
 
 
 def _sum_figures(figures: list[Figure]) -> Figure:
@@ -342,6 +424,6 @@ def _by_step(
 
     exact_values, decimals = end_chances_by_step(chain, rounds, exact, notes, should_stop)
     return {
-        name: _checked(f"end_probability_by_step[{name}]", exact_values[j], decimals[j], notes)
+        name: checked_figure(f"end_probability_by_step[{name}]", exact_values[j], decimals[j], notes, TOLERANCE)
         for j, name in enumerate(chain.ends)
     }

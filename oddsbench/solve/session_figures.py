@@ -1,8 +1,8 @@
 """A session's named figures and final distribution from raw solutions, exact beside decimal.
 
 Exact values are the truth where they exist; each decimal from the float engine is checked
-against them (a gap over the tolerance becomes a note), and values at the bottom of the float
-range are named as possible rounding plateaus.
+against them by the one rule of solve/checked.py, and values at the bottom of the float range are
+named once per figure as possible rounding plateaus.
 """
 
 from __future__ import annotations
@@ -14,9 +14,12 @@ import numpy as np
 from oddsbench.chain.bankroll import FLOOR, GOAL, KIND_NAMES, RUIN, BankrollChain
 from oddsbench.model.figure import FLOAT_TINY, Figure
 from oddsbench.model.numbers import QQ, Rational, to_float
+from oddsbench.solve.checked import Tolerance, checked_figure
 
-RELATIVE_TOLERANCE = 1e-8
-ZERO_TOLERANCE = 1e-11
+# durations lose digits with the grid's length (NUMERICS.md); underflow is named once per figure
+# (underflow_notes), not once per final bankroll
+TOLERANCE = Tolerance(relative=1e-8, absolute=1e-11, small_notes=False)
+ROUNDS_TOLERANCE = Tolerance(relative=1e-6, absolute=1e-11, small_notes=False)
 TINY = 1e-290
 
 
@@ -89,7 +92,8 @@ def session_figures(chain, exact, decimal, notes, horizon, prefix: str = ""):
     digits = decimal.get("digits", {})
     for name, (ex, dec, log10) in named.items():
         key = f"{prefix}_{name}" if prefix else name
-        figures[key] = _checked(key, ex, dec, notes, name, log10, digits.get(name))
+        tolerance = ROUNDS_TOLERANCE if "rounds" in name else TOLERANCE
+        figures[key] = checked_figure(key, ex, dec, notes, tolerance, log10, digits.get(name))
     final = _distribution(chain, exact, absorbed_d, playing_d, notes, prefix, absorbed_log10)
     return figures, final
 
@@ -130,35 +134,9 @@ def _distribution(chain, exact, absorbed_d, playing_d, notes, prefix, absorbed_l
     for (value, kind), (ex, dec, log10) in sorted(rows.items()):
         if (ex is not None and ex == 0) or (ex is None and dec == 0.0 and log10 is None):
             continue
-        figure = _checked(f"{prefix or 'final'} bankroll {value}", ex, dec, notes, "probability", log10)
+        figure = checked_figure(f"{prefix or 'final'} bankroll {value}", ex, dec, notes, TOLERANCE, log10)
         out.append(FinalValue(value, grid.money(value), kind, figure))
     return tuple(out)
-
-
-def _checked(
-    name: str,
-    exact: Rational | None,
-    decimal: float,
-    notes: list[str],
-    kind: str,
-    log10: float | None = None,
-    digits: int | None = None,
-) -> Figure:
-    if exact is None:
-        if not np.isfinite(decimal):
-            notes.append(f"{name}: the float engine gave {decimal}; no exact value to fall back on")
-        if log10 is not None:
-            return Figure(None, 0.0, log10)
-        return Figure(None, float(decimal), None, digits)
-    truth = to_float(exact)
-    tolerance = 1e-6 if "rounds" in kind else RELATIVE_TOLERANCE
-    limit = max(tolerance * abs(truth), ZERO_TOLERANCE * (1 if "probability" in kind else max(1.0, abs(truth))))
-    if not np.isfinite(decimal) or abs(decimal - truth) > limit:
-        notes.append(
-            f"numerical warning: {name}: float engine gives {decimal!r}, exact value is {truth!r}; "
-            "the exact value is shown"
-        )
-    return Figure(exact, truth)
 
 
 def goal_series_of(chain: BankrollChain, series, series_exact, series_log10=None):

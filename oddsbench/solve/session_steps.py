@@ -60,8 +60,7 @@ def forward_exact(chain: BankrollChain, steps: int, should_stop) -> dict | None:
     rounds = second = spent = QQ(0)
     clock = ExactClock(should_stop, steps, "stepping")
     for step in range(steps):
-        if step % POLL_STEPS == 0:
-            clock.poll(step)
+        clock.tick(step)
         if not d:
             break
         alive = sum(d.values(), QQ(0))
@@ -110,7 +109,6 @@ def capped_series_exact(chain: BankrollChain, steps: int, should_stop) -> list |
     h = [QQ(0)] * n
     clock = ExactClock(should_stop, steps, "stepping")
     for step in range(steps):
-        if step % POLL_STEPS == 0:
-            clock.poll(step)
+        clock.tick(step)
         h = [r_goal[i] + sum((p * h[j] for j, p in q_rows[i].items()), QQ(0)) for i in range(n)]
     return h

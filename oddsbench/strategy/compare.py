@@ -123,6 +123,12 @@ def _shared_deal(ruleset: Ruleset, starts: Sequence[str], max_states: int | None
     return lambda start: dataclasses.replace(whole, start=start) if start in names else None
 
 
+def play_chain(ruleset: Ruleset, start: str | None, strategy: str | None, max_states: int = DEFAULT_MAX_STATES):
+    """The round chain of one play (a start state and a named strategy or none), dealt out when a deck game."""
+    played = starting_at(ruleset, start, max_states)
+    return build_round_chain(played, policy_of(played, strategy), max_states)
+
+
 def with_hands(ruleset: Ruleset, figures: RoundFigures) -> RoundFigures:
     """A round dealt in one draw of k (a deck game): each end's chance also as a count of hands."""
     draw = single_draw(ruleset)

@@ -11,6 +11,7 @@ from __future__ import annotations
 import itertools
 from dataclasses import dataclass
 
+from oddsbench.model.figure import all_exact
 from oddsbench.model.numbers import text
 from oddsbench.sweep.spec import SweepSpec
 
@@ -46,7 +47,7 @@ class PointResult:
 
     @property
     def exact(self) -> bool:
-        return self.error is None and all(exact is not None for _, exact, _ in self.figures)
+        return self.error is None and all_exact((name, exact) for name, exact, _ in self.figures)
 
 
 def grid_points(spec: SweepSpec) -> list[Point]:

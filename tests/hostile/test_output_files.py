@@ -37,3 +37,19 @@ def test_report_to_a_name_at_the_length_limit(capsys, tmp_path):
     code, _, err = run_cli(capsys, "report", PASS_LINE, "-o", tmp_path / name)
     assert code == 0, err
     assert os.listdir(tmp_path) == [name]
+
+
+def test_an_output_that_cannot_be_written_is_refused_before_the_work(capsys, tmp_path):
+    """The output is checked first: the ruleset is never read (a missing one would be named)."""
+    taken = tmp_path / "taken.csv"
+    taken.write_text("someone's figures")
+    missing = str(tmp_path / "missing.toml")
+    refusal = f"oddsbench: {taken}: already exists and was not overwritten (add --force to replace it)"
+    for argv in (
+        ("report", missing, "-o", taken),
+        ("session", missing, "--goal", "20", "--bankroll", "10", "--series-csv", taken),
+    ):
+        code, _, err = run_cli(capsys, *argv)
+        assert code == 2
+        assert err.splitlines() == [refusal]
+    assert taken.read_text() == "someone's figures"

@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+import pytest
+
 from oddsbench.model.load import read_ruleset_text
 from oddsbench.tui.screens.dialogs import Choose
 from tests.tui.helpers import app_on, cell, copy_ruleset, edit_field, figure, go_to_state, settle
@@ -266,21 +268,35 @@ def long_walk(states: int) -> str:
     return "\n".join(lines) + "\n"
 
 
-async def test_escape_cancels_a_long_solve_and_keeps_the_workbench_responsive(tmp_path, monkeypatch):
+@pytest.mark.parametrize("held_in", ["factorisation", "solve"])
+async def test_escape_cancels_a_long_solve_and_keeps_the_workbench_responsive(tmp_path, monkeypatch, held_in):
+    """Esc stops the exact engine in its factorisation or, once factored, in its solves (the rows of
+    a solve ask too), and nothing half-solved is shown."""
     import asyncio
     import threading
 
+    from oddsbench.solve.linear import ExactSparseLU
     from oddsbench.tui import analysis
     from oddsbench.tui.analysis import SolveCancelled
 
     asked, released, ended, outcome = threading.Event(), threading.Event(), threading.Event(), []
     solve = analysis.solve_round_text
+    solving = threading.Event()
+    exact_solve = ExactSparseLU.solve
+
+    def noted_solve(self, rhs):
+        solving.set()
+        return exact_solve(self, rhs)
+
+    monkeypatch.setattr(ExactSparseLU, "solve", noted_solve)
 
     def held_solve(ruleset, strategy, should_stop=None):
-        """The workbench's round solve, held at the engine's first cancellation check until Esc is pressed,
-        recording whether it stopped by cancellation or ran to its end."""
+        """The workbench's round solve, held at the engine's first cancellation check (in the phase
+        ``held_in``) until Esc is pressed, recording whether it stopped by cancellation or ran to its end."""
 
         def held_check() -> bool:
+            if held_in == "solve" and not solving.is_set():
+                return should_stop()
             asked.set()
             released.wait(HANG_GUARD)
             return should_stop()
@@ -297,7 +313,9 @@ async def test_escape_cancels_a_long_solve_and_keeps_the_workbench_responsive(tm
 
     monkeypatch.setattr(analysis, "solve_round_text", held_solve)
     path = tmp_path / "walk.toml"
-    path.write_text(long_walk(3000))  # an exact solve of many seconds, even on a fast machine
+    # held at its first check, the engine needs no size to be cancelled there; a long factorisation
+    # could give way to decimals on a loaded machine (the work budget) and never reach a solve
+    path.write_text(long_walk(3000 if held_in == "factorisation" else 300))
     app = app_on(path, tmp_path)
     async with app.run_test(size=(100, 30)) as pilot:
         assert await asyncio.to_thread(asked.wait, HANG_GUARD)  # the engine is inside the solve

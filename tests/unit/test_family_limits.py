@@ -6,7 +6,7 @@ from __future__ import annotations
 
 import pytest
 
-from oddsbench.model import families
+from oddsbench.model import family_index
 from oddsbench.model.load import read_ruleset_text
 
 HEAD = '[ruleset]\ntitle = "t"\nstart = "end"\n[states.end]\n'
@@ -14,7 +14,7 @@ HEAD = '[ruleset]\ntitle = "t"\nstart = "end"\n[states.end]\n'
 
 @pytest.fixture
 def small_budget(monkeypatch):
-    monkeypatch.setattr(families, "MAX_FAMILY_COMBINATIONS", 1_000)
+    monkeypatch.setattr(family_index, "MAX_FAMILY_COMBINATIONS", 1_000)
 
 
 def errors(text: str) -> list[str]:

@@ -15,10 +15,10 @@ import pytest
 from oddsbench.chain.round_chain import build_round_chain
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.load import load_ruleset_text
-from oddsbench.model.numbers import QQ
+from oddsbench.model.numbers import QQ, to_float
 from oddsbench.model.ruleset import Outcome, Ruleset, State
 from oddsbench.solve.cancel import SolveCancelled
-from oddsbench.solve.linear import ExactTooLarge, factor_exact, identity_minus
+from oddsbench.solve.linear import ExactTooLarge, costs, factor_exact, identity_minus
 from oddsbench.solve.round import solve_round
 
 
@@ -74,15 +74,16 @@ outcomes = [{ to = "a", prob = "1 - 1/10^30" }, { to = "end", pay = 1 }]
 """
 
 
-def test_a_stay_probability_that_rounds_to_one_falls_back_on_the_exact_values():
-    figures = solve_round(build_round_chain(load_ruleset_text(STICKY, "sticky.toml")))
-    assert figures.figures["expected_steps"].exact == QQ(10) ** 30  # geometric: 1 / (1/10^30)
-    assert figures.figures["expected_steps"].decimal == 1e30
-    assert any("float engine cannot solve this chain" in note for note in figures.notes)
+def test_a_stay_probability_that_rounds_to_one_is_solved_from_the_exact_chance_of_leaving():
+    # 1 - (1 - 10^-30) is 0 in floats; the diagonal of I - Q is the exact 10^-30, rounded once
+    figures = solve_round(build_round_chain(load_ruleset_text(STICKY, "sticky.toml")), exact_limit=0)
+    assert figures.figures["expected_steps"].decimal == pytest.approx(1e30, rel=1e-15)  # geometric: 1 / 10^-30
+    assert not any("float engine cannot solve this chain" in note for note in figures.notes)
 
 
-def test_a_stay_probability_that_rounds_to_one_without_exact_values_is_one_clear_error():
-    chain = build_round_chain(load_ruleset_text(STICKY, "sticky.toml"))
+def test_a_chance_of_leaving_below_the_float_range_without_exact_values_is_one_clear_error():
+    sticky = STICKY.replace("1/10^30", "1/10^400")  # the chance of leaving is 0 in floats
+    chain = build_round_chain(load_ruleset_text(sticky, "sticky.toml"))
     with pytest.raises(OddsbenchError, match="float engine cannot solve this chain.*raise --exact-limit"):
         solve_round(chain, exact_limit=0)
 
@@ -119,10 +120,12 @@ def test_a_long_exact_solve_is_cancelled_at_the_check_that_asks():
     assert len(calls) == 2  # checked every 64 rows: stopped at the second check
 
 
-def test_the_factorisation_asks_whether_to_stop_every_64_rows():
+def test_the_factorisation_asks_whether_to_stop_every_64_rows(monkeypatch):
     # How prompt a cancel is, in work rather than seconds (the time is a benchmark:
     # tests/benchmarks/bench_cancellation.py): rows 0, 64, ..., 960 of 999 ask (a walk's rows
-    # are too light for the every-4,096-operations check to add any).
+    # are too light for the every-4,096-operations check to add any). Rows between ask too once
+    # costs.POLL_SECONDS has passed (tests/unit/test_exact_solve_cancel.py); never here.
+    monkeypatch.setattr(costs, "POLL_SECONDS", 3600.0)
     rows = identity_minus(build_round_chain(walk(1_000, 500, QQ(18, 37))).q_rows())
     asked = []
     factor_exact(rows, should_stop=lambda: asked.append(len(asked)) or False)
@@ -134,3 +137,56 @@ def test_a_long_step_by_step_run_is_cancelled():
     stop_after = iter(range(3, -1, -1))
     with pytest.raises(SolveCancelled):
         solve_round(chain, rounds=10_000_000, should_stop=lambda: next(stop_after, 0) == 0)
+
+
+# Issue 16, "decimals that are wrong without a word": each break, decimals only (exact_limit=0).
+
+
+def test_a_variance_below_what_floats_resolve_is_shown_with_one_digit_and_a_note():
+    # Net is +-2,000 and the goal chance about 1.1e-47 (Feller XIV.2), so the variance is about
+    # 4000^2 x 1.1e-47 = 1.75e-40; E[X^2] - E[X]^2 gave 6.74e-06 here without a word.
+    exact = solve_round(build_round_chain(walk(400, 200, QQ(18, 37))))
+    decimal = solve_round(build_round_chain(walk(4_000, 2_000, QQ(18, 37))), exact_limit=0)
+    assert exact.figures["net_variance"].decimal == pytest.approx(
+        to_float(exact.figures["net_variance"].exact), rel=1e-9
+    )
+    variance = decimal.figures["net_variance"]
+    assert variance.digits == 1 and abs(variance.decimal) < 1e-17
+    assert any(
+        note.startswith("net_variance:") and "below what the float engine resolves" in note for note in decimal.notes
+    )
+
+
+def test_a_variance_of_a_small_walk_in_floats_is_centred_and_right():
+    # 40 states, goal chance (r^20 - 1)/(r^40 - 1) with r = 19/18: floats agree with the exact value
+    exact = solve_round(build_round_chain(walk(40, 20, QQ(18, 37))))
+    decimal = solve_round(build_round_chain(walk(40, 20, QQ(18, 37))), exact_limit=0)
+    for name in ("net_variance", "steps_variance"):
+        truth = to_float(exact.figures[name].exact)
+        assert decimal.figures[name].decimal == pytest.approx(truth, rel=1e-10), name
+        assert decimal.figures[name].digits is None
+
+
+def test_a_stay_chance_a_few_ulps_below_one_keeps_every_figure():
+    # Stay 1 - 3e-16: leaving wins 1 w.p. 1/3 and loses 1 w.p. 2/3, so the house edge is exactly
+    # 1/3 and the end chances are 1/3 and 2/3 (standard geometric trials). Taking 1 - q_aa in
+    # floats gave 0.30024 and end chances summing to 0.90; the chance of leaving is taken whole.
+    text = """[ruleset]
+title = "sticky few ulps"
+start = "a"
+[states.a]
+outcomes = [
+  { to = "a", prob = "1 - 3/10^16" },
+  { to = "won", prob = "1/10^16", pay = 1 },
+  { to = "lost", prob = "2/10^16", pay = -1 },
+]
+[states.won]
+[states.lost]
+"""
+    figures = solve_round(build_round_chain(load_ruleset_text(text, "few-ulps.toml")), exact_limit=0)
+    assert figures.figures["house_edge"].decimal == pytest.approx(1 / 3, rel=1e-15)
+    ends = figures.end_probability
+    assert ends["won"].decimal == pytest.approx(1 / 3, rel=1e-15)
+    assert ends["lost"].decimal == pytest.approx(2 / 3, rel=1e-15)
+    assert ends["won"].decimal + ends["lost"].decimal == pytest.approx(1.0, rel=1e-15)
+    assert figures.figures["expected_steps"].decimal == pytest.approx(1e16 / 3, rel=1e-15)

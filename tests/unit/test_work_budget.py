@@ -137,7 +137,7 @@ def test_families_too_costly_to_expand_are_refused_before_expanding():
 
 
 def test_a_state_limit_stops_a_family_as_it_expands():
-    from oddsbench.model.families import state_limit
+    from oddsbench.model.family_budget import state_limit
 
     with state_limit(10):
         result = read_ruleset_text(files.many_lets(), "f.toml")

@@ -59,6 +59,8 @@ class ExactSparseLU:
         for i in range(size):
             if i % POLL_ROWS == 0:
                 clock.poll(i)
+            else:
+                clock.tick(i)
             row = {j: v for j, v in rows[i].items() if v != 0}
             pending = [j for j in row if j < i]
             heapq.heapify(pending)
@@ -67,7 +69,7 @@ class ExactSparseLU:
                 operations += len(upper_maps[pending[0]]) + 1
                 if operations > POLL_OPERATIONS:
                     operations = 0
-                    clock.poll(i)
+                    clock.tick(i)
                 k = heapq.heappop(pending)
                 value = row.pop(k, None)
                 if value is None or value == 0:
@@ -116,16 +118,14 @@ class ExactSparseLU:
         clock = self._clock("solve")
         y: list[Rational] = [QQ(0)] * size
         for i in range(size):
-            if i % POLL_ROWS == 0:
-                clock.poll(i // 2)
+            clock.tick(i // 2)
             total = rhs[i]
             for k, factor in self.lower[i]:
                 total -= factor * y[k]
             y[i] = total
         x: list[Rational] = [QQ(0)] * size
         for i in range(size - 1, -1, -1):
-            if i % POLL_ROWS == 0:
-                clock.poll((2 * size - i) // 2)
+            clock.tick((2 * size - i) // 2)
             total = y[i]
             for j, u in self.upper[i]:
                 total -= u * x[j]
@@ -142,16 +142,14 @@ class ExactSparseLU:
         clock = self._clock("solve")
         z: list[Rational] = list(rhs)
         for i in range(size):
-            if i % POLL_ROWS == 0:
-                clock.poll(i // 2)
+            clock.tick(i // 2)
             value = z[i] / self.pivots[i]
             z[i] = value
             if value != 0:
                 for j, u in self.upper[i]:
                     z[j] -= u * value
         for i in range(size - 1, -1, -1):
-            if i % POLL_ROWS == 0:
-                clock.poll((2 * size - i) // 2)
+            clock.tick((2 * size - i) // 2)
             value = z[i]
             if value != 0:
                 for k, factor in self.lower[i]:

@@ -1,4 +1,4 @@
-"""The list on the left: the round's setup, its parameters, then every state of the file."""
+"""The list on the left: the round's setup, its parameters, session and deck, then every state of the file."""
 
 from __future__ import annotations
 
@@ -14,6 +14,7 @@ from oddsbench.tui.plain import plain
 SETUP = "setup:"
 PARAMS = "params:"
 SESSION = "session:"
+DECK = "deck:"
 STATE = "state:"
 
 
@@ -49,6 +50,7 @@ class Navigator(OptionList):
             Option(Text("Round setup", style="bold"), id=SETUP),
             Option(Text(f"Parameters ({len(document.params())})", style="bold"), id=PARAMS),
             Option(Text("Session", style="bold"), id=SESSION),
+            Option(Text("Deck", style="bold"), id=DECK),
             None,
         ]
         for name in document.state_names():

@@ -13,6 +13,7 @@ from oddsbench.model.document import OUTCOME_FIELDS, OutcomeList, RulesetDocumen
 from oddsbench.model.errors import Problem
 from oddsbench.model.places import place_of
 from oddsbench.tui.plain import plain
+from oddsbench.tui.widgets.draw_editor import DrawEditor
 from oddsbench.tui.widgets.edits import EditRequested
 from oddsbench.tui.widgets.fields import Field, FieldRow
 
@@ -71,6 +72,7 @@ class StateEditor(Vertical):
     def compose(self) -> ComposeResult:
         yield Static("", id="state-heading", classes="editor-heading")
         yield Static("", id="state-message", classes="field-message")
+        yield DrawEditor(id="draw-editor")
         yield OutcomeTable(cursor_type="row", id="outcomes")
         with Vertical(id="outcome-form"):
             for field in OUTCOME_FIELDS:
@@ -120,6 +122,7 @@ class StateEditor(Vertical):
             heading.append(f"  {len(self.rows)} outcomes", style="dim")
         self.query_one("#state-heading", Static).update(heading)
         self.set_class(kind == "end", "-end")
+        self.query_one(DrawEditor).show(document, state, problems)
         self._fill_table()
         self._load_form()
         self._show_state_problems()
@@ -177,7 +180,7 @@ class StateEditor(Vertical):
         result_row.show_problems([p for p in self._problems_at(None, "result")])
 
     def _show_state_problems(self) -> None:
-        general = [p for p in self._problems_at(None, None) if place_of(p).field != "result"]
+        general = [p for p in self._problems_at(None, None) if place_of(p).field not in ("result", "draw")]
         message = self.query_one("#state-message", Static)
         message.update(plain("\n".join(str(p) for p in general)))
         message.set_class(any(p.is_error for p in general), "-error")

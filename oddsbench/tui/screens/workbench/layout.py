@@ -10,6 +10,7 @@ from textual.widgets import ContentSwitcher, Footer, ProgressBar, Static, TextAr
 
 from oddsbench.tui import analysis
 from oddsbench.tui.widgets.cautions import CautionsLine
+from oddsbench.tui.widgets.deck_editor import DeckEditor
 from oddsbench.tui.widgets.detail import DetailPane
 from oddsbench.tui.widgets.figure_grid import FigureGrid
 from oddsbench.tui.widgets.figures import SummaryLine
@@ -42,6 +43,7 @@ def workbench_layout() -> ComposeResult:
                     yield SetupEditor(id="setup-editor")
                     yield ParamsEditor(id="params-editor")
                     yield SessionEditor(id="session-editor")
+                    yield DeckEditor(id="deck-editor")
                     yield StateEditor(id="state-editor")
                 yield ProblemsPanel(id="problems")
             with Vertical(id="side-figures"):

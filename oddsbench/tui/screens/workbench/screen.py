@@ -46,9 +46,10 @@ from oddsbench.tui.screens.workbench.layout import (
 )
 from oddsbench.tui.screens.workbench.recovery import RecoveryCopy
 from oddsbench.tui.screens.workbench.saving import ask_about_disk_change, ask_save_path, saved_message
+from oddsbench.tui.widgets.deck_editor import DeckEditor
 from oddsbench.tui.widgets.edits import EditRequested
 from oddsbench.tui.widgets.fields import Field
-from oddsbench.tui.widgets.navigator import PARAMS, SESSION, SETUP, STATE, Navigator
+from oddsbench.tui.widgets.navigator import DECK, PARAMS, SESSION, SETUP, STATE, Navigator
 from oddsbench.tui.widgets.problems import ProblemsPanel
 from oddsbench.tui.widgets.setup_editor import ParamsEditor, SessionEditor, SetupEditor
 from oddsbench.tui.widgets.state_editor import StateEditor
@@ -180,6 +181,10 @@ class WorkbenchScreen(FigureViews, Screen):
         elif entry == SESSION:
             editors.current = "session-editor"
             self.query_one(SessionEditor).show(document, self._session_problem())
+        elif entry == DECK:
+            editors.current = "deck-editor"
+            deck = self.reading.ruleset.deck if self.reading and self.reading.ruleset else None
+            self.query_one(DeckEditor).show(document, deck, problems)
         elif entry.startswith(STATE) and entry[len(STATE) :] in document.state_names():
             editors.current = "state-editor"
             self.query_one(StateEditor).show(document, entry[len(STATE) :], problems)
@@ -422,7 +427,11 @@ class WorkbenchScreen(FigureViews, Screen):
             # none), else to the list; the focus chain holds exactly the widgets that can take focus now.
             if isinstance(self.focused, Field):
                 editor = self.query_one("#editors", ContentSwitcher).current
-                target = {"state-editor": "#outcomes", "params-editor": "#params-table"}.get(editor)
+                target = {
+                    "state-editor": "#outcomes",
+                    "params-editor": "#params-table",
+                    "deck-editor": "#deck-counts",
+                }.get(editor)
                 table = self.query_one(target) if target is not None else None
                 if table is not None and table in self.focus_chain:
                     table.focus()
