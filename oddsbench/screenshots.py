@@ -51,10 +51,21 @@ SCENES = tuple(
 ) + (Scene("wide-160x40", "pass-line.toml", (160, 40), ("down", "enter")),)
 
 
+async def wait_for_workers(app) -> None:
+    """Wait until no background job runs. A job cancelled by a newer one (the workbench's jobs are
+    exclusive) is not an error; a job that failed is raised."""
+    from textual.worker import WorkerFailed
+
+    while pending := [worker for worker in app.workers if not worker.is_finished]:
+        for outcome in await asyncio.gather(*(worker.wait() for worker in pending), return_exceptions=True):
+            if isinstance(outcome, WorkerFailed):
+                raise outcome
+
+
 async def _settle(pilot) -> None:
     for _ in range(3):
         await pilot.pause()
-        await pilot.app.workers.wait_for_complete()
+        await wait_for_workers(pilot.app)
     await pilot.pause()
 
 
@@ -67,7 +78,13 @@ async def take(scene: Scene, folder: Path, scratch: Path) -> Path:
             await pilot.press(key)
             await _settle(pilot)
         await _settle(pilot)
-        return Path(app.save_screenshot(f"{scene.name}.svg", str(folder)))
+        path = Path(app.save_screenshot(f"{scene.name}.svg", str(folder)))
+    # Spaces are drawn as written: without this, SVG viewers drop the spaces that begin a run of
+    # text ("State 'first-roll'  3 outcomes" would read "State 'first-roll'3 outcomes").
+    path.write_text(
+        path.read_text(encoding="utf-8").replace("<svg ", '<svg xml:space="preserve" ', 1), encoding="utf-8"
+    )
+    return path
 
 
 async def take_all(

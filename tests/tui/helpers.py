@@ -5,6 +5,7 @@ from __future__ import annotations
 import shutil
 from pathlib import Path
 
+from oddsbench.screenshots import wait_for_workers
 from oddsbench.tui.app import WorkbenchApp, create_app
 
 ROOT = Path(__file__).resolve().parents[2]
@@ -24,9 +25,9 @@ def app_on(path: Path | None, folder: Path) -> WorkbenchApp:
 async def settle(pilot) -> None:
     """Let pending messages run and the background read and solve finish."""
     await pilot.pause()
-    await pilot.app.workers.wait_for_complete()
+    await wait_for_workers(pilot.app)
     await pilot.pause()
-    await pilot.app.workers.wait_for_complete()
+    await wait_for_workers(pilot.app)
     await pilot.pause()
 
 

@@ -32,6 +32,7 @@ from textual.dom import DOMNode
 
 import oddsbench.tui
 from oddsbench.model.recovery import ENV_VAR as RECOVERY_ENV
+from oddsbench.screenshots import wait_for_workers
 from oddsbench.tui.app import create_app
 from tests.tui.helpers import RULESETS
 
@@ -91,7 +92,7 @@ START_VIEWS = ("f2", "f3", "f4", "f5", "f6", "f7")
 
 async def _settle(pilot) -> None:
     await pilot.pause()
-    await pilot.app.workers.wait_for_complete()
+    await wait_for_workers(pilot.app)
     await pilot.pause()
 
 
