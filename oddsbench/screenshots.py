@@ -48,7 +48,10 @@ SCENES = tuple(
     Scene(f"{name}-{width}x{height}", ruleset, (width, height), keys)
     for name, ruleset, keys in VIEWS
     for width, height in SIZES
-) + (Scene("wide-160x40", "pass-line.toml", (160, 40), ("down", "enter")),)
+) + (
+    Scene("wide-160x40", "pass-line.toml", (160, 40), ("down", "enter")),
+    Scene("deck-120x40", "three-card-hands.toml", (120, 40), ("up", "enter", *["tab"] * 6, "down", "right", "minus")),
+)
 
 
 async def wait_for_workers(app) -> None:

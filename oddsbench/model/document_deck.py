@@ -132,13 +132,13 @@ class DeckDocument:
     def remove_card(self, rank: str, suit: str) -> None:
         """One copy of ``RANK of SUIT`` out of the deck: one more entry in ``remove``."""
         deck = self._deck(create=True)
-        removed = list(deck.get("remove", []))
-        deck["remove"] = _names(", ".join([*map(str, removed), f"{rank} of {suit}"]))
+        removed = self._removed(deck)
+        deck["remove"] = _names(", ".join([*removed, f"{rank} of {suit}"]))
 
     def return_card(self, rank: str, suit: str) -> None:
         """One copy of ``RANK of SUIT`` back: the last matching entry of ``remove`` goes."""
         deck = self._deck(create=True)
-        removed = [str(name) for name in deck.get("remove", [])]
+        removed = self._removed(deck)
         card = f"{rank} of {suit}"
         if card not in removed:
             if rank in removed:
@@ -186,6 +186,13 @@ class DeckDocument:
         if deck is not None and not isinstance(deck, dict):
             raise DocumentError("[deck] is not a table in this file; fix it in the source first")
         return deck
+
+    @staticmethod
+    def _removed(deck: Any) -> list[str]:
+        removed = deck.get("remove", [])
+        if not isinstance(removed, list):
+            raise DocumentError("remove is not a list of cards: fix it in the remove field first")
+        return [str(name) for name in removed]
 
     def _rewrite_items(self, items: dict[str, Any]) -> None:
         """An inline ``items`` written again whole in the files' style (tomlkit would leave ``1}``); a

@@ -183,39 +183,67 @@ def equation(f: RationalFunction, target: Rational) -> tuple[int, ...]:
 
 
 def solutions(f: RationalFunction, target: Rational) -> tuple[Solution, ...] | None:
-    """Every real solution of f(x) = target in increasing order; None when f is the constant ``target``."""
-    from flint import fmpz_poly
+    """Every real solution of f(x) = target in increasing order; None when f is the constant ``target``.
+
+    Factoring and root isolation run inside flint, where Ctrl-C and a cancel cannot reach: they are
+    estimated against the work budget first and, past a small degree, run detached (as the ruin
+    engines' roots do), so the workbench's Esc and the deadline stop them."""
+    from oddsbench.solve.ruin.roots import detached_roots, require_root_budget
 
     coefficients = equation(f, target)
     if coefficients == (0,):
         return None
     if len(coefficients) == 1:
         return ()
+    require_root_budget(coefficients, "equation f(x) = target")
+    factors = detached_roots(coefficients, _irreducible_factors, (coefficients,), "factoring f(x) = target")
     found: list[Solution] = []
-    _, factors = fmpz_poly(list(coefficients)).factor()
-    for factor, _multiplicity in factors:
-        low_first = tuple(int(c) for c in factor.coeffs())
+    for low_first in factors:
         if len(low_first) == 2:
             root = QQ(-low_first[0], low_first[1])
             if poly_value(f.denominator, root) != 0:
                 found.append(Solution(root, low_first, 0, certified_exact(root, ROOT_DIGITS), to_float(root)))
             continue
-        for index, ball in enumerate(_real_root_balls(factor)):
+        for index, ball in enumerate(_real_root_balls(low_first)):
             found.append(_algebraic(low_first, index, ball))
     return tuple(sorted(found, key=lambda s: s.approximate))
 
 
-def _real_root_balls(factor) -> list[Any]:
-    """The real roots of an irreducible integer polynomial as proved arb balls, smallest first."""
-    roots = [root.real for root, _m in factor.complex_roots() if root.imag == 0]
-    return sorted(roots, key=lambda ball: float(ball.mid()))
+def _irreducible_factors(low_first: tuple[int, ...]) -> list[tuple[int, ...]]:
+    """The distinct irreducible integer factors (lowest power first) of a polynomial: plain integers,
+    so that a detached child can send them back."""
+    from flint import fmpz_poly
+
+    _, factors = fmpz_poly(list(low_first)).factor()
+    return [tuple(int(c) for c in factor.coeffs()) for factor, _multiplicity in factors]
+
+
+def _real_root_balls(low_first: tuple[int, ...]) -> list[Any]:
+    """The real roots of an irreducible integer polynomial as proved arb balls at the current
+    precision, smallest first (found detached when the degree is large)."""
+    import flint
+
+    from oddsbench.solve.ruin.roots import detached_roots
+
+    prec = flint.ctx.prec
+    texts = detached_roots(low_first, _real_root_texts, (low_first, prec), "finding the roots of f(x) = target")
+    return [flint.arb(found) for found in texts]
+
+
+def _real_root_texts(low_first: tuple[int, ...], prec: int) -> list[str]:
+    """``_real_root_balls`` as text (arb balls do not pickle), each enclosing its ball."""
+    import flint
+
+    from oddsbench.solve.ruin.roots import ball_text
+
+    flint.ctx.prec = prec
+    roots = [root.real for root, _m in flint.fmpz_poly(list(low_first)).complex_roots() if root.imag == 0]
+    return [ball_text(ball, prec) for ball in sorted(roots, key=lambda ball: float(ball.mid()))]
 
 
 def _algebraic(low_first: tuple[int, ...], index: int, ball) -> Solution:
-    from flint import fmpz_poly
-
     def compute():
-        return _real_root_balls(fmpz_poly(list(low_first)))[index]
+        return _real_root_balls(low_first)[index]
 
     sharp, _ = with_retries(compute, ROOT_DIGITS, 1, lambda b: enough(b, ROOT_DIGITS))
     with precision(bits_for(ROOT_DIGITS) * 2):
@@ -230,10 +258,10 @@ def sign_at(low_first: Sequence[Rational], solution: Solution) -> int | None:
     if solution.exact is not None:
         value = poly_value([QQ(c) if not isinstance(c, int) else c for c in low_first], solution.exact)
         return (value > 0) - (value < 0)
-    from flint import arb, fmpq, fmpz_poly
+    from flint import arb, fmpq
 
     with precision(bits_for(ROOT_DIGITS) * 4):
-        root = _real_root_balls(fmpz_poly(list(solution.polynomial)))[solution.index]
+        root = _real_root_balls(solution.polynomial)[solution.index]
         total = arb(0)
         for c in reversed(low_first):
             total = total * root + arb(fmpq(numerator(c), denominator(c)))

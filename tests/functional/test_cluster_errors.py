@@ -103,7 +103,7 @@ def test_a_scheduler_without_workers_is_reported_within_the_timeout():
     from distributed import LocalCluster  # a test dependency (the test extras): a missing one fails here
 
     cluster = LocalCluster(
-        n_workers=0, processes=False, protocol="tcp", host="127.0.0.1", scheduler_port=0, dashboard_address=None
+        n_workers=0, processes=False, protocol="tcp", host="127.0.0.1", scheduler_port=0, dashboard_address=":0"
     )
     try:
         message, seconds = attempt(cluster.scheduler_address)

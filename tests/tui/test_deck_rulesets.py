@@ -152,3 +152,16 @@ async def test_a_and_d_add_and_delete_items_from_the_keyboard(tmp_path):
         await pilot.press("down", "down", "d")
         await settle(pilot)
         assert 'items = { pick = "picks", other = "80 - picks" }' in app.workbench.session.text
+
+
+async def test_a_deck_of_items_has_copies_too(tmp_path):
+    app = app_on(copy_ruleset("keno-pick-5.toml", tmp_path), tmp_path)
+    async with app.run_test(size=(120, 40)) as pilot:
+        await settle(pilot)
+        await go_to_entry(pilot, "deck:")
+        assert not app.workbench.query_one("#field-deck-ranks").parent.display
+        await type_into(pilot, "field-deck-copies", "2")
+        assert "160 items (pick 10, other 150)" in str(app.workbench.query_one("#deck-summary").render())
+        await type_into(pilot, "field-deck-copies", "0")
+        row = app.workbench.query_one("#field-deck-copies").parent
+        assert "whole number from 1" in str(row.query_one(".field-message").render())

@@ -97,3 +97,58 @@ def test_a_natural_from_six_decks_is_192_in_4043():
     # first principles: 2 x (24/312) x (96/311), an ace and a ten-valued card in either order
     _, figures = ends("dealer-six-decks-stands-soft-17.toml")
     assert figures.end_probability["blackjack"].exact == QQ(192, 4043)
+
+
+# The bundled paytables (invented; pays as the files' comment blocks list them) against the published
+# counts above: the house edge is minus the expected net, sum(pay x hands) / all hands.
+THREE_CARD_PAYS = {"straight-flush": 40, "three-of-a-kind": 30, "straight": 6, "flush": 4, "pair": 1, "high-card": -1}
+FIVE_CARD_PAYS = {
+    "straight-flush": 200,
+    "four-of-a-kind": 50,
+    "full-house": 20,
+    "flush": 12,
+    "straight": 10,
+    "three-of-a-kind": 8,
+    "two-pair": 4,
+    "pair": 0,
+    "high-card": -1,
+}
+THREE_CARD_COUNTS = (48, 52, 720, 1_096, 3_744, 16_440)  # standard combinatorics, first principles
+FIVE_CARD_COUNTS = (40, 624, 3_744, 5_108, 10_200, 54_912, 123_552, 1_098_240, 1_302_540)  # Feller vol. I ch. II
+
+
+@pytest.mark.parametrize(
+    ("name", "pays", "counts", "hands"),
+    [
+        ("three-card-hands.toml", THREE_CARD_PAYS, THREE_CARD_COUNTS, 22_100),
+        ("five-card-hands.toml", FIVE_CARD_PAYS, FIVE_CARD_COUNTS, 2_598_960),
+    ],
+)
+def test_the_house_edge_is_the_paytable_over_the_published_counts(name, pays, counts, hands):
+    ruleset, figures = ends(name)
+    assert {o.to: o.pay for o in ruleset.state(ruleset.start).outcomes} == pays
+    expected_net = QQ(sum(pay * count for pay, count in zip(pays.values(), counts)), hands)
+    assert figures.figures["house_edge"].exact == -expected_net
+
+
+def test_keno_house_edge_is_the_paytable_over_the_hypergeometric_law():
+    # hypergeometric law; pays 600, 20, 2 to 1 on catches 5, 4, 3 (the file's invented paytable)
+    pays = {5: 600, 4: 20, 3: 2, 2: -1, 1: -1, 0: -1}
+    law = {j: QQ(comb(5, j) * comb(75, 20 - j), comb(80, 20)) for j in range(6)}
+    _, figures = ends("keno-pick-5.toml")
+    assert figures.figures["house_edge"].exact == -sum(pays[j] * law[j] for j in range(6))
+    assert figures.figures["house_edge"].exact == QQ(3067, 28756)  # the README's table
+
+
+def test_a_natural_from_one_deck_is_32_in_663():
+    # first principles: 2 x (4/52) x (16/51), an ace and a ten-valued card in either order
+    _, figures = ends("dealer-six-decks-stands-soft-17.toml", decks=1)
+    assert figures.end_probability["blackjack"].exact == QQ(32, 663)
+
+
+@pytest.mark.parametrize(
+    ("name", "edge"), [("three-card-hands.toml", QQ(128, 5525)), ("five-card-hands.toml", QQ(4583, 129948))]
+)
+def test_the_readme_table_of_bundled_rulesets_gives_these_edges(name, edge):
+    _, figures = ends(name)
+    assert figures.figures["house_edge"].exact == edge

@@ -140,3 +140,11 @@ def test_a_deck_edit_without_a_deck_is_refused_in_one_line():
     _, deck = deck_of(SIDE_BET)
     with pytest.raises(DocumentError, match="no \\[deck\\]: add one first"):
         deck.set_field("copies", "2")
+
+
+def test_taking_a_card_out_of_a_remove_that_is_not_a_list_is_refused_and_changes_nothing():
+    document, deck = deck_of(SIDE_BET.replace("[states.deal]", '[deck]\nremove = "A"\n\n[states.deal]'))
+    before = document.text()
+    with pytest.raises(DocumentError, match="remove is not a list"):
+        deck.remove_card("K", "hearts")
+    assert document.text() == before

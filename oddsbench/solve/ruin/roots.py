@@ -107,16 +107,16 @@ def root_seconds(low_first: tuple[int, ...]) -> float:
     return ROOT_SECONDS * degree**ROOT_POWER * max(1.0, size / COEFFICIENT_BITS)
 
 
-def require_root_budget(low_first: tuple[int, ...]) -> None:
+def require_root_budget(low_first: tuple[int, ...], name: str = "characteristic polynomial") -> None:
     """Refuse root finding (one line) that would not fit the time left in the work budget."""
     from oddsbench.model import budget
 
     degree = len(low_first) - 1
-    what = f"finding the roots of the degree-{degree:,} characteristic polynomial"
+    what = f"finding the roots of the degree-{degree:,} {name}"
     budget.require(what, seconds=root_seconds(low_first))
 
 
-def _detached(low_first: tuple[int, ...], function, args: tuple, what: str):
+def detached_roots(low_first: tuple[int, ...], function, args: tuple, what: str):
     """``function(*args)`` detached when the polynomial is large (see ``DETACH_DEGREE``), else here."""
     if len(low_first) - 1 < DETACH_DEGREE:
         return function(*args)
@@ -126,7 +126,7 @@ def _detached(low_first: tuple[int, ...], function, args: tuple, what: str):
     return run_detached(function, args, what, current_stop())
 
 
-def _ball_text(ball, prec: int) -> str:
+def ball_text(ball, prec: int) -> str:
     """An arb ball as text that encloses it (arb balls do not pickle)."""
     return ball.str(int(prec * 0.30103) + 5, radius=True, more=True)
 
@@ -134,7 +134,7 @@ def _ball_text(ball, prec: int) -> str:
 def root_in_unit_interval(low_first: tuple[int, ...], digits: int) -> CharacteristicRoot:
     """rho: the unique root of P in (0, 1), exactly (sympy) and as a certified decimal."""
     require_root_budget(low_first)
-    return _detached(low_first, _root_in_unit_interval, (low_first, digits), "finding the root rho")
+    return detached_roots(low_first, _root_in_unit_interval, (low_first, digits), "finding the root rho")
 
 
 def _root_in_unit_interval(low_first: tuple[int, ...], digits: int) -> CharacteristicRoot:
@@ -175,7 +175,7 @@ def real_root_ball(high_first: tuple[int, ...], low: int, high: int):
     import flint
 
     prec = flint.ctx.prec
-    found = _detached(high_first, _real_root_text, (high_first, low, high, prec), "finding a root in (0, 1)")
+    found = detached_roots(high_first, _real_root_text, (high_first, low, high, prec), "finding a root in (0, 1)")
     return flint.arb(found)
 
 
@@ -187,7 +187,7 @@ def _real_root_text(high_first: tuple[int, ...], low: int, high: int, prec: int)
     inside = [r.real for r, _m in roots if r.imag == 0 and r.real > low and r.real < high]
     if len(inside) != 1:
         raise OddsbenchError("internal check failed: the root in (0, 1) is not isolated")
-    return _ball_text(inside[0], prec)
+    return ball_text(inside[0], prec)
 
 
 def roots_inside(low_first: tuple[int, ...]):
@@ -195,7 +195,7 @@ def roots_inside(low_first: tuple[int, ...]):
     import flint
 
     prec = flint.ctx.prec
-    found = _detached(low_first, _roots_inside_text, (low_first, prec), "finding the roots inside the unit disc")
+    found = detached_roots(low_first, _roots_inside_text, (low_first, prec), "finding the roots inside the unit disc")
     if found is None:
         return None
     texts, simple = found
@@ -211,7 +211,7 @@ def _roots_inside_text(low_first: tuple[int, ...], prec: int):
     if found is None:
         return None
     inside, simple = found
-    return [(_ball_text(root.real, prec), _ball_text(root.imag, prec)) for root in inside], simple
+    return [(ball_text(root.real, prec), ball_text(root.imag, prec)) for root in inside], simple
 
 
 def _roots_inside(low_first: tuple[int, ...]):

@@ -33,6 +33,7 @@ DECK_HINTS = {  # placeholders: what an empty field means, or an example
     "values": "A = 1, K = 10",
     "ace": "high, low or both",
 }
+ITEM_FIELDS = ("copies", "values")  # a deck of items has these too: its labels and counts are in the table
 PREFIX = "deck-"  # field ids of this editor (``deck-copies``), apart from the outcome fields
 
 
@@ -109,7 +110,7 @@ class DeckEditor(Vertical):
         self.values = edits.fields() if has_deck else {}
         self.items = edits.items() if items else []
         mine = self.problems = [p for p in problems if place_of(p).section == "deck"]
-        self.query_one("#deck-card-form").display = has_deck and not items
+        self.query_one("#deck-card-form").display = has_deck
         self.query_one(CardCounts).display = has_deck
         self.query_one(CardCounts).refresh_bindings()
         self._item_row().display = items
@@ -123,9 +124,11 @@ class DeckEditor(Vertical):
             summary.update(plain(f"{deck.describe()}: the table shows how many of each are in it"))
         for row in self.query("#deck-card-form FieldRow").results(FieldRow):
             field = row.field[len(PREFIX) :]
+            row.display = not items or field in ITEM_FIELDS
             row.input.show(self.values.get(field, ""))
             row.show_problems([p for p in mine if place_of(p).field == field])
-        general = [p for p in mine if place_of(p).field is None or (items and place_of(p).field != "items")]
+        beside = (*ITEM_FIELDS, "items") if items else DECK_FIELDS  # problems of these show beside their field
+        general = [p for p in mine if place_of(p).field not in beside]
         message = self.query_one("#deck-message", Static)
         message.update(plain("\n".join(str(p) for p in general)))
         message.set_class(any(p.is_error for p in general), "-error")
