@@ -230,3 +230,29 @@ def tune_json(results: TuneResults) -> dict[str, Any]:
         "notes": list(results.notes),
     }
     return envelope("tune", body)
+
+
+def applicable_values(results: TuneResults) -> list[tuple[str, str]]:
+    """(label, value text) for each value of the parameter a designer may apply: every valid
+    solution (a rational exactly; an algebraic one as its proved decimal, which rounds it), or the
+    two ends of each bracket of a piecewise figure, with the figure there."""
+    name = results.parameter
+    choices: list[tuple[str, str]] = []
+    for value in results.values:
+        if value.valid is False:
+            continue
+        solution = value.solution
+        if solution.exact is not None:
+            choices.append(
+                (f"{name} = {text(solution.exact)} ({decimal_text(solution.approximate)})", text(solution.exact))
+            )
+        else:
+            digits = solution.decimal.text
+            choices.append((f"{name} = {digits} (rounds {solution.text(name)})", digits))
+    for bracket in results.brackets:
+        ends = [bracket.low] if bracket.exact else [bracket.low, bracket.high]
+        figures = [bracket.figure_low] if bracket.exact else [bracket.figure_low, bracket.figure_high]
+        for end, figure in zip(ends, figures):
+            label = f"{name} = {exact_text(end)} ({results.figure} {_figure_cell(figure)})"
+            choices.append((label, text(end)))
+    return choices

@@ -10,6 +10,8 @@ game the expected duration is z (N - z).
 
 from __future__ import annotations
 
+import os
+
 import pytest
 
 from oddsbench.chain.round_chain import build_round_chain
@@ -154,6 +156,17 @@ def test_a_variance_below_what_floats_resolve_is_shown_with_one_digit_and_a_note
     assert variance.digits == 1 and abs(variance.decimal) < 1e-17
     assert any(
         note.startswith("net_variance:") and "below what the float engine resolves" in note for note in decimal.notes
+    )
+
+
+@pytest.mark.skipif(not os.environ.get("ODDSBENCH_ATTACKS"), reason="full size on demand: ODDSBENCH_ATTACKS=1")
+def test_a_variance_of_a_100_000_state_walk_is_not_cancellation_debris():
+    # E[X^2] - E[X]^2 gave 0.101 here where the truth is about 100,000^2 x (18/19)^50,000, 1e-1164 (Feller XIV.2)
+    figures = solve_round(build_round_chain(walk(100_000, 50_000, QQ(18, 37))), exact_limit=0)
+    variance = figures.figures["net_variance"]
+    assert variance.digits == 1 and abs(variance.decimal) < 1e-12
+    assert any(
+        note.startswith("net_variance:") and "below what the float engine resolves" in note for note in figures.notes
     )
 
 

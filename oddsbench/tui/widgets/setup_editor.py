@@ -58,6 +58,7 @@ class ParamsEditor(Vertical):
     BINDINGS = [
         Binding("a", "add_param", "Add parameter"),
         Binding("d,delete", "delete_param", "Delete parameter"),
+        Binding("t", "target_param", "Target a figure (tune this parameter)"),
     ]
 
     class ParamCommand(Message):
@@ -136,6 +137,10 @@ class ParamsEditor(Vertical):
     def action_delete_param(self) -> None:
         if self.current is not None:
             self.post_message(self.ParamCommand("delete", self.current))
+
+    def action_target_param(self) -> None:
+        if self.current is not None:
+            self.post_message(self.ParamCommand("tune", self.current))
 
 
 class SessionEditor(Vertical):

@@ -72,3 +72,20 @@ def param_command(screen: Screen, document: RulesetDocument, command: str, name:
     elif command == "delete" and name:
         gone = name
         screen.post_message(EditRequested(lambda doc: doc.delete_param(gone), f"delete parameter {gone}"))
+    elif command == "tune" and name:
+        target_command(screen, document, name)
+
+
+def target_command(screen: Screen, document: RulesetDocument, name: str) -> None:
+    """The target dialog on parameter ``name``; the value chosen there is one undoable edit."""
+    from oddsbench.tui.screens.tune_dialog import TuneDialog
+
+    def applied(value: str | None) -> None:
+        if value:
+            screen.post_message(EditRequested(lambda doc: doc.set_param(name, value), f"target: {name} = {value}"))
+            screen.notify(f"{name} set to {value}: Ctrl+Z brings the old value back")
+
+    now = dict(document.params()).get(name, "")
+    source = getattr(getattr(screen, "session", None), "source", "ruleset")
+    strategy = getattr(screen, "strategy", None)
+    screen.app.push_screen(TuneDialog(document.text(), source, name, now, strategy), applied)

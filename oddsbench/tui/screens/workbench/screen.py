@@ -63,6 +63,8 @@ ROOMY = 100  # columns from which the footer spaces its keys and names Ctrl+P (F
 class WorkbenchScreen(FigureViews, Screen):
     """One open ruleset: editors, problems, figures and cautions."""
 
+    AUTO_FOCUS = None  # the focus follows the view shown (on_screen_resume), not the first focusable widget
+
     BINDINGS = [
         # The views' keys come first, even in the source text (whose own F6 and F7 select text).
         Binding("f2", "view('edit')", "Edit view", show=False, priority=True),
@@ -368,22 +370,36 @@ class WorkbenchScreen(FigureViews, Screen):
         self._fit_detail()
         if view == "source":
             self._fill_source()
-            self.query_one("#source-text").focus()
-        elif view == "round":
-            self.query_one("#round-table").focus()
-        elif view == "strategies":
-            self.query_one("#strategies-table").focus()
+        self._focus_view(view)
+        if view == "strategies":
             self.compare_strategies()
         elif view == "sessions":
-            self.query_one("#plans-field").focus()
             self.compare_sessions()
-        elif view == "simulation":
-            self.query_one("#sim-trials").focus()
-        else:
-            self.query_one(Navigator).focus()
         if view in FIGURE_VIEWS:
             self._announce_first_figure()
         self._update_topbar()
+
+    def _focus_view(self, view: str) -> None:
+        """The focus goes to the view shown: keys never reach a widget the user cannot see."""
+        target = {
+            "source": "#source-text",
+            "round": "#round-table",
+            "strategies": "#strategies-table",
+            "sessions": "#plans-field",
+            "simulation": "#sim-trials",
+        }.get(view)
+        wanted = self.query_one(target) if target else self.query_one(Navigator)
+        chain = self.focus_chain
+        if wanted not in chain:  # hidden (a table with nothing to show): the first that can take it in the view
+            shown = self.query_one(f"#{view}")
+            wanted = next((widget for widget in chain if shown in widget.ancestors_with_self), None)
+        self.set_focus(wanted)
+
+    def on_screen_resume(self) -> None:
+        """Back from the help or a dialog: if what had the focus is hidden now (Textual would give it
+        to the state list, hidden behind another view), the view shown takes it."""
+        if self.focused is None or self.focused not in self.focus_chain:
+            self._focus_view(self.query_one("#views", ContentSwitcher).current or "edit")
 
     def action_undo(self) -> None:
         step = self.session.undo()
