@@ -165,3 +165,20 @@ async def test_a_deck_of_items_has_copies_too(tmp_path):
         await type_into(pilot, "field-deck-copies", "0")
         row = app.workbench.query_one("#field-deck-copies").parent
         assert "whole number from 1" in str(row.query_one(".field-message").render())
+
+
+async def test_text_the_deck_cannot_take_is_refused_in_one_line_and_nothing_is_lost(tmp_path):
+    app = app_on(copy_ruleset("three-card-hands.toml", tmp_path), tmp_path)
+    async with app.run_test(size=(120, 40)) as pilot:
+        await settle(pilot)
+        await go_to_entry(pilot, "deck:")
+        before = app.workbench.session.text
+        await type_into(pilot, "field-deck-values", "A 11")  # no '=': the edit is refused, the file kept
+        assert app.workbench.session.text == before
+        assert any("write name = value" in n.message for n in app._notifications)
+        await type_into(pilot, "field-deck-ranks", "2, 3, [bold]x")  # read as a name, never as markup
+        row = app.workbench.query_one("#field-deck-ranks").parent
+        assert "not a usable label" in str(row.query_one(".field-message").render())
+        await pilot.press("ctrl+z")
+        await settle(pilot)
+        assert app.workbench.session.text == before  # the ranks typed were one step
