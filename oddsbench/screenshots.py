@@ -32,23 +32,43 @@ class Scene:
     state: str | None = None
 
 
-SCENES = (
-    Scene("workbench-80x24", "lantern-dice.toml", (80, 24)),
-    Scene("edit-payout-120x40", "lantern-dice.toml", (120, 40), ("enter", "enter", "tab", "end", "ctrl+u", "2")),
-    Scene("round-figures-100x30", "pass-line.toml", (100, 30), ("f3",)),
-    Scene("bad-value-100x30", "pass-line.toml", (100, 30), ("enter", "enter", "end", "ctrl+u", *"8/3(")),
-    Scene("strategies-120x40", "lamplighter-ladder.toml", (120, 40), ("f4",)),
-    Scene("sessions-120x40", "single-zero-wheel.toml", (120, 40), ("f5",)),
-    Scene("help-100x30", "pass-line.toml", (100, 30), ("f1",)),
-    Scene("workbench-160x40", "pass-line.toml", (160, 40), ("down", "enter")),
+SIZES = ((80, 24), (120, 40))
+VIEWS = (  # (name, ruleset, keys): every view, each shown at every size in ``SIZES``
+    ("edit", "lantern-dice.toml", ("enter", "enter", "tab", "end", "ctrl+u", "2")),  # a payout edited
+    ("round", "lantern-dice.toml", ("f3",)),
+    ("strategies", "pig-turn.toml", ("f4",)),
+    ("sessions", "single-zero-wheel.toml", ("f5",)),
+    ("source", "pass-line.toml", ("f6",)),
+    ("simulation", "lantern-dice.toml", ("f7", *"20000", "tab", *"7", "enter")),
+    ("help", "pass-line.toml", ("f1",)),
+    ("cautions", "pass-line.toml", ("f9",)),
+    ("bad-value", "pass-line.toml", ("enter", "enter", "end", "ctrl+u", *"8/3(")),
+)
+SCENES = tuple(
+    Scene(f"{name}-{width}x{height}", ruleset, (width, height), keys)
+    for name, ruleset, keys in VIEWS
+    for width, height in SIZES
+) + (
+    Scene("wide-160x40", "pass-line.toml", (160, 40), ("down", "enter")),
     Scene("deck-120x40", "three-card-hands.toml", (120, 40), ("up", "enter", *["tab"] * 6, "down", "right", "minus")),
 )
+
+
+async def wait_for_workers(app) -> None:
+    """Wait until no background job runs. A job cancelled by a newer one (the workbench's jobs are
+    exclusive) is not an error; a job that failed is raised."""
+    from textual.worker import WorkerFailed
+
+    while pending := [worker for worker in app.workers if not worker.is_finished]:
+        for outcome in await asyncio.gather(*(worker.wait() for worker in pending), return_exceptions=True):
+            if isinstance(outcome, WorkerFailed):
+                raise outcome
 
 
 async def _settle(pilot) -> None:
     for _ in range(3):
         await pilot.pause()
-        await pilot.app.workers.wait_for_complete()
+        await wait_for_workers(pilot.app)
     await pilot.pause()
 
 
@@ -61,7 +81,13 @@ async def take(scene: Scene, folder: Path, scratch: Path) -> Path:
             await pilot.press(key)
             await _settle(pilot)
         await _settle(pilot)
-        return Path(app.save_screenshot(f"{scene.name}.svg", str(folder)))
+        path = Path(app.save_screenshot(f"{scene.name}.svg", str(folder)))
+    # Spaces are drawn as written: without this, SVG viewers drop the spaces that begin a run of
+    # text ("State 'first-roll'  3 outcomes" would read "State 'first-roll'3 outcomes").
+    path.write_text(
+        path.read_text(encoding="utf-8").replace("<svg ", '<svg xml:space="preserve" ', 1), encoding="utf-8"
+    )
+    return path
 
 
 async def take_all(

@@ -4,13 +4,10 @@ from __future__ import annotations
 
 import argparse
 import sys
-from pathlib import Path
 
 from oddsbench.cli.options import add_exact_limit, add_session_options, positive_int
 from oddsbench.model.defaults import ROUND_EXACT_LIMIT
-
-FORMATS = ("md", "csv", "json")
-SUFFIXES = {".md": "md", ".markdown": "md", ".csv": "csv", ".json": "json"}
+from oddsbench.report.writing import FORMATS
 
 
 def register(commands) -> None:
@@ -41,29 +38,17 @@ def register(commands) -> None:
     parser.set_defaults(run=run)
 
 
-def chosen_format(requested: str | None, output: str | None) -> str:
-    if requested:
-        return requested
-    if output:
-        return SUFFIXES.get(Path(output).suffix.lower(), "md")
-    return "md"
-
-
 def run(args: argparse.Namespace) -> int:
     from oddsbench.cli.options import load_game, settings_of, wants_session
     from oddsbench.core import report_figures
     from oddsbench.model.atomic_write import check_target, write_atomically
-    from oddsbench.report.document import build_report
-    from oddsbench.report.render_csv import render_csv
-    from oddsbench.report.render_json import render_json
-    from oddsbench.report.render_markdown import render_markdown
+    from oddsbench.report.writing import render_report, report_format
 
     if args.output is not None:
         check_target(args.output, force=args.force)  # refused before the work, not after it
     settings = settings_of(args, sessions=wants_session(args), strategies=tuple(args.strategy))
-    document = build_report(report_figures(load_game(args.file), settings))
-    fmt = chosen_format(args.format, args.output)
-    rendered = {"md": render_markdown, "csv": render_csv, "json": render_json}[fmt](document)
+    fmt = report_format(args.format, args.output)
+    rendered = render_report(report_figures(load_game(args.file), settings), fmt)
     if args.output is None:
         sys.stdout.write(rendered)
         return 0

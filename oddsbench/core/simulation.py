@@ -73,7 +73,14 @@ def simulate(game: Game, settings: Settings = DEFAULTS, work: Work = NO_WORK) ->
     from oddsbench.simulate.round_sim import simulate_round
     from oddsbench.solve.round import solve_round
 
-    sample = simulate_round(chain, settings.trials or DEFAULT_ROUND_TRIALS, seed, max_steps=settings.max_steps)
+    sample = simulate_round(
+        chain,
+        settings.trials or DEFAULT_ROUND_TRIALS,
+        seed,
+        max_steps=settings.max_steps,
+        should_stop=work.should_stop,
+        progress=work.progress,
+    )
     work.check()
     figures = solve_round(chain, exact_limit=settings.round_exact_limit, should_stop=work.should_stop)
     checks = round_checks(sample, figures, settings.confidence)
@@ -106,7 +113,19 @@ def _sessions(game: Game, chain, seed: int, play: str | None, settings: Settings
         played = for_plan(session, plan)
         planned = session_chain(distribution, played, plan, limit)
         figures = analyse_session(distribution, played, plan, limit, should_stop=work.should_stop, planned=planned)
-        sample = simulate_session(planned.chain, trials, seed, player, session.max_rounds, plan=plan.spelling)
+
+        def progress(count: int, total: int, done: int = done) -> None:  # every plan's sessions, in turn
+            work.done(done * total + count, len(plans) * total)
+
+        sample = simulate_session(
+            planned.chain,
+            trials,
+            seed,
+            player,
+            session.max_rounds,
+            plan=plan.spelling,
+            should_stop=work.should_stop,
+            progress=progress,
+        )
         runs.append(SessionRun(sample, tuple(session_checks(sample, figures, settings.confidence)), figures))
-        work.done(done + 1, len(plans))
     return Simulation(game.title, seed, settings.confidence, play, session=session, runs=tuple(runs))

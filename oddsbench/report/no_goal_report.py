@@ -6,7 +6,8 @@ from typing import TYPE_CHECKING, Any
 
 from oddsbench.model.numbers import text
 from oddsbench.report.cautions import caution_block
-from oddsbench.report.numbers_text import render_table
+from oddsbench.report.figure_table import FigureTable, Shown, row, word
+from oddsbench.report.numbers_text import decimal_text, render_table
 
 if TYPE_CHECKING:  # result types only: the core (and the engines behind it) load when a question is asked
     from oddsbench.core.results import Certified, NoGoalFigures, NoGoalRuin, RoundsToRuin
@@ -41,15 +42,15 @@ def _certified_text(value: Certified | None) -> str:
     return "-" if value is None else value.text
 
 
-def _rounds_cells(rounds: RoundsToRuin) -> tuple[str, str]:
+def _rounds_cells(rounds: RoundsToRuin, width: int | None = 40) -> tuple[str, str]:
     if rounds.kind == "finite":
         if rounds.exact is not None:
-            return _cell(rounds.exact), _certified_text(rounds.decimal)
+            return _cell(rounds.exact, width), _certified_text(rounds.decimal)
         if rounds.lower is None:
             if rounds.decimal is None:
                 return "finite", "not computed"
             return "algebraic", _certified_text(rounds.decimal)
-        bounds = f"between {_cell(rounds.lower)} and {_cell(rounds.upper)}"
+        bounds = f"between {_cell(rounds.lower, width)} and {_cell(rounds.upper, width)}"
         return bounds, _certified_text(rounds.decimal)
     if rounds.kind == "infinite":
         return "infinite", "infinite"
@@ -58,41 +59,70 @@ def _rounds_cells(rounds: RoundsToRuin) -> tuple[str, str]:
     return "not defined", "ruin is not certain"
 
 
-def no_goal_rows(figures: NoGoalFigures) -> list[tuple[str, str, str]]:
-    """quantity | exact | decimal rows of play with no goal."""
+def no_goal_items(figures: NoGoalFigures, width: int | None = 40) -> list[tuple[str, str, str, str]]:
+    """(key, label, exact, decimal) of play with no goal; exact values cut to ``width`` (None: in full).
+    Keys name each figure's meaning (``report/meanings.py``, after ``no_goal.``)."""
     ruin = figures.ruin
-    rows: list[tuple[str, str, str]] = [("ruin chance (play never stops)", ruin.ruin_exact_text, ruin.ruin.text)]
+    items: list[tuple[str, str, str, str]] = [
+        ("ruin", "ruin chance (play never stops)", ruin.ruin_exact_text, ruin.ruin.text)
+    ]
     root = ruin.theta
     if root is not None:
         name = "theta: root in (0, 1) of E[t^X] = 1" if ruin.is_skip_free else "rho: root in (0, 1) of E[t^X] = 1"
-        rows.append((name, root.exact_text, root.decimal.text))
+        items.append(("root", name, root.exact_text, root.decimal.text))
     if ruin.adjustment_coefficient is not None:
-        rows.append(("adjustment coefficient R", ruin.adjustment_text, ruin.adjustment_coefficient.text))
+        items.append(("adjustment", "adjustment coefficient R", ruin.adjustment_text, ruin.adjustment_coefficient.text))
     if ruin.lundberg is not None:
-        rows.append(("Lundberg upper bound exp(-R x bankroll)", ruin.lundberg_exact_text, ruin.lundberg.text))
+        label = "Lundberg upper bound exp(-R x bankroll)"
+        items.append(("lundberg", label, ruin.lundberg_exact_text, ruin.lundberg.text))
     if ruin.diffusion is not None and ruin.diffusion_exponent is not None:
-        rows.append(
-            ("diffusion approximation (rule of thumb)", f"exp({text(ruin.diffusion_exponent)})", ruin.diffusion.text)
-        )
+        label = "diffusion approximation (rule of thumb)"
+        items.append(("diffusion", label, f"exp({text(ruin.diffusion_exponent)})", ruin.diffusion.text))
     if ruin.diffusion_ratio is not None:
-        rows.append(("  rule of thumb / exact", "", ruin.diffusion_ratio.text))
+        items.append(("diffusion_ratio", "  rule of thumb / exact", "", ruin.diffusion_ratio.text))
     edge_label = "long-run expected result per round" if figures.plan else "expected result per round (edge)"
-    rows.append((edge_label, _cell(ruin.mean * figures.walk.grid), ""))
-    rows.append(("expected rounds to ruin", *_rounds_cells(ruin.rounds_to_ruin)))
+    items.append(("mean", edge_label, _cell(ruin.mean * figures.walk.grid, width), ""))
+    items.append(("rounds_to_ruin", "expected rounds to ruin", *_rounds_cells(ruin.rounds_to_ruin, width)))
     if ruin.rounds_if_ruined is not None:
-        rows.append(("expected rounds to ruin, when ruin comes", *_rounds_cells(ruin.rounds_if_ruined)))
+        label = "expected rounds to ruin, when ruin comes"
+        items.append(("rounds_if_ruined", label, *_rounds_cells(ruin.rounds_if_ruined, width)))
     check = ruin.truncation
     if check is not None:
-        rows.append(
-            (
-                f"check: ruin before the bankroll reaches {_goal_text(figures)}",
-                _cell(check.lower),
-                check.lower_decimal.text,
-            )
-        )
+        label = f"check: ruin before the bankroll reaches {_goal_text(figures)}"
+        items.append(("truncation", label, _cell(check.lower, width), check.lower_decimal.text))
         power = "theta" if ruin.is_skip_free else "rho"
-        rows.append(("  its gap to the answer is at most", f"{power}^{check.goal}", check.gap_bound.text))
-    return rows
+        items.append(("gap", "  its gap to the answer is at most", f"{power}^{check.goal}", check.gap_bound.text))
+    return items
+
+
+def brief_decimal(digits: str) -> str | None:
+    """A proved decimal of many digits in the six significant digits of the other tables (None: not a number)."""
+    try:
+        value = float(digits)
+    except ValueError:
+        return None
+    return decimal_text(value)
+
+
+def no_goal_rows(figures: NoGoalFigures) -> list[tuple[str, str, str]]:
+    """quantity | exact | decimal rows of play with no goal."""
+    return [(label, exact, decimal) for _, label, exact, decimal in no_goal_items(figures)]
+
+
+def no_goal_table(plans: list[tuple[str, NoGoalFigures]]) -> FigureTable:
+    """Plans played with no goal side by side as a screen table (exact values in full)."""
+    labels: dict[str, str] = {}
+    cells: list[dict[str, Shown]] = []
+    for _, figures in plans:
+        by_key = {}
+        for key, label, exact, decimal in no_goal_items(figures, width=None):
+            labels.setdefault(key, label)
+            by_key[key] = (
+                Shown(exact or None, decimal or "-", brief_decimal(decimal)) if (exact or decimal) else word("-")
+            )
+        cells.append(by_key)
+    rows = tuple(row(f"no_goal.{key}", label, (c.get(key) for c in cells)) for key, label in labels.items())
+    return FigureTable(tuple(plan for plan, _ in plans), rows)
 
 
 def _goal_text(figures: NoGoalFigures) -> str:

@@ -22,6 +22,35 @@ def exact_text(value: Rational | None, width: int | None = MAX_EXACT_WIDTH) -> s
     return f"{_short_int(p)}/{_short_int(q)}" if q != 1 else _short_int(p)
 
 
+def fit_exact(full: str, width: int) -> str:
+    """Exact text within ``width`` characters: whole when it fits (never shortened then), else each long
+    integer cut in the middle with its digit count, else the leading digits and the digit counts
+    (``40609.../36561... (18/17 digits)``), else only the digit counts. Text that is not a number
+    (a closed form) is cut at the end."""
+    if len(full) <= width:
+        return full
+    sign = "-" if full.startswith("-") else ""
+    parts = full.removeprefix("-").split("/")
+    if len(parts) > 2 or not all(part.isdigit() for part in parts):
+        return full[: max(0, width - 1)] + "…"
+    middle = sign + "/".join(_cut_digits(part) for part in parts)
+    if len(middle) <= width:
+        return middle
+    counts = "/".join(str(len(part)) for part in parts)
+    for lead in (6, 4, 2, 1):
+        compact = sign + "/".join(part[:lead] + "..." for part in parts) + f" ({counts} digits)"
+        if len(compact) <= width:
+            return compact
+    for bare in (f"{sign}({counts} digits)", f"{sign}{counts} digits"):
+        if len(bare) <= width:
+            return bare
+    return "…"
+
+
+def _cut_digits(digits: str) -> str:
+    return digits if len(digits) <= 14 else f"{digits[:5]}...{digits[-3:]} ({len(digits)} digits)"
+
+
 def _short_int(value: int) -> str:
     digits = int_text(abs(value))
     sign = "-" if value < 0 else ""

@@ -8,7 +8,7 @@ from oddsbench.model.figure import Figure
 from oddsbench.model.numbers import text, to_float
 from oddsbench.report.document import ReportDocument
 from oddsbench.report.numbers_text import exact_text, figure_decimal_text
-from oddsbench.report.round_report import PERCENT_FIGURES, figure_label
+from oddsbench.report.round_report import figure_items, is_percent
 
 if TYPE_CHECKING:
     from oddsbench.core.results import RoundColumn
@@ -20,21 +20,11 @@ def strategy_label(section: RoundColumn) -> str:
 
 def round_figure_items(section: RoundColumn) -> list[tuple[str, str, Figure]]:
     """(key, label, figure) for every figure of one round section, end and result chances too."""
-    figures = section.figures
-    items = [(name, figure_label(name, figures.rounds), f) for name, f in figures.figures.items()]
-    for name, f in figures.end_probability.items():
-        result = figures.end_results.get(name)
-        items.append((f"end_probability[{name}]", f"ends in {name!r}" + (f" ({result})" if result else ""), f))
-    for label, f in figures.result_probability.items():
-        items.append((f"result_probability[{label}]", f"result {label!r}", f))
-    for name, f in figures.end_probability_by_step.items():
-        items.append((f"end_probability_by_step[{name}]", f"in {name!r} by step {figures.rounds}", f))
-    return items
+    return figure_items(section.figures)
 
 
 def shown(key: str, figure: Figure, width: int | None) -> tuple[str, str]:
-    percent = key in PERCENT_FIGURES or key.startswith(("end_probability", "result_probability"))
-    return exact_text(figure.exact, width), figure_decimal_text(figure, percent)
+    return exact_text(figure.exact, width), figure_decimal_text(figure, is_percent(key))
 
 
 def comparison_rows(document: ReportDocument) -> tuple[list[str], list[list[str]]]:

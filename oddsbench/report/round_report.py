@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import re
 from typing import TYPE_CHECKING, Any
 
 from oddsbench.model.figure import FLOAT_TINY, Figure
@@ -33,11 +34,44 @@ PERCENT_FIGURES = frozenset(
 )
 # A square root (``net_sd``) has an exact value only where it is rational: its cell says why it is empty.
 IRRATIONAL = "irrational"
+_KEYED = re.compile(r"^(end_probability|result_probability|end_probability_by_step)\[(.*)\]$")
 
 
 def figure_label(name: str, rounds: int | None = None) -> str:
     label = LABELS.get(name, name.replace("_", " "))
     return label.replace("N", str(rounds)) if name == "ended_by" and rounds is not None else label
+
+
+def item_label(key: str, end_results: dict[str, str | None] | None = None, rounds: int | None = None) -> str:
+    """The label of a figure keyed as the simulation and reports key it (``end_probability[double]``...)."""
+    keyed = _KEYED.match(key)
+    if not keyed:
+        return figure_label(key, rounds)
+    kind, name = keyed.groups()
+    if kind == "result_probability":
+        return f"{name} total"
+    if kind == "end_probability_by_step":
+        return f"in {name!r} by step {rounds}"
+    result = (end_results or {}).get(name)
+    return f"ends in {name!r}" + (f" ({result})" if result else "")
+
+
+def is_percent(key: str) -> bool:
+    """Chances and shares are shown with their percent form too."""
+    return key in PERCENT_FIGURES or key.startswith(("end_probability", "result_probability"))
+
+
+def figure_items(figures: RoundFigures) -> list[tuple[str, str, Figure]]:
+    """(key, label, figure) for every figure of one round: the figures, each end state's chance, each
+    result's total (every 'win' end together...), and the chances by step N when asked."""
+    items = [(name, figure_label(name, figures.rounds), f) for name, f in figures.figures.items()]
+    keyed = [("end_probability", figures.end_probability), ("result_probability", figures.result_probability)]
+    keyed.append(("end_probability_by_step", figures.end_probability_by_step))
+    for kind, chances in keyed:
+        for name, f in chances.items():
+            key = f"{kind}[{name}]"
+            items.append((key, item_label(key, figures.end_results, figures.rounds), f))
+    return items
 
 
 def figure_cells(figure: Figure, percent: bool = False, width: int | None = 40) -> tuple[str, str]:
@@ -79,11 +113,49 @@ def hand_rows(figures: RoundFigures) -> list[tuple[str, str, str]]:
     return rows
 
 
-def round_text(figures: RoundFigures, strategy: str | None = None) -> str:
-    """The human output of ``oddsbench solve``."""
+def round_heading(figures: RoundFigures, strategy: str | None = None) -> str:
+    """What was solved: the game, the start, the chain's size and the strategy played."""
     heading = f"{figures.title}: one round from {figures.start!r} ({figures.states} states)"
     if strategy:
         heading += f", strategy {strategy!r}"
+    return heading
+
+
+SUMMARY_EXACT_WIDTH = 12  # a summary shows an exact value this short or its decimal alone
+
+
+def summary_items(figures: RoundFigures, strategy: str | None = None) -> list[tuple[str, str, str]]:
+    """The headline figures of a round in a few words each, (label, exact or "", decimal).
+
+    A game of money: house edge, return to player, expected steps. A game of points (stake 0, no
+    house edge): the expected result, each result's total (how often a turn scores, busts...) and
+    the expected steps. With decisions, the strategy played comes first.
+    """
+    items: list[tuple[str, str, str]] = []
+    if strategy:
+        items.append(("strategy", "", repr(strategy)))
+    names = [name for name in ("house_edge", "return_to_player") if name in figures.figures]
+    if not names:
+        names = ["expected_net"]
+    for name in names:
+        items.append(_summary_item(figure_label(name), figures.figures[name], name in PERCENT_FIGURES))
+    if "house_edge" not in figures.figures:
+        for result, chance in figures.result_probability.items():
+            items.append(_summary_item(f"{result} total", chance, True))
+    if "expected_steps" in figures.figures:
+        items.append(_summary_item(figure_label("expected_steps"), figures.figures["expected_steps"], False))
+    return items
+
+
+def _summary_item(label: str, figure: Figure, percent: bool) -> tuple[str, str, str]:
+    exact = exact_text(figure.exact, None) if figure.exact is not None else ""
+    decimal = figure_decimal_text(figure, percent)
+    return label, exact if len(exact) <= SUMMARY_EXACT_WIDTH else "", decimal
+
+
+def round_text(figures: RoundFigures, strategy: str | None = None) -> str:
+    """The human output of ``oddsbench solve``."""
+    heading = round_heading(figures, strategy)
     table = render_table(["quantity", "exact", "decimal"], [list(row) for row in round_rows(figures)])
     parts = [heading, "", table]
     returns = return_table_text(figures)

@@ -7,6 +7,7 @@ from typing import TYPE_CHECKING, Any
 from oddsbench.model.figure import Figure
 from oddsbench.model.numbers import Rational, text, to_float
 from oddsbench.report.cautions import caution_block
+from oddsbench.report.figure_table import FigureTable, Shown, row, shown
 from oddsbench.report.json_output import envelope
 from oddsbench.report.numbers_text import csv_decimal, decimal_text, figure_decimal_text, render_table
 from oddsbench.report.round_report import figure_json
@@ -69,22 +70,73 @@ def compact_exact(value: Rational) -> str:
     return f"{sign}{top[:4]}.../{bottom[:4]}... ({len(top)}/{len(bottom)} digits)"
 
 
-def _label(name: str, rounds: int | None) -> str:
+def session_label(name: str, rounds: int | None = None) -> str:
     if name in WITHIN_LABELS:
         return WITHIN_LABELS[name].replace("N", str(rounds))
     return LABELS.get(name, name.replace("_", " "))
 
 
-def session_rows(results: list[SessionFigures]) -> list[list[str]]:
-    """Figure name | one cell per plan, for the CLI table and the TUI."""
+def session_names(results: list[SessionFigures]) -> list[str]:
+    """The figures shown for plans side by side, in order (the "within N rounds" ones only when asked)."""
     names: list[str] = []
     for result in results:
         for name in result.figures:
             shown = name in WITHIN_LABELS or not name.startswith("within_")
             if shown and name not in names:
                 names.append(name)
+    return names
+
+
+def session_rows(results: list[SessionFigures]) -> list[list[str]]:
+    """Figure name | one cell per plan, for the CLI table."""
     rounds = next((r.rounds for r in results if r.rounds is not None), None)
-    return [[_label(name, rounds)] + [cell(r.figures.get(name), name in PERCENT) for r in results] for name in names]
+    return [
+        [session_label(name, rounds)] + [cell(r.figures.get(name), name in PERCENT) for r in results]
+        for name in session_names(results)
+    ]
+
+
+def session_table(results: list[SessionFigures]) -> FigureTable:
+    """Plans side by side as a screen table: each cell the exact value in full and its decimal."""
+    rounds = next((r.rounds for r in results if r.rounds is not None), None)
+    rows = tuple(
+        row(
+            f"session.{name}",
+            session_label(name, rounds),
+            (shown(r.figures.get(name), name in PERCENT) for r in results),
+        )
+        for name in session_names(results)
+    )
+    return FigureTable(tuple(r.plan for r in results), rows)
+
+
+NEEDS_GOAL = "needs a goal"  # a plan that cannot play with no goal (its bet grows with the bankroll)
+BESIDE = {  # rows of play with no goal shown beside plans with a goal: (key, label)
+    "ruin": "with no goal: ruin chance",
+    "rounds_to_ruin": "with no goal: rounds to ruin",
+}
+
+
+def no_goal_rows_beside(table: FigureTable, without_goal: SessionResults) -> FigureTable:
+    """Plans with a goal, then the same plans played with no goal (ruin chance, expected rounds to
+    ruin) in the same columns; ``-`` for a plan that needs a goal (bold play)."""
+    from oddsbench.report.figure_table import word
+    from oddsbench.report.no_goal_report import brief_decimal, no_goal_items
+
+    by_plan = {
+        plan.plan: {key: (exact, decimal) for key, _, exact, decimal in no_goal_items(plan.no_goal, width=None)}
+        for plan in without_goal.plans
+    }
+    rows = list(table.rows)
+    for key, label in BESIDE.items():
+        cells = []
+        for plan in table.columns:
+            found = by_plan.get(plan, {}).get(key)
+            cells.append(
+                Shown(found[0] or None, found[1] or "-", brief_decimal(found[1])) if found else word(NEEDS_GOAL)
+            )
+        rows.append(row(f"no_goal.{key}", label, cells, "no_goal.bounded_ruin" if key == "ruin" else None))
+    return FigureTable(table.columns, tuple(rows))
 
 
 def _round_line(distribution: RoundDistribution) -> str:

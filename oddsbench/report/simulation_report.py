@@ -2,14 +2,13 @@
 
 from __future__ import annotations
 
-import re
 from typing import TYPE_CHECKING, Any
 
 from oddsbench.model.numbers import text
 from oddsbench.report.cautions import caution_block
 from oddsbench.report.json_output import envelope
 from oddsbench.report.numbers_text import decimal_text, exact_text, figure_decimal_text, render_table
-from oddsbench.report.round_report import figure_label
+from oddsbench.report.round_report import item_label
 
 if TYPE_CHECKING:  # result types only: the core (and the engines behind it) load when a question is asked
     from oddsbench.core.results import Check, RoundSample, SessionSettings, Simulation
@@ -17,20 +16,11 @@ if TYPE_CHECKING:  # result types only: the core (and the engines behind it) loa
 INSIDE = "inside"
 OUTSIDE = "OUTSIDE <<"
 NO_EXACT = "no exact value"
-_KEYED = re.compile(r"^(end_probability|result_probability)\[(.*)\]$")
 
 
 def check_label(name: str, sample: RoundSample | None = None) -> str:
-    keyed = _KEYED.match(name)
-    if not keyed:
-        return figure_label(name)
-    kind, key = keyed.groups()
-    if kind == "result_probability":
-        return f"result {key!r}"
-    result = None
-    if sample is not None and key in sample.end_names:
-        result = sample.end_results[sample.end_names.index(key)]
-    return f"ends in {key!r}" + (f" ({result})" if result else "")
+    results = dict(zip(sample.end_names, sample.end_results)) if sample is not None else None
+    return item_label(name, results)
 
 
 def check_status(check: Check) -> str:
@@ -58,6 +48,25 @@ def check_rows(checks: list[Check], sample: RoundSample | None = None) -> list[l
             ]
         )
     return rows
+
+
+def check_table(checks: list[Check], confidence: float, sample: RoundSample | None = None, sessions: bool = False):
+    """Estimates beside the exact figures as a screen table: estimate, interval, exact, inside/OUTSIDE."""
+    from oddsbench.report.figure_table import FigureTable, row, shown, word
+    from oddsbench.report.round_report import is_percent
+    from oddsbench.report.session_report import PERCENT, session_label
+
+    rows = []
+    for check in checks:
+        name = check.name
+        label = session_label(name) if sessions else check_label(name, sample)
+        percent = name in PERCENT if sessions else is_percent(name)
+        interval = f"[{_number(check.interval.low)}, {_number(check.interval.high)}]"
+        exact = shown(check.exact, percent) or word("-")
+        cells = (word(_number(check.estimate)), word(interval), exact, word(check_status(check)))
+        rows.append(row(name, label, cells, "estimate." + (f"session.{name}" if sessions else name)))
+    columns = ("estimate", f"{confidence * 100:g} % interval", "exact", "check")
+    return FigureTable(columns, tuple(rows))
 
 
 def verdict(checks: list[Check], confidence: float) -> str:
@@ -201,11 +210,14 @@ def simulate_json(simulation: Simulation) -> dict[str, Any]:
     )
 
 
-def session_heading(sample) -> str:
+def session_heading(sample, timing: bool = True) -> str:
+    heading = f"{sample.title}: {sample.trials:,} simulated sessions under plan {sample.plan!r}, seed {sample.seed}"
+    if not timing:
+        return heading
     where = "by playing the round's chain" if sample.played_on_chain else "drawn from the round's distribution"
     return (
-        f"{sample.title}: {sample.trials:,} simulated sessions under plan {sample.plan!r}, seed {sample.seed} "
-        f"({where}; {sample.seconds:.2f} s, {sample.rounds_played:,} rounds, {sample.rounds_per_second:,.0f} rounds/s)"
+        f"{heading} ({where}; {sample.seconds:.2f} s, {sample.rounds_played:,} rounds, "
+        f"{sample.rounds_per_second:,.0f} rounds/s)"
     )
 
 

@@ -7,6 +7,7 @@ from typing import TYPE_CHECKING, Any
 
 from oddsbench.model.figure import Figure
 from oddsbench.report.cautions import caution_block
+from oddsbench.report.figure_table import FigureTable
 from oddsbench.report.json_output import envelope
 from oddsbench.report.numbers_text import render_table
 from oddsbench.report.round_report import (
@@ -180,6 +181,27 @@ def best_text(best: BestPolicy, every_state: bool = False) -> str:
     return "\n".join(parts)
 
 
+def best_summary(best: BestPolicy) -> str:
+    """The best play in a few lines for a screen that shows its figures elsewhere: the value, the
+    action in each run of decision states, the certificate."""
+    exact, decimal = figure_cells(best.value, best.goal in ("max-win", "min-loss"))
+    parts = [f"{best.value_label}: {exact} = {decimal}" if exact != "-" else f"{best.value_label}: {decimal}"]
+    runs = policy_runs(best.policy)
+    shown = runs[:MAX_LISTED_IMPROVEMENTS]
+    if shown:
+        parts.append(f"Best action in each of the {len(best.policy)} decision states:")
+        for first, last, count, action in shown:
+            states = first if count == 1 else f"{first} .. {last} ({count})"
+            parts.append(f"  {states}: {action}")
+        if len(runs) > len(shown):
+            parts.append(f"  ... and {len(runs) - len(shown)} more runs (oddsbench best --json lists all)")
+    parts.append(f"Certificate: {best.certificate.statement}")
+    if best.certificate.ties:
+        parts.append(f"Ties: {len(best.certificate.ties)} state(s) where another action is exactly as good.")
+    parts += [f"Note: {note}" for note in best.notes]
+    return "\n".join(parts)
+
+
 def best_json(results: BestResults) -> dict[str, Any]:
     """The ``--json`` object of ``oddsbench best``: the best play (null when only strategies were checked)
     and every strategy checked against it (an empty list when none was)."""
@@ -255,6 +277,34 @@ def check_text(check: StrategyCheck) -> str:
         parts += ["", "Notes:"] + [f"  - {note}" for note in check.notes]
     parts += ["", caution_block()]
     return "\n".join(parts)
+
+
+def improvement_table(check: StrategyCheck) -> FigureTable:
+    """Where a strategy loses against the best play, as a screen table: one row per decision state
+    where a single change of action does better, the gain in full."""
+    from oddsbench.report.figure_table import FigureTable, row, shown, word
+
+    rows = tuple(
+        row("check.gain", i.state, (word(i.action), word(i.better), shown(i.gain), word("yes" if i.reached else "no")))
+        for i in check.improvements
+    )
+    return FigureTable(("plays", "better", "gain", "reached"), rows)
+
+
+def check_summary(check: StrategyCheck) -> str:
+    """One sentence: whether the strategy is optimal for the goal, else in how many states it loses."""
+    kind = "exactly" if check.exact else "in floating point only"
+    if check.optimal:
+        return (
+            f"{check.strategy!r} is optimal for {check.goal}: checked {kind} in all {check.decision_states} "
+            "decision states, no single change of action does better."
+        )
+    reached = sum(1 for i in check.improvements if i.reached)
+    return (
+        f"{check.strategy!r} loses against the best play for {check.goal} in {len(check.improvements)} decision "
+        f"state(s), {reached} of them reached under it (checked {kind}); the gain is what changing that "
+        "state's action alone would add to its value."
+    )
 
 
 def check_json(check: StrategyCheck) -> dict[str, Any]:

@@ -19,6 +19,7 @@ from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.numbers import to_float
 from oddsbench.simulate.alias_table import build_alias_tables
 from oddsbench.simulate.moments import CrossMoment, Moments
+from oddsbench.solve.cancel import SolveCancelled
 
 BATCH_SIZE = 1 << 18
 DEFAULT_MAX_STEPS = 1_000_000
@@ -30,8 +31,8 @@ class StepBudgetExceeded(OddsbenchError):
     """A simulation whose rounds are so long that it would run for many minutes."""
 
 
-class SimulationCancelled(Exception):
-    """Raised between steps when the caller's ``should_stop`` says so."""
+class SimulationCancelled(SolveCancelled):
+    """Raised between steps when the caller's ``should_stop`` says so (a cancelled solve, to the core)."""
 
 
 @dataclass
@@ -72,8 +73,10 @@ def simulate_round(
     max_steps: int = DEFAULT_MAX_STEPS,
     batch_size: int = BATCH_SIZE,
     should_stop: Callable[[], bool] | None = None,
+    progress: Callable[[int, int], None] | None = None,
 ) -> RoundSample:
-    """Play ``trials`` independent rounds of ``chain`` with ``numpy.random.default_rng(seed)``."""
+    """Play ``trials`` independent rounds of ``chain`` with ``numpy.random.default_rng(seed)``;
+    ``progress(done, trials)`` hears after each batch."""
     if not 1 <= trials <= MAX_TRIALS:
         raise OddsbenchError(f"trials must be between 1 and {MAX_TRIALS:,}, got {trials:,}")
     began = time.perf_counter()
@@ -107,6 +110,8 @@ def simulate_round(
         budget = STEP_BUDGET - sample.steps_taken
         _run_batch(sample, size, player, rng, max_steps, should_stop, budget)
         done_trials += size
+        if progress is not None:
+            progress(done_trials, trials)
     sample.seconds = time.perf_counter() - began
     return sample
 

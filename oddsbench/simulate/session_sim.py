@@ -11,6 +11,7 @@ floor, at ruin, or at the round cap, like the chain they check.
 from __future__ import annotations
 
 import time
+from collections.abc import Callable
 from dataclasses import dataclass, field
 from typing import TYPE_CHECKING
 
@@ -20,7 +21,7 @@ from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.numbers import to_float
 from oddsbench.simulate.alias_table import build_alias_tables
 from oddsbench.simulate.moments import CrossMoment, Moments
-from oddsbench.simulate.round_sim import MAX_TRIALS, RoundPlayer
+from oddsbench.simulate.round_sim import MAX_TRIALS, RoundPlayer, SimulationCancelled
 
 if TYPE_CHECKING:
     from oddsbench.chain.bankroll import BankrollChain
@@ -112,8 +113,12 @@ def simulate_session(
     safety_rounds: int = DEFAULT_MAX_ROUNDS,
     plan: str = "",
     batch_size: int = SESSION_BATCH,
+    should_stop: Callable[[], bool] | None = None,
+    progress: Callable[[int, int], None] | None = None,
 ) -> SessionSample:
-    """Play ``trials`` sessions of the bankroll ``chain`` with ``numpy.random.default_rng(seed)``."""
+    """Play ``trials`` sessions of the bankroll ``chain`` with ``numpy.random.default_rng(seed)``;
+    ``should_stop`` is asked every round (``SimulationCancelled``), ``progress(done, trials)`` hears
+    after each batch."""
     if not 1 <= trials <= MAX_TRIALS:
         raise OddsbenchError(f"trials must be between 1 and {MAX_TRIALS:,}, got {trials:,}")
     began = time.perf_counter()
@@ -161,6 +166,8 @@ def simulate_session(
             state = np.full(size, start, dtype=np.int64)
         played = 0
         while live.size and played < cap:
+            if should_stop is not None and should_stop():
+                raise SimulationCancelled
             if matcher is None:
                 k = direct.draw(np.zeros(live.size, dtype=np.int64), rng)
             else:
@@ -193,5 +200,7 @@ def simulate_session(
         sample.final.add(final[counted])
         sample.final_staked.add(final[counted], staked[counted])
         done += size
+        if progress is not None:
+            progress(done, trials)
     sample.seconds = time.perf_counter() - began
     return sample

@@ -1,9 +1,9 @@
 """What the workbench shows for one version of the text: problems, then the figures, as report text.
 
 Pure functions run in the screen's thread workers: each asks the core (``oddsbench.core``) and
-turns its result into rows with the report layer's own text, so the workbench does no arithmetic
-and no number formatting. ``should_stop`` is the worker's cancel check; the core raises
-``Cancelled`` when it says stop.
+turns its result into tables with the report layer's own text (``report/figure_table.py``), so
+the workbench does no arithmetic and no number formatting. ``should_stop`` is the worker's cancel
+check; the core raises ``Cancelled`` when it says stop.
 """
 
 from __future__ import annotations
@@ -20,10 +20,10 @@ from oddsbench.model.errors import OddsbenchError, Problem
 from oddsbench.model.families import FamilyMember
 from oddsbench.model.load import read_ruleset_text
 from oddsbench.model.ruleset import Ruleset
+from oddsbench.report.figure_table import FigureTable
 
-SUMMARY_FIGURES = ("house_edge", "return_to_player", "expected_steps")
-LENGTH_POINTS = 12
 SolveCancelled = Cancelled  # what the workers catch when a solve was cancelled
+LENGTH_POINTS = 12  # points of the "still playing" chart
 
 __all__ = ["DEFAULT_PLANS", "SolveCancelled"]
 
@@ -41,10 +41,10 @@ class Reading:
 
 @dataclass(frozen=True)
 class RoundResult:
-    """One round's figures as text rows, ready to show."""
+    """One round's figures as a table of text, the one-line summary, and the notes."""
 
     heading: str
-    rows: tuple[tuple[str, str, str], ...]
+    table: FigureTable
     summary: tuple[tuple[str, str, str], ...]
     notes: tuple[str, ...]
     strategy: str | None
@@ -66,8 +66,10 @@ def _game(ruleset: Ruleset) -> Game:
     return Game(ruleset.source, ruleset=ruleset)
 
 
-def _work(should_stop: Callable[[], bool] | None) -> Work:
-    return Work(should_stop=should_stop) if should_stop is not None else Work()
+def _work(should_stop: Callable[[], bool] | None, progress: Callable[[int, int], None] | None = None) -> Work:
+    if progress is None:
+        return Work(should_stop=should_stop) if should_stop is not None else Work()
+    return Work(should_stop=should_stop or (lambda: False), progress=progress)
 
 
 def _played(ruleset: Ruleset, strategy: str | None) -> tuple[str, ...]:
@@ -80,68 +82,85 @@ def solve_round_text(
 ) -> RoundResult | RoundFailure:
     """The round's figures under ``strategy``; raises ``SolveCancelled`` when ``should_stop`` says so."""
     from oddsbench.core.rounds import round_figures
-    from oddsbench.report.round_report import PERCENT_FIGURES, figure_cells, figure_label, round_rows
+    from oddsbench.report.figure_table import round_table
+    from oddsbench.report.round_report import round_heading, summary_items
 
     try:
         results = round_figures(_game(ruleset), Settings(strategies=_played(ruleset, strategy)), _work(should_stop))
     except OddsbenchError as error:
         return RoundFailure(str(error))
     figures = results.columns[0].figures
-    summary = tuple(
-        (figure_label(name), *figure_cells(figures.figures[name], name in PERCENT_FIGURES, width=24))
-        for name in SUMMARY_FIGURES
-        if name in figures.figures
-    )
-    heading = f"{figures.title}: one round from {figures.start!r} ({figures.states} states)"
-    if strategy and ruleset.has_decisions:
-        heading += f", strategy {strategy!r}"
-    return RoundResult(heading, tuple(round_rows(figures)), summary, figures.notes, strategy)
+    played = strategy if strategy and ruleset.has_decisions else None
+    summary = tuple(summary_items(figures, played))
+    return RoundResult(round_heading(figures, played), round_table(figures), summary, figures.notes, strategy)
+
+
+@dataclass(frozen=True)
+class StrategyVerdict:
+    """One named strategy held against the best play: a sentence, and where it loses (a table)."""
+
+    strategy: str
+    summary: str
+    table: FigureTable
+    notes: tuple[str, ...]
 
 
 @dataclass(frozen=True)
 class StrategiesResult:
-    """The named strategies side by side (``exact | decimal`` cells) and the best play with its certificate."""
+    """Every named strategy side by side with the best play, the best play's certificate, and each
+    strategy held against the best play."""
 
     heading: str
-    headers: tuple[str, ...]
-    rows: tuple[tuple[str, ...], ...]
+    table: FigureTable
     best: str
     goal: str
+    checks: tuple[StrategyVerdict, ...] = ()
+
+    def check_of(self, strategy: str | None) -> StrategyVerdict | None:
+        for verdict in self.checks:
+            if verdict.strategy == strategy:
+                return verdict
+        return self.checks[0] if self.checks else None
 
 
 def strategies_text(
     ruleset: Ruleset, goal: str, should_stop: Callable[[], bool] | None = None
 ) -> StrategiesResult | RoundFailure:
-    """``oddsbench solve`` under every named strategy and ``oddsbench best`` for ``goal``, as report text."""
-    from oddsbench.core.rounds import best_play, round_figures
-    from oddsbench.report.cautions import caution_block
-    from oddsbench.report.strategy_report import best_text, comparison_rows
+    """``oddsbench solve`` under every named strategy, ``oddsbench best`` for ``goal`` and
+    ``oddsbench best --check-strategy`` for each named strategy, as report text."""
+    from oddsbench.core.rounds import best_play, check_strategy, round_figures
+    from oddsbench.report.figure_table import side_by_side
+    from oddsbench.report.strategy_report import best_summary, check_summary, improvement_table
 
     if not ruleset.has_decisions:
         return RoundFailure(
             "this game has no decision states, so there is no play to choose: "
             "open one with choices (pig-turn.toml, lamplighter-ladder.toml, a dealer's game)"
         )
-    headers: tuple[str, ...] = ()
-    rows: tuple[tuple[str, ...], ...] = ()
-    heading = f"{ruleset.title}: no named strategies in the file ([strategies] table)"
     game, work = _game(ruleset), _work(should_stop)
+    settings = Settings(best_goal=goal)
     try:
+        best = best_play(game, settings, work).best
+        columns = []
         if ruleset.strategies:
             comparison = round_figures(game, Settings(), work)
-            names, table = comparison_rows(comparison)
-            headers, rows = tuple(names), tuple(tuple(row) for row in table)
-            heading = (
-                f"{ruleset.title}: one round from {comparison.start!r} under each of "
-                f"{len(comparison.columns)} named strategies (cells: exact | decimal)"
-            )
-        best = best_text(best_play(game, Settings(best_goal=goal), work).best)
+            columns = [(column.strategy or "as written", column.figures) for column in comparison.columns]
+        if best.figures is not None:
+            columns.append((f"best ({goal})", best.figures))
+        checks = []
+        for strategy in ruleset.strategies:
+            check = check_strategy(game, strategy.name, settings, work).checks[0]
+            checks.append(StrategyVerdict(strategy.name, check_summary(check), improvement_table(check), check.notes))
     except OddsbenchError as error:
         return RoundFailure(str(error))
-    block = caution_block()
-    if best.endswith(block):  # the cautions are on screen already, below every view
-        best = best[: -len(block)].rstrip()
-    return StrategiesResult(heading, headers, rows, best, goal)
+    named = len(ruleset.strategies)
+    heading = (
+        f"{ruleset.title}: one round from {best.start!r} under each of {named} named strateg"
+        f"{'y' if named == 1 else 'ies'} and the best play for {goal}"
+        if named
+        else f"{ruleset.title}: no named strategies in the file ([strategies] table); the best play for {goal}"
+    )
+    return StrategiesResult(heading, side_by_side(columns), best_summary(best), goal, tuple(checks))
 
 
 @dataclass(frozen=True)
@@ -157,21 +176,31 @@ class PlanSeries:
 
 @dataclass(frozen=True)
 class SessionsResult:
-    """Bankroll plans side by side (``exact | decimal`` cells) and the series for the two charts
-    (none with no goal: such play only ends at ruin)."""
+    """Bankroll plans side by side as a table of text, the series for the two charts (none with no
+    goal: such play only ends at ruin), the chart ticks, and the notes."""
 
     heading: str
-    headers: tuple[str, ...]
-    rows: tuple[tuple[str, ...], ...]
+    table: FigureTable
     series: tuple[PlanSeries, ...]
     notes: tuple[str, ...]
+    bankroll: float | None = None
+    bankroll_text: str = ""
+    bankroll_ticks: tuple[tuple[float, str], ...] = ()
+    round_ticks: tuple[tuple[float, str], ...] = ()
+
+    @property
+    def plans(self) -> tuple[str, ...]:
+        return self.table.columns
 
 
 def parse_plans(text: str) -> tuple[str, ...]:
-    """Plans typed as ``timid, bold, flat:2``, read by the one plan grammar (its messages are the CLI's)."""
+    """Plans typed as ``timid, bold, flat:2``, read by the one plan grammar, in the workbench's words."""
     from oddsbench.core.plans import parse_plans as read_plans
 
     return tuple(plan.spelling for plan in read_plans(text))
+
+
+NO_BANKROLL = "no bankroll yet: set bankroll (and goal, or none) under Session in the Edit view (F2)"
 
 
 def session_settings_of(ruleset: Ruleset):
@@ -187,66 +216,99 @@ def sessions_text(
     plans: tuple[str, ...],
     should_stop: Callable[[], bool] | None = None,
 ) -> SessionsResult | RoundFailure:
-    """Every plan's session figures (with the file's goal, or none), its goal-chance series and its chance
-    of still playing after n rounds."""
-    from oddsbench.core.session import sessions, still_playing
+    """Every plan's session figures (with the file's goal, or none), beside each plan's ruin chance
+    with no goal where the plan can play without one; its goal-chance series and its chance of still
+    playing after n rounds."""
+    from oddsbench.core.session import sessions
 
     if not plans:
         return RoundFailure("type one or more plans to compare, e.g. timid, bold, flat:2, martingale:1:6")
+    if "bankroll" not in (ruleset.session or {}):
+        return RoundFailure(NO_BANKROLL)
     work = _work(should_stop)
     settings = Settings(strategies=_played(ruleset, strategy), session=SessionRequest(plans=tuple(plans)))
     try:
         results = sessions(_game(ruleset), settings, work)
         if results.no_goal:
             return _no_goal_result(results)
-        series = []
-        for result in results.bounded:
-            # sample points for the chart only (decimals for a picture: the exact figures are in the table)
-            horizon = max(1, int(result.figures["expected_rounds"].decimal * 3))
-            points = sorted({max(1, horizon * k // (LENGTH_POINTS - 1)) for k in range(LENGTH_POINTS)})
-            playing = still_playing(results, result.plan, points, work)
-            bankrolls = tuple(float(b) for b in _floats(result.series_bankrolls()))
-            series.append(PlanSeries(result.plan, bankrolls, result.goal_series, (0, *points), (1.0, *playing)))
+        without_goal = _without_goal(ruleset, strategy, plans, work)
+        return _bounded_result(results, without_goal, work)
     except OddsbenchError as error:
         return RoundFailure(str(error))
-    from oddsbench.report.session_report import session_rows
 
-    rows = tuple(tuple(row) for row in session_rows(results.bounded))
-    settings_now = results.settings
+
+def _without_goal(ruleset: Ruleset, strategy: str | None, plans: tuple[str, ...], work: Work):
+    """The same plans played with no goal (only those whose bet stays bounded), for the rows beside."""
+    from oddsbench.core.plans import parse_plan
+    from oddsbench.core.session import sessions
+
+    playable = []
+    for spelling in plans:
+        try:
+            parse_plan(spelling, no_goal=True)
+        except OddsbenchError:
+            continue
+        playable.append(spelling)
+    if not playable:
+        return None
+    request = SessionRequest(goal="none", plans=tuple(playable))
+    try:
+        return sessions(_game(ruleset), Settings(strategies=_played(ruleset, strategy), session=request), work)
+    except OddsbenchError:
+        return None  # the bounded figures stand alone: the rows beside say nothing then
+
+
+def _bounded_result(results, without_goal, work: Work) -> SessionsResult:
+    from oddsbench.core.session import still_playing
+    from oddsbench.report.chart_ticks import nice_ticks
+    from oddsbench.report.numbers_text import exact_text
+    from oddsbench.report.session_report import no_goal_rows_beside, session_table
+
+    table = session_table(results.bounded)
+    if without_goal is not None:
+        table = no_goal_rows_beside(table, without_goal)
+    series = []
+    longest = max(result.figures["expected_rounds"].decimal for result in results.bounded)
+    round_ticks = nice_ticks(0, max(1.0, 3 * longest))
+    top = int(round_ticks[-1][0])
+    points = {max(1, top * k // (LENGTH_POINTS - 1)) for k in range(LENGTH_POINTS)}
+    points = sorted(points | {int(t) for t, _ in round_ticks if t >= 1})
+    for result in results.bounded:
+        playing = still_playing(results, result.plan, points, work)
+        bankrolls = tuple(_floats(result.series_bankrolls()))
+        series.append(PlanSeries(result.plan, bankrolls, result.goal_series, (0, *points), (1.0, *playing)))
+    settings = results.settings
     heading = (
-        f"{ruleset.title}: sessions from bankroll {shown_money(settings_now.bankroll)} to goal "
-        f"{shown_money(settings_now.goal)}, {len(plans)} plan(s) (cells: exact | decimal)"
+        f"{results.title}: sessions from bankroll {exact_text(settings.bankroll)} to goal "
+        f"{exact_text(settings.goal)}, {len(results.plans)} plan(s)"
     )
     notes = tuple(f"{r.plan}: {note}" for r in results.bounded for note in r.notes)
-    return SessionsResult(heading, ("quantity", *plans), rows, tuple(series), notes)
+    bankroll = _floats([settings.bankroll])[0]
+    goal_ticks = nice_ticks(0, _floats([settings.goal])[0])
+    return SessionsResult(
+        heading,
+        table,
+        tuple(series),
+        notes,
+        bankroll,
+        exact_text(settings.bankroll),
+        tuple(goal_ticks),
+        tuple(round_ticks),
+    )
 
 
 def _no_goal_result(results) -> SessionsResult:
-    """Play with no goal: each plan's ruin figures side by side, one ``exact | decimal`` cell each."""
-    from oddsbench.report.no_goal_report import no_goal_rows
-
-    labels: list[str] = []
-    cells: list[dict[str, str]] = []
-    for plan in results.plans:
-        by_label = {}
-        for label, exact, decimal in no_goal_rows(plan.no_goal):
-            by_label[label] = " | ".join(part for part in (exact, decimal) if part)
-            if label not in labels:
-                labels.append(label)
-        cells.append(by_label)
-    rows = tuple((label, *(column.get(label, "-") for column in cells)) for label in labels)
-    heading = (
-        f"{results.title}: play with no goal from bankroll {shown_money(results.settings.bankroll)}, "
-        f"until ruin, {len(results.plans)} plan(s) (cells: exact | decimal; no charts: play only ends at ruin)"
-    )
-    notes = tuple(f"{plan.plan}: {note}" for plan in results.plans for note in plan.notes)
-    return SessionsResult(heading, ("quantity", *(plan.plan for plan in results.plans)), rows, (), notes)
-
-
-def shown_money(value) -> str:
+    """Play with no goal: each plan's ruin figures side by side."""
+    from oddsbench.report.no_goal_report import no_goal_table
     from oddsbench.report.numbers_text import exact_text
 
-    return exact_text(value)
+    table = no_goal_table([(plan.plan, plan.no_goal) for plan in results.plans])
+    heading = (
+        f"{results.title}: play with no goal from bankroll {exact_text(results.settings.bankroll)}, until ruin, "
+        f"{len(results.plans)} plan(s) (no charts: play only ends at ruin)"
+    )
+    notes = tuple(f"{plan.plan}: {note}" for plan in results.plans for note in plan.notes)
+    return SessionsResult(heading, table, (), notes)
 
 
 def _floats(values) -> list[float]:

@@ -32,8 +32,9 @@ class WorkbenchApp(App):
     TITLE = "oddsbench"
     BINDINGS = [
         Binding("ctrl+q", "quit", "Quit", priority=True),
-        Binding("f1", "help", "Help"),
+        Binding("f1", "help", "Help", priority=True),
         Binding("question_mark", "help", "Help", show=False),
+        Binding("f9", "cautions", "Cautions in full", show=False, priority=True),
     ]
 
     def notify(self, message: str, *, title: str = "", severity="information", timeout=None, markup: bool = False):
@@ -97,7 +98,7 @@ class WorkbenchApp(App):
     def _offer_recovery(self) -> None:
         """Claim the open file's recovery copies and offer back what a killed session left."""
         screen = self.workbench
-        offer_recovery(self, screen.recovery, self.session, screen._refresh_forced)
+        offer_recovery(self, screen.recovery, self.session, screen.refresh_forms)
 
     async def _drop_screen(self, screen: WorkbenchScreen) -> None:
         if screen in self.screen_stack:
@@ -117,7 +118,7 @@ class WorkbenchApp(App):
                 if session.read_only:
                     screen.action_save_as()
                     return
-                if screen._save(None):
+                if screen.save_to(None):
                     then()
             elif answer == "d":
                 self.workbench.drop_recovery()
@@ -181,11 +182,22 @@ class WorkbenchApp(App):
             ("Undo", "take back the last edit (Ctrl+Z)", bench.action_undo),
             ("Redo", "make the undone edit again (Ctrl+Y)", bench.action_redo),
             ("Edit view", "states, outcomes, setup and parameters (F2)", lambda: bench.action_view("edit")),
-            ("Round figures", "every figure of one round, exact | decimal (F3)", lambda: bench.action_view("round")),
-            ("Strategies", "named strategies side by side, best play (F4)", lambda: bench.action_view("strategies")),
+            ("Round figures", "every figure of one round, exact and decimal (F3)", lambda: bench.action_view("round")),
+            (
+                "Strategies",
+                "named strategies beside the best play, where each loses (F4)",
+                lambda: bench.action_view("strategies"),
+            ),
             ("Sessions", "bankroll plans side by side, two charts (F5)", lambda: bench.action_view("sessions")),
             ("Source", "the file as text (F6)", lambda: bench.action_view("source")),
-            ("Solve again", "re-run the round solve (Ctrl+R)", bench.action_resolve),
+            (
+                "Simulation",
+                "play at random: estimates beside the exact figures (F7)",
+                lambda: bench.action_view("simulation"),
+            ),
+            ("Write a report", "Markdown, CSV or JSON, as oddsbench report writes it (F8)", bench.action_write_report),
+            ("Cautions", "the cautions in full (F9)", self.action_cautions),
+            ("Solve again", "re-run the round solve; in Simulation, run (Ctrl+R)", bench.action_resolve),
             ("Help", "every key (F1)", self.action_help),
         )
         for title, help_text, callback in commands:
@@ -197,30 +209,42 @@ class WorkbenchApp(App):
     def action_help(self) -> None:
         if isinstance(self.screen, HelpScreen):
             return
-        from oddsbench.tui.widgets.navigator import Navigator
-        from oddsbench.tui.widgets.setup_editor import ParamsEditor
-        from oddsbench.tui.widgets.state_editor import OutcomeTable
+        self.push_screen(HelpScreen(help_areas()))
 
-        areas = [
-            ("Everywhere", list(self.BINDINGS) + list(WorkbenchScreen.BINDINGS)),
-            ("State list (left)", list(Navigator.BINDINGS)),
-            ("Outcome table", list(OutcomeTable.BINDINGS)),
-            ("Parameters", list(ParamsEditor.BINDINGS)),
-            (
-                "Fields",
-                [
-                    Binding("tab", "", "next field"),
-                    Binding("shift+tab", "", "previous field"),
-                    Binding("enter", "", "next field"),
-                    Binding("escape", "", "back to the table"),
-                ],
-            ),
-            ("Command palette", [Binding("ctrl+p", "", "search every command by name")]),
-        ]
-        self.push_screen(HelpScreen(areas))
+    def action_cautions(self) -> None:
+        from oddsbench.tui.widgets.cautions import CautionsScreen
+
+        if not isinstance(self.screen, CautionsScreen):
+            self.push_screen(CautionsScreen())
 
     async def action_quit(self) -> None:
         self._after_guard(self.exit)
+
+
+def help_areas() -> list[tuple[str, list]]:
+    """Every key by where it works, read from the bindings themselves (help and README agree with them)."""
+    from oddsbench.tui.widgets.figure_grid import FigureGrid
+    from oddsbench.tui.widgets.navigator import Navigator
+    from oddsbench.tui.widgets.setup_editor import ParamsEditor
+    from oddsbench.tui.widgets.state_editor import OutcomeTable
+
+    return [
+        ("Everywhere", list(WorkbenchApp.BINDINGS) + list(WorkbenchScreen.BINDINGS)),
+        ("State list (left)", list(Navigator.BINDINGS)),
+        ("Outcome table", list(OutcomeTable.BINDINGS)),
+        ("Parameters", list(ParamsEditor.BINDINGS)),
+        ("Tables of figures (Round, Strategies, Sessions, Simulation)", list(FigureGrid.BINDINGS)),
+        (
+            "Fields",
+            [
+                Binding("tab", "", "next field"),
+                Binding("shift+tab", "", "previous field"),
+                Binding("enter", "", "next field (in Simulation: run)"),
+                Binding("escape", "", "back to the table"),
+            ],
+        ),
+        ("Command palette", [Binding("ctrl+p", "", "search every command by name")]),
+    ]
 
 
 def create_app(path: str | Path | None = None, folder: Path | None = None, cursor_blinks: bool = True) -> WorkbenchApp:

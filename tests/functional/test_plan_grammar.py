@@ -61,18 +61,18 @@ def test_the_workbench_shows_play_with_no_goal_from_the_files_session_table():
     ruleset = load_ruleset_text(text, "wheel-no-goal.toml")
     result = analysis.sessions_text(ruleset, None, ("flat:1", "timid"))
     assert isinstance(result, analysis.SessionsResult), result
-    assert result.headers == ("quantity", "flat:1", "timid") and result.series == ()
-    ruin = next(row for row in result.rows if row[0] == "ruin chance (play never stops)")
+    assert result.plans == ("flat:1", "timid") and result.series == ()
+    ruin = next(row for row in result.table.rows if row.label == "ruin chance (play never stops)")
     # single-zero wheel: subfair, so ruin is certain (Feller, vol. I, ch. XIV), exactly 1 with its proved decimal
-    assert all(cell.startswith("1 | 1.000") for cell in ruin[1:])
+    assert all(cell.exact == "1" and cell.decimal.startswith("1.000") for cell in ruin.cells)
     assert "play with no goal" in result.heading
 
 
 def test_the_workbench_and_the_command_line_give_the_same_session_figures(capsys):
     result = analysis.sessions_text(load_ruleset(WHEEL), None, ("bold",))
     code, out, _ = run_cli(capsys, "session", WHEEL, "--plan", "bold")
-    goal = next(row for row in result.rows if row[0] == "reach the goal")
-    assert code == 0 and goal[1] in out and goal[1].startswith("18/37 | ")
+    goal = next(row for row in result.table.rows if row.label == "reach the goal").cells[0]
+    assert code == 0 and f"{goal.exact} | {goal.decimal}" in out and goal.exact == "18/37"
 
 
 def test_the_workbench_charts_a_half_unit_flat_bet_too():
@@ -91,3 +91,9 @@ def test_adding_a_plan_never_changes_another_plans_figures(capsys):
     _, beside, _ = run_cli(capsys, *common, "--plan", "flat:1", "--plan", "flat:1/2")
     first = json.loads(alone)["plans"][0]
     assert json.loads(beside)["plans"][0]["figures"] == first["figures"]
+
+
+def test_the_workbench_says_where_to_set_a_bankroll_when_the_file_has_none():
+    result = analysis.sessions_text(load_ruleset(RULESETS / "pig-turn.toml"), None, ("timid",))
+    assert isinstance(result, analysis.RoundFailure)
+    assert "under Session in the Edit view" in result.message and "--" not in result.message

@@ -5,6 +5,7 @@ from __future__ import annotations
 import shutil
 from pathlib import Path
 
+from oddsbench.screenshots import wait_for_workers
 from oddsbench.tui.app import WorkbenchApp, create_app
 
 ROOT = Path(__file__).resolve().parents[2]
@@ -24,19 +25,23 @@ def app_on(path: Path | None, folder: Path) -> WorkbenchApp:
 async def settle(pilot) -> None:
     """Let pending messages run and the background read and solve finish."""
     await pilot.pause()
-    await pilot.app.workers.wait_for_complete()
+    await wait_for_workers(pilot.app)
     await pilot.pause()
-    await pilot.app.workers.wait_for_complete()
+    await wait_for_workers(pilot.app)
     await pilot.pause()
 
 
 def figure(app: WorkbenchApp, quantity: str) -> tuple[str, str]:
-    """(exact, decimal) as the round table shows them."""
-    table = app.workbench.query_one("#round-table")
-    for index in range(table.row_count):
-        cells = [str(cell) for cell in table.get_row_at(index)]
-        if cells[0] == quantity:
-            return cells[1], cells[2]
+    """(exact, decimal) of the round's figure as the round view holds it (its detail pane shows them whole)."""
+    return cell(app.workbench.result.table, quantity)
+
+
+def cell(table, quantity: str, column: int = 0) -> tuple[str | None, str]:
+    """(exact in full, decimal) of one figure of a view's table (report text, as the detail pane shows it)."""
+    for row in table.rows:
+        if row.label == quantity:
+            shown = row.cells[column]
+            return shown.exact, shown.decimal
     raise KeyError(quantity)
 
 

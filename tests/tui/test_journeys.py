@@ -163,11 +163,11 @@ async def test_the_analyst_adds_an_action_and_a_strategy_and_compares_them_with_
         await pilot.press("f4")
         await settle(pilot)
         result = app.workbench.strategies_result
-        assert result.headers[1:] == ("eager", "careful", "daring")
-        net = next(row for row in result.rows if row[0] == "expected net")
+        assert result.table.columns[:3] == ("eager", "careful", "daring")
+        net = next(row for row in result.table.rows if row.label == "expected net")
         # By hand: heads (1/2) pays 1; at the offer accept gives 1/3 - 2/3, refuse -1, double 1 - 1/2.
         # eager 1/2 - 1/6 = 1/3, careful 1/2 - 1/2 = 0, daring 1/2 + 1/4 = 3/4.
-        assert [cell.split(" | ")[0] for cell in net[1:]] == ["1/3", "0", "3/4"]
+        assert [cell.exact for cell in net.cells[:3]] == ["1/3", "0", "3/4"]
         assert "double" in result.best and "3/4" in result.best
         await pilot.press("ctrl+s")
         await settle(pilot)

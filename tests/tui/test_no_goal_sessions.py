@@ -25,9 +25,9 @@ async def test_goal_none_in_the_session_form_shows_each_plans_risk_of_ruin(tmp_p
         await pilot.press("end", "ctrl+u", *"flat:1, timid")
         await settle(pilot)
         result = app.workbench.sessions_result
-        assert result.headers == ("quantity", "flat:1", "timid") and "play with no goal" in result.heading
-        ruin = next(row for row in result.rows if row[0] == "ruin chance (play never stops)")
+        assert result.plans == ("flat:1", "timid") and "play with no goal" in result.heading
+        ruin = next(row for row in result.table.rows if row.label == "ruin chance (play never stops)")
         # single-zero even-money bets: subfair, so ruin is certain (Feller, vol. I, ch. XIV)
-        assert all(cell.startswith("1 | 1.000") for cell in ruin[1:])
+        assert all(cell.exact == "1" and cell.decimal.startswith("1.000") for cell in ruin.cells)
         table = app.workbench.query_one("#sessions-table")
-        assert table.row_count == len(result.rows) and not app.workbench.query_one("#charts").display
+        assert table.row_count == len(result.table.rows) and not app.workbench.query_one("#charts").display

@@ -6,7 +6,7 @@ import pytest
 
 from oddsbench.model.load import read_ruleset_text
 from oddsbench.tui.screens.dialogs import Choose
-from tests.tui.helpers import app_on, copy_ruleset, edit_field, figure, go_to_state, settle
+from tests.tui.helpers import app_on, cell, copy_ruleset, edit_field, figure, go_to_state, settle
 
 # Pass line: house edge 7/495 (Epstein, The Theory of Gambling and Statistical Logic, ch. on dice (from memory)).
 PASS_LINE_EDGE = "7/495"
@@ -212,13 +212,12 @@ async def test_sessions_compare_two_plans_side_by_side(tmp_path):
         await pilot.press("f5")
         await settle(pilot)
         result = app.workbench.sessions_result
-        assert result.headers == ("quantity", "timid", "bold")
-        goal = next(row for row in result.rows if row[0] == "reach the goal")
+        assert result.plans == ("timid", "bold")
         # Bold play from 100 to 200 at even money is one bet of 100: the chance of the goal is the
         # chance of one win, 18/37 (Dubins and Savage, How to Gamble If You Must, bold play (from memory)).
-        assert goal[2].startswith("18/37 | ")
+        assert cell(result.table, "reach the goal", column=1)[0] == "18/37"
         table = app.workbench.query_one("#sessions-table")
-        assert table.row_count == len(result.rows) and len(table.columns) == 3
+        assert table.row_count == len(result.table.rows) and len(table.columns) == 3
         assert [series.plan for series in result.series] == ["timid", "bold"]
 
 
@@ -236,7 +235,7 @@ async def test_a_bad_plan_shows_the_sessions_message_and_keeps_the_figures(tmp_p
         assert app.workbench.sessions_result is before
         await pilot.press(*"2")
         await settle(pilot)
-        assert app.workbench.sessions_result.headers == ("quantity", "timid", "bold", "flat:2")
+        assert app.workbench.sessions_result.plans == ("timid", "bold", "flat:2")
 
 
 async def test_session_settings_are_edited_in_the_file(tmp_path):

@@ -15,7 +15,7 @@ from textual.worker import get_current_worker
 
 from oddsbench.tui.plain import plain
 from oddsbench.tui.tuning import DEFAULT_TARGET, TuneView
-from oddsbench.tui.widgets.cautions import CautionsBar
+from oddsbench.tui.widgets.cautions import CautionsLine
 from oddsbench.tui.widgets.fields import Field
 
 HINT = "Enter finds the values · Tab to the list, Enter applies one (Ctrl+Z undoes) · Escape closes"
@@ -49,7 +49,7 @@ class TuneDialog(ModalScreen[str | None]):
             with VerticalScroll(id="tune-answer-box"):
                 yield Static("", id="tune-answer", markup=False)
             yield OptionList(id="tune-choices")
-            yield CautionsBar(classes="cautions-text")
+            yield CautionsLine(classes="cautions-text")
 
     def on_mount(self) -> None:
         field = self.query_one("#tune-target", Field)

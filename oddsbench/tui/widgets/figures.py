@@ -1,46 +1,27 @@
-"""Figures as the report layer writes them: quantity | exact | decimal, and a one-line summary."""
+"""The headline figures of the round on one line, for the editing view where the table does not fit."""
 
 from __future__ import annotations
 
 from rich.text import Text
-from textual.widgets import DataTable, Static
+from textual.widgets import Static
 
 from oddsbench.tui.analysis import RoundResult
 from oddsbench.tui.plain import plain
 
 
-class FiguresTable(DataTable):
-    """The round's figures and end-state chances; kept (and marked stale) while the text is invalid."""
-
-    def __init__(self, **kwargs) -> None:
-        super().__init__(cursor_type="row", zebra_stripes=False, **kwargs)
-
-    def on_mount(self) -> None:
-        self.add_column("quantity", key="quantity")
-        self.add_column("exact", key="exact")
-        self.add_column("decimal", key="decimal")
-
-    def show(self, result: RoundResult) -> None:
-        row = self.cursor_row
-        self.clear()
-        for quantity, exact, decimal in result.rows:
-            self.add_row(plain(quantity), Text(exact, justify="right"), Text(decimal, justify="right"))
-        if self.row_count:
-            self.move_cursor(row=min(row, self.row_count - 1))
-
-
 class SummaryLine(Static):
-    """The headline figures in one line, for the editing view where the table does not fit."""
+    """The round's headline figures (the report layer's ``summary_items``), cut where the width ends."""
 
     def show(self, result: RoundResult, stale: bool) -> None:
-        text = Text()
-        for quantity, exact, decimal in result.summary:
-            if text:
-                text.append("  │  ", style="dim")
-            text.append(f"{quantity} ", style="bold")
-            text.append(exact, style="cyan")
-            text.append(" = ", style="dim")
-            text.append(decimal)
+        text = Text(no_wrap=True, overflow="ellipsis", end="")
         if stale:
-            text.append("  (last good figures)", style="yellow")
+            text.append("last good figures ", style="bold black on yellow")
+        for index, (quantity, exact, decimal) in enumerate(result.summary):
+            if index:
+                text.append(" │ ", style="dim")
+            text.append(plain(f"{quantity} ", "bold", multiline=False))
+            if exact:
+                text.append(exact, style="cyan")
+                text.append(" = ", style="dim")
+            text.append(plain(decimal, multiline=False))
         self.update(text)

@@ -14,8 +14,9 @@ VIEWS = (
     ("strategies", "Strategies", "f4"),
     ("sessions", "Sessions", "f5"),
     ("source", "Source", "f6"),
+    ("simulation", "Simulation", "f7"),
 )
-SHORT_LABELS = {"strategies": "Strat", "sessions": "Sess", "source": "Src"}
+SHORT_LABELS = {"strategies": "Strat", "sessions": "Sess", "source": "Src", "simulation": "Sim"}
 ROOMY = 100  # columns from which the bar spells every label out
 
 

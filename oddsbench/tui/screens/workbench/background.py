@@ -17,14 +17,24 @@ from oddsbench.tui import analysis
 from oddsbench.tui.analysis import Reading, RoundFailure, SolveCancelled
 
 READ, ROUND, STRATEGIES, SESSIONS = "read", "round", "strategies", "sessions"
+SIMULATION, REPORT = "simulation", "report"
 # Jobs in one group replace each other: a new text's reading cancels the solve of the old text.
-GROUPS = {READ: "analysis", ROUND: "analysis", STRATEGIES: "strategies", SESSIONS: "sessions"}
+GROUPS = {
+    READ: "analysis",
+    ROUND: "analysis",
+    STRATEGIES: "strategies",
+    SESSIONS: "sessions",
+    SIMULATION: "simulation",
+    REPORT: "report",
+}
 SOLVE_FAILURES = (ArithmeticError, ValueError, MemoryError)  # numbers out of reach, not a bug
 FAILED = {
     READ: "the file could not be read",
     ROUND: "the round could not be solved",
     STRATEGIES: "the strategies could not be solved",
     SESSIONS: "the sessions could not be solved",
+    SIMULATION: "the simulation could not run",
+    REPORT: "the report could not be written",
 }
 
 
@@ -66,11 +76,24 @@ def compare_sessions(ruleset, strategy: str | None, plans):
     return _shown(SESSIONS, SOLVE_FAILURES, analysis.sessions_text, ruleset, strategy, plans)
 
 
-def _shown(kind: str, expected: tuple[type[BaseException], ...], solve, *args):
+def simulate(ruleset, strategy: str | None, ask, progress):
+    """Play at random through the core; ``progress(done, total)`` is called from this thread."""
+    from oddsbench.tui.simulating import simulate_text
+
+    return _shown(SIMULATION, SOLVE_FAILURES, simulate_text, ruleset, strategy, ask, progress=progress)
+
+
+def write_report(ruleset, text: str, plans, path, force: bool):
+    from oddsbench.tui.reporting import write_report as write
+
+    return _shown(REPORT, (OSError, *SOLVE_FAILURES), write, ruleset, text, plans, path, force)
+
+
+def _shown(kind: str, expected: tuple[type[BaseException], ...], solve, *args, **options):
     """Run ``solve`` with the worker's cancel check; an expected failure becomes a message to show."""
     worker = get_current_worker()
     try:
-        return solve(*args, should_stop=lambda: worker.is_cancelled)
+        return solve(*args, should_stop=lambda: worker.is_cancelled, **options)
     except SolveCancelled:
         raise
     except expected as error:

@@ -9,6 +9,7 @@ from textual.app import App
 
 from oddsbench.model.errors import Problem
 from oddsbench.tui.editing import EditSession
+from oddsbench.tui.file_targets import path_problem
 from oddsbench.tui.screens.dialogs import AskName, Choose
 
 
@@ -18,18 +19,6 @@ def suggested_path(session: EditSession, folder: Path) -> Path:
     if path is not None and not session.read_only:
         return path
     return folder / path.name if path is not None else folder / "new-game.toml"
-
-
-def path_problem(value: str) -> str | None:
-    """Why the typed path cannot be saved to, or None."""
-    if not value:
-        return "a file name is needed"
-    target = Path(value).expanduser()
-    if target.is_dir():
-        return f"{value} is a folder"
-    if not target.parent.is_dir():
-        return f"no folder {target.parent}"
-    return None
 
 
 def ask_save_path(app: App, session: EditSession, folder: Path, save: Callable[[Path], object]) -> None:

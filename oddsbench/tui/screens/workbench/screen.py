@@ -12,62 +12,69 @@ from __future__ import annotations
 from functools import partial
 from pathlib import Path
 
-from rich.text import Text
 from textual import on
 from textual.app import ComposeResult
 from textual.binding import Binding
 from textual.screen import Screen
-from textual.widgets import ContentSwitcher, Static, TextArea
+from textual.widgets import ContentSwitcher, Footer, Static, TextArea
 from textual.worker import Worker, WorkerState
 
 from oddsbench.model.atomic_write import DiskChanged
 from oddsbench.model.document import DocumentError
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.visible import visible
-from oddsbench.tui import analysis
 from oddsbench.tui.analysis import Reading, RoundFailure, RoundResult
 from oddsbench.tui.editing import EditSession
-from oddsbench.tui.plain import plain
 from oddsbench.tui.screens.workbench import background
-from oddsbench.tui.screens.workbench.background import READ, ROUND, SESSIONS, STRATEGIES, Comparison, Job
+from oddsbench.tui.screens.workbench.background import (
+    READ,
+    REPORT,
+    ROUND,
+    SESSIONS,
+    SIMULATION,
+    STRATEGIES,
+    Job,
+)
 from oddsbench.tui.screens.workbench.edit_view import EditView
-from oddsbench.tui.screens.workbench.layout import workbench_layout
+from oddsbench.tui.screens.workbench.figure_views import FigureViews
+from oddsbench.tui.screens.workbench.layout import FIGURE_VIEWS, workbench_layout
 from oddsbench.tui.screens.workbench.recovery import RecoveryCopy
 from oddsbench.tui.screens.workbench.saving import ask_about_disk_change, ask_save_path, saved_message
 from oddsbench.tui.widgets.edits import EditRequested
-from oddsbench.tui.widgets.figures import FiguresTable, SummaryLine
 from oddsbench.tui.widgets.navigator import STATE, Navigator
 from oddsbench.tui.widgets.problems import ProblemsPanel
-from oddsbench.tui.widgets.sessions import SessionsPanel
 from oddsbench.tui.widgets.source_view import SOURCE_HEADING, SOURCE_HEADING_CONTROLS
-from oddsbench.tui.widgets.strategies import StrategiesPanel
 from oddsbench.tui.widgets.topbar import TopBar
 
-GOALS = ("max-return", "max-win", "min-loss", "min-steps")
 WIDE = 150
+TALL = 36  # rows from which the detail pane has room for more lines
+ROOMY = 100  # columns from which the footer spaces its keys and names Ctrl+P (F1 lists it anyway)
 
 
-class WorkbenchScreen(EditView, Screen):
+class WorkbenchScreen(EditView, FigureViews, Screen):
     """One open ruleset: editors, problems, figures and cautions."""
 
     AUTO_FOCUS = None  # the focus follows the view shown (on_screen_resume), not the first focusable widget
 
     BINDINGS = [
-        Binding("f2", "view('edit')", "Edit"),
-        Binding("f3", "view('round')", "Round"),
-        Binding("f4", "view('strategies')", "Strategies", show=False),
-        Binding("f5", "view('sessions')", "Sessions", show=False),
-        Binding("f6", "view('source')", "Source", show=False),
-        Binding("g", "next_goal", "Next goal (strategies)", show=False),
+        # The views' keys come first, even in the source text (whose own F6 and F7 select text).
+        Binding("f2", "view('edit')", "Edit view", show=False, priority=True),
+        Binding("f3", "view('round')", "Round view", show=False, priority=True),
+        Binding("f4", "view('strategies')", "Strategies view", show=False, priority=True),
+        Binding("f5", "view('sessions')", "Sessions view", show=False, priority=True),
+        Binding("f6", "view('source')", "Source view", show=False, priority=True),
+        Binding("f7", "view('simulation')", "Simulation view", show=False, priority=True),
+        Binding("f8", "write_report", "Write a report (md, csv, json)", show=False, priority=True),
         Binding("ctrl+s", "save", "Save", priority=True),
         Binding("f12", "save_as", "Save as", show=False),
-        Binding("ctrl+z", "undo", "Undo", priority=True),
-        Binding("ctrl+y", "redo", "Redo", priority=True),
-        Binding("ctrl+o", "open", "Open", show=False),
-        Binding("ctrl+n", "new", "New", show=False),
-        Binding("escape", "escape", "Cancel solve / back to list", show=False),
-        Binding("ctrl+r", "resolve", "Solve again", show=False),
-        Binding("s", "next_strategy", "Next strategy", show=False),
+        Binding("ctrl+z", "undo", "Undo", show=False, priority=True),
+        Binding("ctrl+y", "redo", "Redo", show=False, priority=True),
+        Binding("ctrl+o", "open", "Open a ruleset", show=False),
+        Binding("ctrl+n", "new", "New ruleset from the template", show=False),
+        Binding("escape", "escape", "Cancel a solve or a run; back to the table or list", show=False),
+        Binding("ctrl+r", "resolve", "Solve again (in Simulation: run)", show=False),
+        Binding("s", "next_strategy", "Next strategy (round, strategies)", show=False),
+        Binding("g", "next_goal", "Next goal of the best play (strategies)", show=False),
     ]
 
     def __init__(self, session: EditSession, folder: Path) -> None:
@@ -83,22 +90,9 @@ class WorkbenchScreen(EditView, Screen):
         self.status_note = ""
         self.entry: str | None = None
         self.force_fields = False  # set while undo/redo/source edits put document values into fields
-        self.goal = GOALS[0]
-        self.strategy_comparison = Comparison()
-        self.plans = analysis.DEFAULT_PLANS
-        self.session_comparison = Comparison()
+        self.init_figure_views()
         self.recovery = RecoveryCopy()
         self.jobs: dict[Worker, Job] = {}  # the background jobs running, by their worker
-
-    @property
-    def strategies_result(self):
-        """The strategies side by side (or why they could not be solved), as last solved."""
-        return self.strategy_comparison.result
-
-    @property
-    def sessions_result(self):
-        """The plans' sessions side by side (or why they could not be solved), as last solved."""
-        return self.session_comparison.result
 
     # ----- layout -----
 
@@ -108,7 +102,8 @@ class WorkbenchScreen(EditView, Screen):
     def on_mount(self) -> None:
         self.query_one("#progress").display = False
         self.query_one("#source-text", TextArea).cursor_blink = getattr(self.app, "cursor_blinks", True)
-        self._fit_width(self.app.size.width)
+        self._fit_width(self.app.size.width, self.app.size.height)
+        self._fit_detail()
         document = self.session.document
         start = document.head().get("start") if document is not None else None
         self.refresh_document(STATE + start if start and start in document.state_names() else None)
@@ -118,10 +113,14 @@ class WorkbenchScreen(EditView, Screen):
         self.recovery.release()
 
     def on_resize(self, event) -> None:
-        self._fit_width(event.size.width)
+        self._fit_width(event.size.width, event.size.height)
 
-    def _fit_width(self, width: int) -> None:
+    def _fit_width(self, width: int, height: int | None = None) -> None:
         self.set_class(width >= WIDE, "-wide")
+        self.set_class((height or self.app.size.height) >= TALL, "-tall")
+        for footer in self.query(Footer):  # one line at any width: never a wrapped key
+            footer.compact = width < ROOMY
+            footer.show_command_palette = width >= ROOMY
         if self.is_mounted:
             self._update_topbar()
 
@@ -192,6 +191,8 @@ class WorkbenchScreen(EditView, Screen):
             ROUND: self._solved,
             STRATEGIES: self._strategies_done,
             SESSIONS: self._sessions_done,
+            SIMULATION: self._simulated,
+            REPORT: self._report_written,
         }
         ended[job.kind](job.key, result)
 
@@ -280,77 +281,6 @@ class WorkbenchScreen(EditView, Screen):
         self._update_topbar()
         self._show_figures(stale=False)
 
-    def _show_figures(self, stale: bool) -> None:
-        result = self.result
-        summary = self.query_one(SummaryLine)
-        if result is None:
-            summary.update(Text("no figures yet: the ruleset has problems", style="yellow"))
-            for heading in self.query(".figures-heading").results(Static):
-                heading.update(Text("no figures yet: the ruleset has problems", style="yellow"))
-            return
-        summary.show(result, stale)
-        heading = Text(result.heading, style="bold")
-        if stale:
-            heading.append("  (last good figures: the current text has problems)", style="yellow")
-        for widget in self.query(".figures-heading").results(Static):
-            widget.update(heading)
-        for table in self.query(FiguresTable).results(FiguresTable):
-            table.show(result)
-        notes = self.query_one("#round-notes", Static)
-        notes.update(plain("\n".join(f"note: {note}" for note in result.notes)))
-
-    def compare_strategies(self) -> None:
-        """Solve every strategy and the best play, unless this text and goal are solved already."""
-        ruleset = self.reading.ruleset if self.reading else None
-        comparison = self.strategy_comparison
-        if ruleset is not None and comparison.ask((self.session.text, self.goal)):
-            self._show_strategies()
-            self._start(Job(STRATEGIES, comparison.key), background.compare_strategies, ruleset, self.goal)
-
-    def _strategies_done(self, key: tuple, result) -> None:
-        if self.strategy_comparison.ended(key, result):
-            self._show_strategies()
-
-    def _show_strategies(self) -> None:
-        stale = self.reading is not None and self.reading.ruleset is None
-        comparison = self.strategy_comparison
-        self.query_one(StrategiesPanel).show(comparison.result, stale=stale, busy=comparison.busy)
-
-    def compare_sessions(self) -> None:
-        """Solve every plan's session, unless this text, these plans and this strategy are solved already."""
-        ruleset = self.reading.ruleset if self.reading else None
-        comparison = self.session_comparison
-        if ruleset is not None and comparison.ask((self.session.text, self.plans, self.strategy)):
-            self._show_sessions()
-            self._start(Job(SESSIONS, comparison.key), background.compare_sessions, ruleset, self.strategy, self.plans)
-
-    def _sessions_done(self, key: tuple, result) -> None:
-        if self.session_comparison.ended(key, result):
-            self._show_sessions()
-
-    def _show_sessions(self) -> None:
-        stale = self.reading is not None and self.reading.ruleset is None
-        comparison = self.session_comparison
-        self.query_one(SessionsPanel).show(comparison.result, stale=stale, busy=comparison.busy)
-
-    @on(SessionsPanel.PlansChanged)
-    def _plans_changed(self, event: SessionsPanel.PlansChanged) -> None:
-        event.stop()
-        panel = self.query_one(SessionsPanel)
-        try:
-            plans = analysis.parse_plans(event.text)
-        except OddsbenchError as error:
-            panel.show_plan_problem(str(error))
-            return
-        panel.show_plan_problem("")
-        self.plans = plans
-        self.compare_sessions()
-
-    def action_next_goal(self) -> None:
-        self.goal = GOALS[(GOALS.index(self.goal) + 1) % len(GOALS)]
-        self.notify(f"best play for goal {self.goal}")
-        self.compare_strategies()
-
     # ----- edits -----
 
     @on(EditRequested)
@@ -371,7 +301,7 @@ class WorkbenchScreen(EditView, Screen):
         text = event.text_area.text
         if text != visible(self.session.text, multiline=True):  # an edit, not the file shown
             self.session.replace_text(text)
-            self._refresh_forced()
+            self.refresh_forms()
 
     # ----- actions -----
 
@@ -379,6 +309,7 @@ class WorkbenchScreen(EditView, Screen):
         switcher = self.query_one("#views", ContentSwitcher)
         switcher.current = view
         self.session.seal()
+        self._fit_detail()
         if view == "source":
             self._fill_source()
         self._focus_view(view)
@@ -386,6 +317,8 @@ class WorkbenchScreen(EditView, Screen):
             self.compare_strategies()
         elif view == "sessions":
             self.compare_sessions()
+        if view in FIGURE_VIEWS:
+            self._announce_first_figure()
         self._update_topbar()
 
     def _focus_view(self, view: str) -> None:
@@ -395,6 +328,7 @@ class WorkbenchScreen(EditView, Screen):
             "round": "#round-table",
             "strategies": "#strategies-table",
             "sessions": "#plans-field",
+            "simulation": "#sim-trials",
         }.get(view)
         wanted = self.query_one(target) if target else self.query_one(Navigator)
         chain = self.focus_chain
@@ -415,7 +349,7 @@ class WorkbenchScreen(EditView, Screen):
             self.notify("nothing to undo")
             return
         self.notify(f"undone: {step.label}")
-        self._refresh_forced()
+        self.refresh_forms()
 
     def action_redo(self) -> None:
         step = self.session.redo()
@@ -423,9 +357,11 @@ class WorkbenchScreen(EditView, Screen):
             self.notify("nothing to redo")
             return
         self.notify(f"redone: {step.label}")
-        self._refresh_forced()
+        self.refresh_forms()
 
-    def _refresh_forced(self) -> None:
+    def refresh_forms(self) -> None:
+        """Show the document again with every form refilled from the text (after undo, redo or a
+        recovered copy, where the text changed under the fields)."""
         self.force_fields = True
         try:
             self.refresh_document()
@@ -437,15 +373,20 @@ class WorkbenchScreen(EditView, Screen):
             "analysis": self.solving,
             "strategies": self.strategy_comparison.busy,
             "sessions": self.session_comparison.busy,
+            "simulation": self.simulating,
+            "report": self.writing_report,
         }
         if any(busy.values()):
             for group in (group for group, running in busy.items() if running):
                 self.workers.cancel_group(self, group)  # each job's end is shown in on_worker_state_changed
             return
-        if self.query_one("#views", ContentSwitcher).current == "edit":
+        if self.current_view == "edit":
             self.escape_in_edit()
 
     def action_resolve(self) -> None:
+        if self.current_view == "simulation":
+            self.run_simulation()
+            return
         self.analyse()
 
     def action_next_strategy(self) -> None:
@@ -458,21 +399,24 @@ class WorkbenchScreen(EditView, Screen):
         self.strategy = names[(index + 1) % len(names)]
         self.notify(f"round solved under strategy {self.strategy!r}")
         self.analyse()
+        self._show_strategies()
 
     def action_save(self) -> None:
         if self.session.read_only:
             self.action_save_as()
             return
-        self._save(None)
+        self.save_to(None)
 
     def action_save_as(self) -> None:
-        ask_save_path(self.app, self.session, self.folder, self._save)
+        ask_save_path(self.app, self.session, self.folder, self.save_to)
 
-    def _save(self, path: Path | None, overwrite: bool = False) -> bool:
+    def save_to(self, path: Path | None, overwrite: bool = False) -> bool:
+        """Save to ``path`` (None: the open file); True once written, else the user was told why."""
         try:
             saved = self.session.save(path, overwrite)
         except DiskChanged as changed:
-            ask_about_disk_change(self.app, str(changed), lambda: self._save(path, overwrite=True), self.action_save_as)
+            again = lambda: self.save_to(path, overwrite=True)  # noqa: E731
+            ask_about_disk_change(self.app, str(changed), again, self.action_save_as)
             return False
         except (OddsbenchError, DocumentError) as error:
             self.notify(str(error), severity="error")
