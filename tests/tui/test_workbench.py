@@ -352,3 +352,22 @@ async def test_an_unexpected_error_in_a_solve_is_shown_in_place_and_the_workbenc
         await pilot.press("f3")  # the workbench answers the next key
         await pilot.pause()
         assert app.workbench.query_one("#views").current == "round"
+
+
+async def test_every_field_of_a_short_form_sits_on_its_own_row_and_shows_what_is_typed(tmp_path):
+    # "a" then "d" asks for a new decision state: a "state name" field, then "actions". The name
+    # field once took the one-line question's style (same id), slid below its row and hid the typing.
+    app = app_on(None, tmp_path)
+    async with app.run_test(size=(80, 24)) as pilot:
+        await settle(pilot)
+        await pilot.press("a", "d")
+        await pilot.pause()
+        await pilot.press(*"offer")
+        await pilot.pause()
+        for field in app.screen.query(".ask-field"):
+            row = field.parent.region
+            assert field.region.y == row.y and field.region.height == 1, field.id
+        assert app.screen.query_one("#ask-field-name").value == "offer"
+        await pilot.press("enter", "enter")
+        await settle(pilot)
+        assert "[states.offer]" in app.workbench.session.text

@@ -112,22 +112,23 @@ class AskFields(ModalScreen[dict[str, str] | None]):
             yield Label(self.question, classes="dialog-question")
             if self.detail:
                 yield Static(self.detail, classes="dialog-detail", markup=False)
+            # ids of their own ("ask-field-KEY"): a field named "name" must not take the one-line Ask's "#ask-name" style
             for index, (key, label, _) in enumerate(self.fields):
                 with Horizontal(classes="ask-row"):
                     yield Label(label, classes="ask-label")
                     last = index == len(self.fields) - 1
-                    yield Field(key, moves_on_enter=not last, id=f"ask-{key}", classes="ask-field")
+                    yield Field(key, moves_on_enter=not last, id=f"ask-field-{key}", classes="ask-field")
             yield Static("Enter moves on and accepts, Escape cancels", id="ask-message", classes="dialog-detail")
 
     def on_mount(self) -> None:
         for key, _, value in self.fields:
-            field = self.query_one(f"#ask-{key}", Field)
+            field = self.query_one(f"#ask-field-{key}", Field)
             field.value = value
             field.cursor_position = len(value)
         self.query(Field).first().focus()
 
     def values(self) -> dict[str, str]:
-        return {key: self.query_one(f"#ask-{key}", Field).value.strip() for key, _, _ in self.fields}
+        return {key: self.query_one(f"#ask-field-{key}", Field).value.strip() for key, _, _ in self.fields}
 
     @on(Input.Submitted)
     def _submitted(self, event: Input.Submitted) -> None:
