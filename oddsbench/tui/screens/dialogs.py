@@ -112,7 +112,7 @@ class AskFields(ModalScreen[dict[str, str] | None]):
             yield Label(self.question, classes="dialog-question")
             if self.detail:
                 yield Static(self.detail, classes="dialog-detail", markup=False)
-            # ids of their own ("ask-field-KEY"): a field named "name" must not take the one-line Ask's "#ask-name" style
+            # ids of their own ("ask-field-KEY"): a field "name" must not take the one-line Ask's "#ask-name" style
             for index, (key, label, _) in enumerate(self.fields):
                 with Horizontal(classes="ask-row"):
                     yield Label(label, classes="ask-label")
