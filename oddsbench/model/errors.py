@@ -58,6 +58,16 @@ class OddsbenchError(Exception):
     """A user-facing failure outside ruleset files (bad option values, limits); one line."""
 
 
+class SettingError(OddsbenchError):
+    """A session setting missing or wrong. The command line prints the whole line (which may name its
+    option); a form shows ``reason`` beside the field of ``setting``, in the form's own words."""
+
+    def __init__(self, message: str, setting: str, reason: str) -> None:
+        super().__init__(message)
+        self.setting = setting
+        self.reason = reason
+
+
 def type_name(value: object) -> str:
     """A TOML value's kind in words, for messages such as "must be text, not a whole number"."""
     return {

@@ -10,8 +10,9 @@ from __future__ import annotations
 
 import tomllib
 from collections.abc import Mapping
-from dataclasses import dataclass, replace
+from dataclasses import dataclass, field, replace
 from pathlib import Path
+from typing import Any
 
 from oddsbench.model.document_checks import document_problems
 from oddsbench.model.errors import Problem, RulesetError
@@ -26,10 +27,14 @@ MAX_FILE_BYTES = 2_000_000
 
 @dataclass(frozen=True)
 class LoadResult:
-    """What reading found: the ruleset (None when any error) and every problem, in order."""
+    """What reading found: the ruleset (None when any error) and every problem, in order; and, for
+    the workbench's family forms, each family-made state's member (family, index values) and its
+    plain table as expanded (even when another part of the file has an error)."""
 
     ruleset: Ruleset | None
     problems: tuple[Problem, ...]
+    members: Mapping[str, FamilyMember] = field(default_factory=dict)
+    member_tables: Mapping[str, Mapping[str, Any]] = field(default_factory=dict)
     text: str | None = None  # the file's text as read (once: what was checked is what is kept)
 
     @property
@@ -83,7 +88,7 @@ def read_ruleset_text(content: str, source: str = "<text>", params: ParamOverrid
         problems.extend(validate(ruleset))
     problems = one_per_cause(problems, reader.members)
     has_error = any(problem.is_error for problem in problems)
-    return LoadResult(None if has_error else ruleset, tuple(problems))
+    return LoadResult(None if has_error else ruleset, tuple(problems), reader.members, reader.member_tables)
 
 
 def _member_state(problem: Problem, members: dict[str, FamilyMember]) -> str | None:

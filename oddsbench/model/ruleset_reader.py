@@ -51,6 +51,7 @@ class RulesetReader:
         self.params: dict[str, Rational] = {}
         self.failed_params: set[str] = set()
         self.members: dict[str, FamilyMember] = {}
+        self.member_tables: dict[str, dict[str, Any]] = {}
         self.overrides = dict(overrides or {})
         self.deck: Deck | None = None
         self.deck_failed = False
@@ -205,6 +206,7 @@ class RulesetReader:
             tables[name] = table
         expansion = expand_families(document, self.source, self.problems, self.params)
         self.members = expansion.members
+        self.member_tables = expansion.tables
         for name, table in expansion.tables.items():
             if name in tables:
                 self.error(

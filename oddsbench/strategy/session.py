@@ -10,14 +10,14 @@ from __future__ import annotations
 
 from collections.abc import Callable, Mapping
 from dataclasses import dataclass, field, replace
-from typing import Any
+from typing import Any, NoReturn
 
 import numpy as np
 
 from oddsbench.chain.bankroll import BankrollChain, BankrollGrid, build_bankroll_chain, make_grid
 from oddsbench.chain.round_distribution import RoundDistribution
 from oddsbench.model.defaults import NO_GOAL, SESSION_EXACT_LIMIT, SESSION_SETTING_NAMES, is_no_goal
-from oddsbench.model.errors import OddsbenchError
+from oddsbench.model.errors import OddsbenchError, SettingError
 from oddsbench.model.figure import Figure
 from oddsbench.model.numbers import QQ, Rational, is_integer, text, to_float, to_int
 from oddsbench.solve.session import FinalValue, solve_session
@@ -94,36 +94,50 @@ def settings_from_table(table: Mapping[str, Any], source: str) -> dict:
     values: dict[str, Any] = {}
     for name, raw in table.items():
         if name not in SETTING_NAMES:
-            raise OddsbenchError(f"{source}: [session], {name}: unknown setting (known: {', '.join(SETTING_NAMES)})")
+            _refuse(source, name, f"unknown setting (known: {', '.join(SETTING_NAMES)})")
         if name == "goal" and is_no_goal(raw):
             values[name] = NO_GOAL
             continue
         if isinstance(raw, bool) or not isinstance(raw, (int, float, str)):
-            raise OddsbenchError(f"{source}: [session], {name}: expected a number, got {raw!r}")
+            _refuse(source, name, f"expected a number, got {raw!r}")
         try:
             value = evaluate_text(raw if isinstance(raw, str) else repr(raw))
         except ExpressionError as error:
-            raise OddsbenchError(f"{source}: [session], {name}: {error}") from None
+            _refuse(source, name, str(error))
         if name == "max_rounds":
             if not is_integer(value) or value < 1:
-                raise OddsbenchError(f"{source}: [session], max_rounds: expected a whole number of at least 1")
+                _refuse(source, name, "expected a whole number of at least 1")
             value = to_int(value)
         values[name] = value
     return values
+
+
+def _refuse(source: str, name: str, reason: str) -> NoReturn:
+    raise SettingError(f"{source}: [session], {name}: {reason}", name, reason) from None
 
 
 def merge_settings(defaults: Mapping[str, Any], overrides: Mapping[str, Any], source: str) -> SessionSettings:
     """Given values over the ruleset's defaults; a bankroll is required, and a goal (or ``none``)."""
     merged = {**defaults, **{k: v for k, v in overrides.items() if v is not None}}
     if "bankroll" not in merged:
-        raise OddsbenchError(f"{source}: session needs --bankroll (or bankroll in the [session] table)")
+        raise SettingError(
+            f"{source}: session needs --bankroll (or bankroll in the [session] table)",
+            "bankroll",
+            "needed: the money a session starts with",
+        )
     if "goal" not in merged:
-        raise OddsbenchError(f"{source}: session needs --goal (or goal in the [session] table)")
+        raise SettingError(
+            f"{source}: session needs --goal (or goal in the [session] table)",
+            "goal",
+            'needed: the amount that ends a session, or "none" to play until ruin',
+        )
     if is_no_goal(merged["goal"]):
         if merged.get("max_rounds") is not None:
-            raise OddsbenchError(
+            raise SettingError(
                 f"{source}: --goal none plays until ruin; a time cap (max_rounds) needs a goal, or use --rounds N "
-                "with a goal for the chance of ruin within N rounds"
+                "with a goal for the chance of ruin within N rounds",
+                "max_rounds",
+                'with goal "none" play goes on until ruin: a cap on rounds needs a goal amount',
             )
         merged["goal"] = None
     return SessionSettings(**merged)

@@ -8,14 +8,16 @@ check; the core raises ``Cancelled`` when it says stop.
 
 from __future__ import annotations
 
-from collections.abc import Callable
-from dataclasses import dataclass
+from collections.abc import Callable, Mapping
+from dataclasses import dataclass, field
+from typing import Any
 
 from oddsbench.core.game import Game
 from oddsbench.core.settings import SessionRequest, Settings
 from oddsbench.core.work import Cancelled, Work
 from oddsbench.model.defaults import DEFAULT_PLANS
 from oddsbench.model.errors import OddsbenchError, Problem
+from oddsbench.model.families import FamilyMember
 from oddsbench.model.load import read_ruleset_text
 from oddsbench.model.ruleset import Ruleset
 from oddsbench.report.figure_table import FigureTable
@@ -28,10 +30,13 @@ __all__ = ["DEFAULT_PLANS", "SolveCancelled"]
 
 @dataclass(frozen=True)
 class Reading:
-    """The text read as ``oddsbench check`` reads a file: the ruleset (None if any error) and every problem."""
+    """The text read as ``oddsbench check`` reads a file: the ruleset (None if any error) and every
+    problem; the family members and their tables for the family forms."""
 
     ruleset: Ruleset | None
     problems: tuple[Problem, ...]
+    members: Mapping[str, FamilyMember] = field(default_factory=dict)
+    member_tables: Mapping[str, Mapping[str, Any]] = field(default_factory=dict)
 
 
 @dataclass(frozen=True)
@@ -59,7 +64,7 @@ class RoundFailure:
 
 def read(text: str, source: str) -> Reading:
     result = read_ruleset_text(text, source)
-    return Reading(result.ruleset, result.problems)
+    return Reading(result.ruleset, result.problems, result.members, result.member_tables)
 
 
 def _game(ruleset: Ruleset) -> Game:

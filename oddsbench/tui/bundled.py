@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+import re
+import tomllib
 from pathlib import Path
 
 DEMO_PREFERENCE = ("lantern-dice.toml", "pass-line.toml")
@@ -35,8 +37,29 @@ def is_bundled(path: Path) -> bool:
 
 
 def folder_rulesets(folder: Path) -> list[Path]:
-    """TOML files in a folder the user works in (not recursive: a quick pick, not a search)."""
+    """Rulesets in a folder the user works in (not recursive: a quick pick, not a search): TOML files
+    that read as a ruleset or at least have a ``[ruleset]`` table, so ``pyproject.toml`` is not offered."""
     try:
-        return sorted(path for path in folder.glob("*.toml") if path.is_file())
+        found = sorted(path for path in folder.glob("*.toml") if path.is_file())
     except OSError:
         return []
+    return [path for path in found if looks_like_ruleset(path)]
+
+
+_RULESET_HEADER = re.compile(r"^\s*\[\s*ruleset\s*\]", re.MULTILINE)
+
+
+def looks_like_ruleset(path: Path) -> bool:
+    """A ``[ruleset]`` table in the file (read capped; text that is not TOML yet counts when the
+    header is there: a broken ruleset is still one to open and fix)."""
+    from oddsbench.model.file_read import FileRefused, read_text_capped
+    from oddsbench.model.load import MAX_FILE_BYTES
+
+    try:
+        text = read_text_capped(path, MAX_FILE_BYTES)
+    except FileRefused:
+        return False
+    try:
+        return isinstance(tomllib.loads(text).get("ruleset"), dict)
+    except (tomllib.TOMLDecodeError, RecursionError):
+        return _RULESET_HEADER.search(text) is not None

@@ -6,6 +6,7 @@ the history, so undo, redo and the unsaved-changes guard all compare plain text.
 
 from __future__ import annotations
 
+import tomllib
 from collections.abc import Callable
 from dataclasses import dataclass
 from pathlib import Path
@@ -13,11 +14,12 @@ from pathlib import Path
 from tomlkit.exceptions import TOMLKitError
 
 from oddsbench.model.atomic_write import OnDisk, write_text_atomically
-from oddsbench.model.document import DocumentError, RulesetDocument, parse_document
-from oddsbench.model.errors import OddsbenchError, Problem
+from oddsbench.model.document import DocumentError, RulesetDocument, TomlPlace, parse_with_place
+from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.file_read import FileRefused, read_text_capped
 from oddsbench.model.history import History, Step
 from oddsbench.model.load import MAX_FILE_BYTES
+from oddsbench.model.toml_edits import LayoutError
 from oddsbench.tui.bundled import is_bundled
 
 Edit = Callable[[RulesetDocument], object]
@@ -29,6 +31,7 @@ class EditOutcome:
 
     changed: bool
     refused: str | None = None
+    result: object = None  # what the edit returned (a count of references changed, a new index)
 
 
 class EditSession:
@@ -40,7 +43,7 @@ class EditSession:
         self.saved_text: str | None = text if saved else None
         self.disk = OnDisk(text if saved else None)  # the file as read or last written: a save checks it still is
         self.document: RulesetDocument | None = None
-        self.toml_problem: Problem | None = None
+        self.toml_place: TomlPlace | None = None  # where the text stops being TOML (None when it is TOML)
         self._load(text)
 
     @classmethod
@@ -79,20 +82,22 @@ class EditSession:
         try:
             if self.document is None:
                 raise DocumentError("the file is not valid TOML")
-            edit(self.document)
+            result = edit(self.document)
         except DocumentError as error:
             self._load(before)
             return EditOutcome(False, str(error))
-        except (TOMLKitError, AttributeError, TypeError, KeyError, IndexError) as error:
+        except (LayoutError, TOMLKitError, AttributeError, TypeError, KeyError, IndexError, ValueError) as error:
             # tomlkit meets a layout it cannot edit in place: refuse the edit, keep every byte
             self._load(before)
-            return EditOutcome(
-                False,
-                f"this file's layout cannot take that edit ({type(error).__name__}): make it in the Source view (F6)",
-            )
+            return EditOutcome(False, _layout_refusal(error))
         after = self.document.text()
+        try:
+            tomllib.loads(after)  # what tomlkit wrote must read back as TOML, or the edit is not made
+        except tomllib.TOMLDecodeError as error:
+            self._load(before)
+            return EditOutcome(False, _layout_refusal(error))
         self.history.record(after, label, field)
-        return EditOutcome(after != before)
+        return EditOutcome(after != before, None, result)
 
     def replace_text(self, text: str, label: str = "source edit") -> None:
         """The whole text edited by hand (the source view)."""
@@ -131,4 +136,18 @@ class EditSession:
         return target
 
     def _load(self, text: str) -> None:
-        self.document, self.toml_problem = parse_document(text, self.source)
+        self.document, self.toml_place = parse_with_place(text)
+        if self.document is None and self.toml_place is None:
+            self.toml_place = TomlPlace(1, 1, "nested too deeply")
+
+    @property
+    def toml_message(self) -> str | None:
+        """Why the text is not TOML, with its line and column; the same words in every view."""
+        place = self.toml_place
+        if self.document is not None or place is None:
+            return None
+        return f"not valid TOML at line {place.line}, column {place.column}: {place.reason}"
+
+
+def _layout_refusal(error: Exception) -> str:
+    return f"this file's layout cannot take that edit ({type(error).__name__}): make it in the Source view (F6)"

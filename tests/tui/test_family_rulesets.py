@@ -28,7 +28,7 @@ async def test_adding_then_renaming_a_state_in_a_family_backed_ruleset(tmp_path)
     async with app.run_test(size=(100, 30)) as pilot:
         await settle(pilot)
         await go_to_state(pilot, "deal")
-        await pilot.press("a", *"extra", "enter")
+        await pilot.press("a", "p", *"extra", "enter")  # a asks which kind: p, a plain state
         await settle(pilot)
         await go_to_state(pilot, "blackjack")
         await pilot.press("r", "ctrl+u", *"natural-21", "enter")

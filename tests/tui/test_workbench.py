@@ -133,10 +133,11 @@ async def test_adding_and_deleting_an_outcome_from_the_table(tmp_path):
         app.workbench.query_one("#outcomes").focus()
         await pilot.press("a")
         await settle(pilot)
-        assert len(app.workbench.session.document.outcomes(app.workbench.query_one("StateEditor").where)) == 4
+        where = app.workbench.query_one("#state-outcomes").current.where
+        assert len(app.workbench.session.document.outcomes(where)) == 4
         await pilot.press("d")
         await settle(pilot)
-        assert len(app.workbench.session.document.outcomes(app.workbench.query_one("StateEditor").where)) == 3
+        assert len(app.workbench.session.document.outcomes(where)) == 3
 
 
 async def test_renaming_a_state_from_the_list_renames_its_references(tmp_path):

@@ -79,7 +79,20 @@ def test_added_states_and_outcomes_read_back_as_a_valid_game():
     document.set_outcome(OutcomeList("come-out"), 2, "prob", "1/36")
     result = read_ruleset_text(document.text(), "x")
     assert result.ruleset is not None, [str(p) for p in result.problems]
-    assert result.ruleset.state("bonus").outcomes[0].prob == result.ruleset.state("bonus").outcomes[1].prob
+    # the first outcome of a list takes all the chance; one added beside it has chance 0 until given one
+    assert [outcome.prob for outcome in result.ruleset.state("bonus").outcomes] == [1, 0]
+
+
+def test_a_new_outcome_goes_nowhere_until_a_target_is_typed_and_changes_no_chance():
+    document = RulesetDocument.from_text(PASS_LINE)
+    where = OutcomeList("come-out")
+    added = document.add_outcome(where, after=0)
+    assert added == 1
+    assert document.outcomes(where)[1].fields["to"] == "" and document.outcomes(where)[1].fields["prob"] == "0"
+    problems = [p for p in read_ruleset_text(document.text(), "x").problems if p.is_error]
+    assert problems and all("outcome 2" in p.where for p in problems)  # flagged beside the new outcome only
+    document.set_outcome(where, 1, "to", "won")
+    assert read_ruleset_text(document.text(), "x").ruleset is not None
 
 
 def test_deleting_and_moving_outcomes():

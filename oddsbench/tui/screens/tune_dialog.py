@@ -44,7 +44,7 @@ class TuneDialog(ModalScreen[str | None]):
                 classes="dialog-detail",
                 markup=False,
             )
-            yield Field("target", DEFAULT_TARGET, id="tune-target")
+            yield Field("target", DEFAULT_TARGET, moves_on_enter=False, id="tune-target")
             yield Static(HINT, id="tune-message", classes="dialog-detail", markup=False)
             with VerticalScroll(id="tune-answer-box"):
                 yield Static("", id="tune-answer", markup=False)

@@ -10,11 +10,11 @@ from textual.message import Message
 from textual.widgets import DataTable, Input, Static
 
 from oddsbench.model.document import RulesetDocument
-from oddsbench.model.errors import Problem
+from oddsbench.model.errors import OddsbenchError, Problem
 from oddsbench.model.places import place_of
 from oddsbench.tui.plain import plain
 from oddsbench.tui.widgets.edits import EditRequested
-from oddsbench.tui.widgets.fields import Field, FieldRow
+from oddsbench.tui.widgets.fields import Field, FieldRow, show_problems
 
 HEAD_LABELS = (("title", "title"), ("about", "about"), ("start", "start"), ("stake", "stake"))
 
@@ -143,8 +143,20 @@ class ParamsEditor(Vertical):
             self.post_message(self.ParamCommand("tune", self.current))
 
 
+SESSION_HINTS = {
+    "bankroll": "money at the start",
+    "goal": 'amount to stop at, or "none"',
+    "floor": "stop-loss (optional)",
+    "min_bet": "table minimum",
+    "max_bet": "table maximum",
+    "unit": "betting unit",
+    "max_rounds": "time cap (needs a goal)",
+}
+
+
 class SessionEditor(Vertical):
-    """The file's ``[session]`` table: bankroll, goal and limits, shared by every plan."""
+    """The file's ``[session]`` table: bankroll, goal (an amount, or ``none`` to play until ruin) and
+    limits, shared by every plan. A problem sits beside its setting, in the form's words."""
 
     def compose(self) -> ComposeResult:
         from oddsbench.model.defaults import SESSION_SETTING_NAMES as SETTING_NAMES
@@ -153,22 +165,22 @@ class SessionEditor(Vertical):
             "Session: the bankroll and limits every plan in Sessions (F5) plays with", classes="editor-heading"
         )
         for name in SETTING_NAMES:
-            yield FieldRow(name, name.replace("_", " "), "")
+            yield FieldRow(name, name.replace("_", " "), SESSION_HINTS.get(name, ""))
         yield Static("", id="session-message", classes="field-message")
 
-    def show(self, document: RulesetDocument, problem: str | None) -> None:
+    def show(self, document: RulesetDocument, problem: OddsbenchError | None) -> None:
         values = self._values = dict(document.session())
+        setting = getattr(problem, "setting", None)
         for row in self.query(FieldRow):
             row.input.show(values.get(row.field, ""))
-            mine = problem is not None and f"[session], {row.field}:" in problem
-            message = row.query_one(".field-message", Static)
-            message.update(plain(problem if mine else ""))
-            message.set_class(mine, "-error")
+            mine = problem is not None and setting == row.field
+            show_problems(row, row.input, [], getattr(problem, "reason", "") if mine else "")
+            row.query_one(".field-message", Static).set_class(mine, "-error")
             row.input.set_class(mine, "-invalid")
-        general = (
-            problem if problem and not any(f"[session], {r.field}:" in problem for r in self.query(FieldRow)) else ""
-        )
-        self.query_one("#session-message", Static).update(plain(general or ""))
+        general = str(problem) if problem is not None and setting is None else ""
+        message = self.query_one("#session-message", Static)
+        message.update(plain(general))
+        message.set_class(bool(general), "-error")
 
     @on(Input.Changed)
     def _changed(self, event: Input.Changed) -> None:
@@ -179,6 +191,7 @@ class SessionEditor(Vertical):
         value = event.input.value
         if getattr(self, "_values", {}).get(field, "") == value:
             return
+        self._values[field] = value
         self.post_message(
             EditRequested(lambda doc: doc.set_session(field, value), f"[session] {field}", field=f"session:{field}")
         )

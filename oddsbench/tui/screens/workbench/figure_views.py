@@ -162,17 +162,6 @@ class FigureViews:
 
     # ----- sessions -----
 
-    def _session_problem(self) -> str | None:
-        """The first problem of the [session] table, as the sessions command words it."""
-        ruleset = self.reading.ruleset if self.reading else None
-        if ruleset is None or not ruleset.session:
-            return None
-        try:
-            analysis.session_settings_of(ruleset)
-        except OddsbenchError as error:
-            return str(error)
-        return None
-
     def compare_sessions(self) -> None:
         """Solve every plan's session, unless this text, these plans and this strategy are solved already."""
         ruleset = self.reading.ruleset if self.reading else None

@@ -6,12 +6,13 @@ from __future__ import annotations
 
 from textual.app import ComposeResult
 from textual.containers import Horizontal, Vertical
-from textual.widgets import ContentSwitcher, Footer, ProgressBar, Static, TextArea
+from textual.widgets import ContentSwitcher, Footer, ProgressBar, Static
 
 from oddsbench.tui import analysis
 from oddsbench.tui.widgets.cautions import CautionsLine
 from oddsbench.tui.widgets.deck_editor import DeckEditor
 from oddsbench.tui.widgets.detail import DetailPane
+from oddsbench.tui.widgets.family_editor import FamilyEditor
 from oddsbench.tui.widgets.figure_grid import FigureGrid
 from oddsbench.tui.widgets.figures import SummaryLine
 from oddsbench.tui.widgets.navigator import Navigator
@@ -19,17 +20,13 @@ from oddsbench.tui.widgets.problems import ProblemsPanel
 from oddsbench.tui.widgets.sessions import SessionsPanel
 from oddsbench.tui.widgets.setup_editor import ParamsEditor, SessionEditor, SetupEditor
 from oddsbench.tui.widgets.simulation import SimulationPanel
+from oddsbench.tui.widgets.source_view import SourceView
 from oddsbench.tui.widgets.state_editor import StateEditor
 from oddsbench.tui.widgets.strategies import StrategiesPanel
+from oddsbench.tui.widgets.strategy_editor import StrategyEditor
 from oddsbench.tui.widgets.topbar import TopBar
 
 FIGURE_VIEWS = ("round", "strategies", "sessions", "simulation")  # the views with a detail pane
-
-SOURCE_HEADING = "The file as text: anything the forms do not cover. Edits here are undoable too."
-SOURCE_HEADING_CONTROLS = (
-    "The file as text. It holds control characters, shown here as escapes such as \\x1b: "
-    "an edit here writes them as shown."
-)
 
 
 def workbench_layout() -> ComposeResult:
@@ -45,6 +42,9 @@ def workbench_layout() -> ComposeResult:
                     yield SessionEditor(id="session-editor")
                     yield DeckEditor(id="deck-editor")
                     yield StateEditor(id="state-editor")
+                    yield FamilyEditor(id="family-editor")
+                    yield StrategyEditor(id="strategy-editor")
+                    yield Static("", id="toml-problem")
                 yield ProblemsPanel(id="problems")
             with Vertical(id="side-figures"):
                 yield Static("", classes="figures-heading", id="side-heading")
@@ -64,13 +64,7 @@ def workbench_layout() -> ComposeResult:
             yield SessionsPanel(", ".join(analysis.DEFAULT_PLANS), id="sessions-panel")
         with Vertical(id="simulation"):
             yield SimulationPanel(id="simulation-panel")
-        with Vertical(id="source"):
-            yield Static(
-                SOURCE_HEADING,
-                classes="editor-heading",
-                id="source-heading",
-            )
-            yield TextArea("", id="source-text", soft_wrap=False, show_line_numbers=True)
+        yield SourceView(id="source")
     yield DetailPane(id="detail")
     yield SummaryLine("", id="summary")
     yield CautionsLine(id="cautions")

@@ -21,8 +21,7 @@ from textual.worker import Worker, WorkerState
 
 from oddsbench.model.atomic_write import DiskChanged
 from oddsbench.model.document import DocumentError
-from oddsbench.model.errors import OddsbenchError, Problem
-from oddsbench.model.places import place_of
+from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.visible import visible
 from oddsbench.tui.analysis import Reading, RoundFailure, RoundResult
 from oddsbench.tui.editing import EditSession
@@ -36,23 +35,15 @@ from oddsbench.tui.screens.workbench.background import (
     STRATEGIES,
     Job,
 )
-from oddsbench.tui.screens.workbench.commands import param_command, state_command
+from oddsbench.tui.screens.workbench.edit_view import EditView
 from oddsbench.tui.screens.workbench.figure_views import FigureViews
-from oddsbench.tui.screens.workbench.layout import (
-    FIGURE_VIEWS,
-    SOURCE_HEADING,
-    SOURCE_HEADING_CONTROLS,
-    workbench_layout,
-)
+from oddsbench.tui.screens.workbench.layout import FIGURE_VIEWS, workbench_layout
 from oddsbench.tui.screens.workbench.recovery import RecoveryCopy
 from oddsbench.tui.screens.workbench.saving import ask_about_disk_change, ask_save_path, saved_message
-from oddsbench.tui.widgets.deck_editor import DeckEditor
 from oddsbench.tui.widgets.edits import EditRequested
-from oddsbench.tui.widgets.fields import Field
-from oddsbench.tui.widgets.navigator import DECK, PARAMS, SESSION, SETUP, STATE, Navigator
+from oddsbench.tui.widgets.navigator import STATE, Navigator
 from oddsbench.tui.widgets.problems import ProblemsPanel
-from oddsbench.tui.widgets.setup_editor import ParamsEditor, SessionEditor, SetupEditor
-from oddsbench.tui.widgets.state_editor import StateEditor
+from oddsbench.tui.widgets.source_view import SOURCE_HEADING, SOURCE_HEADING_CONTROLS
 from oddsbench.tui.widgets.topbar import TopBar
 
 WIDE = 150
@@ -60,7 +51,7 @@ TALL = 36  # rows from which the detail pane has room for more lines
 ROOMY = 100  # columns from which the footer spaces its keys and names Ctrl+P (F1 lists it anyway)
 
 
-class WorkbenchScreen(FigureViews, Screen):
+class WorkbenchScreen(EditView, FigureViews, Screen):
     """One open ruleset: editors, problems, figures and cautions."""
 
     AUTO_FOCUS = None  # the focus follows the view shown (on_screen_resume), not the first focusable widget
@@ -141,13 +132,11 @@ class WorkbenchScreen(FigureViews, Screen):
         document = self.session.document
         navigator = self.query_one(Navigator)
         problems = self.reading.problems if self.reading else ()
+        navigator.disabled = document is None
         if document is not None:
-            navigator.disabled = False
             navigator.show(document, select, self._failing_states(problems))
-            self._show_editor(problems)
-        else:
-            navigator.disabled = True
-            self.query_one("#views", ContentSwitcher).current = "source"
+        self._show_editor(problems)
+        self.show_toml_problem()
         if self.query_one("#views", ContentSwitcher).current == "source":
             self._fill_source()
         self.sync_recovery()
@@ -164,32 +153,6 @@ class WorkbenchScreen(FigureViews, Screen):
     def drop_recovery(self) -> None:
         """The unsaved changes were saved or given up: their recovery copy is no longer wanted."""
         self.recovery.drop()
-
-    def _failing_states(self, problems: tuple[Problem, ...]) -> set[str]:
-        return {place.state for p in problems if p.is_error if (place := place_of(p)).state}
-
-    def _show_editor(self, problems: tuple[Problem, ...]) -> None:
-        document = self.session.document
-        if document is None:
-            return
-        entry = self.query_one(Navigator).current_entry or SETUP
-        editors = self.query_one("#editors", ContentSwitcher)
-        if entry == SETUP:
-            editors.current = "setup-editor"
-            self.query_one(SetupEditor).show(document, problems)
-        elif entry == PARAMS:
-            editors.current = "params-editor"
-            self.query_one(ParamsEditor).show(document, problems)
-        elif entry == SESSION:
-            editors.current = "session-editor"
-            self.query_one(SessionEditor).show(document, self._session_problem())
-        elif entry == DECK:
-            editors.current = "deck-editor"
-            deck = self.reading.ruleset.deck if self.reading and self.reading.ruleset else None
-            self.query_one(DeckEditor).show(document, deck, problems)
-        elif entry.startswith(STATE) and entry[len(STATE) :] in document.state_names():
-            editors.current = "state-editor"
-            self.query_one(StateEditor).show(document, entry[len(STATE) :], problems)
 
     def _update_topbar(self) -> None:
         current = self.query_one("#views", ContentSwitcher).current
@@ -264,7 +227,7 @@ class WorkbenchScreen(FigureViews, Screen):
         if generation != self.generation:
             return
         self.reading = reading
-        problems = reading.problems
+        problems = self.shown_problems(reading)
         ruleset = reading.ruleset
         valid = "valid"
         if ruleset is not None:
@@ -329,27 +292,9 @@ class WorkbenchScreen(FigureViews, Screen):
             return
         if outcome.changed:
             self.refresh_document(event.select)
-
-    @on(Navigator.Picked)
-    def _picked(self, event: Navigator.Picked) -> None:
-        event.stop()
-        if event.entry == self.entry:
-            return
-        self.entry = event.entry
-        self.session.seal()
-        self._show_editor(self.reading.problems if self.reading else ())
-
-    @on(Navigator.StateCommand)
-    def _state_command(self, event: Navigator.StateCommand) -> None:
-        event.stop()
-        if self.session.document is not None:
-            state_command(self, self.session.document, event.command, event.state)
-
-    @on(ParamsEditor.ParamCommand)
-    def _param_command(self, event: ParamsEditor.ParamCommand) -> None:
-        event.stop()
-        if self.session.document is not None:
-            param_command(self, self.session.document, event.command, event.name)
+            message = event.done(outcome.result) if event.done is not None else None
+            if message:
+                self.notify(message)
 
     @on(TextArea.Changed, "#source-text")
     def _source_changed(self, event: TextArea.Changed) -> None:
@@ -362,9 +307,6 @@ class WorkbenchScreen(FigureViews, Screen):
 
     def action_view(self, view: str) -> None:
         switcher = self.query_one("#views", ContentSwitcher)
-        if self.session.document is None and view != "source":
-            self.notify("the file is not valid TOML: fix it in the source view first", severity="warning")
-            view = "source"
         switcher.current = view
         self.session.seal()
         self._fit_detail()
@@ -439,20 +381,7 @@ class WorkbenchScreen(FigureViews, Screen):
                 self.workers.cancel_group(self, group)  # each job's end is shown in on_worker_state_changed
             return
         if self.current_view == "edit":
-            # Esc in a field goes back to the table of its editor, where it is shown (an end state has
-            # none), else to the list; the focus chain holds exactly the widgets that can take focus now.
-            if isinstance(self.focused, Field):
-                editor = self.query_one("#editors", ContentSwitcher).current
-                target = {
-                    "state-editor": "#outcomes",
-                    "params-editor": "#params-table",
-                    "deck-editor": "#deck-counts",
-                }.get(editor)
-                table = self.query_one(target) if target is not None else None
-                if table is not None and table in self.focus_chain:
-                    table.focus()
-                    return
-            self.query_one(Navigator).focus()
+            self.escape_in_edit()
 
     def action_resolve(self) -> None:
         if self.current_view == "simulation":
