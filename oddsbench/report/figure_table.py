@@ -12,7 +12,7 @@ from dataclasses import dataclass
 from typing import TYPE_CHECKING
 
 from oddsbench.model.figure import Figure
-from oddsbench.model.numbers import text
+from oddsbench.model.numbers import text, to_float
 from oddsbench.report.meanings import meaning
 from oddsbench.report.numbers_text import figure_decimal_text, fit_exact
 from oddsbench.report.round_report import figure_items, hand_rows, is_percent
@@ -103,6 +103,44 @@ def round_table(figures: RoundFigures, column: str = "value") -> FigureTable:
         key = "hands" if index == 0 else "hands_ending"
         rows.append(row(key, label, (Shown(count, share),)))
     return FigureTable((column,), tuple(rows))
+
+
+def net_law_table(figures: RoundFigures) -> FigureTable:
+    """The round's net law, one row per net value: its chance and its contribution (chance x net);
+    no rows where the core did not list it."""
+    table = figures.return_table
+    law = () if table is None or table.law is None else table.law
+    rows = [
+        row(
+            f"net_law[{text(value.net)}]",
+            f"net {text(value.net)}",
+            (shown(_exact(value.probability), percent=True), shown(_exact(value.contribution))),
+            "net_law",
+        )
+        for value in law
+    ]
+    return FigureTable(("chance", "contribution"), tuple(rows))
+
+
+def shares_table(figures: RoundFigures) -> FigureTable:
+    """Each paying step: its pay, the expected times a round takes it, and its share of the expected net."""
+    from oddsbench.report.return_table_report import step_label
+
+    shares = () if figures.return_table is None else figures.return_table.shares
+    rows = [
+        row(
+            f"return_share[{step_label(s.source, s.action, s.target)}]",
+            step_label(s.source, s.action, s.target),
+            (shown(_exact(s.pay)), shown(_exact(s.taken)), shown(_exact(s.contribution))),
+            "return_share",
+        )
+        for s in shares
+    ]
+    return FigureTable(("pay", "times taken", "share"), tuple(rows))
+
+
+def _exact(value) -> Figure:
+    return Figure(value, to_float(value))
 
 
 def side_by_side(columns: list[tuple[str, RoundFigures]]) -> FigureTable:

@@ -31,6 +31,10 @@ ROUND = {
     "hit_frequency": "The chance that one round ends with the player ahead (net result above zero).",
     "push_probability": "The chance that one round ends even: the net result is exactly zero.",
     "loss_probability": "The chance that one round ends with the player behind (net result below zero).",
+    "net_law": "The chance that one round's net result is exactly this value, and its contribution (chance x "
+    "net) to the expected net: the contributions add up to the expected net.",
+    "return_share": "A step that pays: its pay, the expected number of times one round takes it, and its share "
+    "(times x pay) of the expected net; the shares add up to the expected net.",
     "expected_steps": "The average number of steps (moves from state to state) one round takes before it ends.",
     "steps_variance": "How widely the number of steps in one round spreads around its average.",
     "ended_by": "The chance that the round has ended within the given number of steps.",

@@ -71,6 +71,19 @@ def share_rows(figures: RoundFigures, limit: int | None = SHARE_TEXT_ROWS, width
     ]
 
 
+def law_title(figures: RoundFigures) -> str:
+    """The net law's one-line title on a screen ("" with no return table)."""
+    table = figures.return_table
+    if table is None:
+        return ""
+    if table.law is None:
+        return f"net law: {table.values:,} values, too many to list (see the notes)"
+    return f"net law: {table.values:,} value(s); contribution = chance x net, summing to the expected net"
+
+
+SHARES_TITLE = "each paying step's share of the expected net (times taken x pay)"
+
+
 def return_table_text(figures: RoundFigures) -> str:
     """The net law and the shares of the expected net, for ``oddsbench solve`` (empty when not listed)."""
     table = figures.return_table

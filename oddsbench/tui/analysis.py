@@ -41,13 +41,18 @@ class Reading:
 
 @dataclass(frozen=True)
 class RoundResult:
-    """One round's figures as a table of text, the one-line summary, and the notes."""
+    """One round's figures as a table of text, the one-line summary, the notes, and the return
+    table: the net law and each paying step's share of the expected net, with their headings."""
 
     heading: str
     table: FigureTable
     summary: tuple[tuple[str, str, str], ...]
     notes: tuple[str, ...]
     strategy: str | None
+    law_heading: str = ""
+    law: FigureTable | None = None
+    shares_heading: str = ""
+    shares: FigureTable | None = None
 
 
 @dataclass(frozen=True)
@@ -82,7 +87,8 @@ def solve_round_text(
 ) -> RoundResult | RoundFailure:
     """The round's figures under ``strategy``; raises ``SolveCancelled`` when ``should_stop`` says so."""
     from oddsbench.core.rounds import round_figures
-    from oddsbench.report.figure_table import round_table
+    from oddsbench.report.figure_table import net_law_table, round_table, shares_table
+    from oddsbench.report.return_table_report import SHARES_TITLE, law_title
     from oddsbench.report.round_report import round_heading, summary_items
 
     try:
@@ -92,7 +98,18 @@ def solve_round_text(
     figures = results.columns[0].figures
     played = strategy if strategy and ruleset.has_decisions else None
     summary = tuple(summary_items(figures, played))
-    return RoundResult(round_heading(figures, played), round_table(figures), summary, figures.notes, strategy)
+    shares = shares_table(figures)
+    return RoundResult(
+        round_heading(figures, played),
+        round_table(figures),
+        summary,
+        figures.notes,
+        strategy,
+        law_title(figures),
+        net_law_table(figures),
+        SHARES_TITLE if shares else "",
+        shares,
+    )
 
 
 @dataclass(frozen=True)

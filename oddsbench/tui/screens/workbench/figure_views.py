@@ -91,6 +91,14 @@ class FigureViews:
             self.query_one(widget_id, Static).update(heading)
         for grid_id in ("#round-table", "#side-table"):
             self.query_one(grid_id, FigureGrid).show(result.table, self.cells)
+        for name, text, table in (
+            ("law", result.law_heading, result.law),
+            ("shares", result.shares_heading, result.shares),
+        ):
+            self.query_one(f"#{name}-heading", Static).update(plain(text))
+            grid = self.query_one(f"#{name}-table", FigureGrid)
+            grid.show(table, self.cells)
+            grid.display = bool(table)
         notes = self.query_one("#round-notes", Static)
         notes.update(plain("\n".join(f"note: {note}" for note in result.notes)))
 

@@ -53,6 +53,10 @@ def workbench_layout() -> ComposeResult:
             yield Static("", classes="figures-heading", id="round-heading")
             yield ProgressBar(total=None, show_eta=False, show_percentage=False, id="progress")
             yield FigureGrid(id="round-table", classes="figure-grid")
+            yield Static("", id="law-heading", classes="section-heading")
+            yield FigureGrid(id="law-table", classes="figure-grid return-grid")
+            yield Static("", id="shares-heading", classes="section-heading")
+            yield FigureGrid(id="shares-table", classes="figure-grid return-grid")
             yield Static("", id="round-notes", classes="notes")
         with Vertical(id="strategies"):
             yield StrategiesPanel(id="strategies-panel")
