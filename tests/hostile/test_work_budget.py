@@ -50,7 +50,8 @@ def given(*args: str) -> Callable[[Path], list[str]]:
     return lambda folder: list(args)
 
 
-EXACT_SHARE_NOTE = "of the time budget"  # both notes: "...its share of the time budget at state k", "...share of the time budget (raise it"
+# both notes: "...used its share of the time budget at state k ..." and "...share of the time budget (raise it"
+EXACT_SHARE_NOTE = "of the time budget"
 
 ATTACKS = [
     # A valid walk whose one probability has a 60-digit denominator: its exact solves are
