@@ -37,6 +37,7 @@ def positive_seconds(text: str) -> float:
 
 def add_budget(parser: argparse.ArgumentParser) -> None:
     """``--budget`` and ``--memory``: the work budget of the command (``model/budget.py``)."""
+    from oddsbench.model.budget import EXACT_RULE
     from oddsbench.model.defaults import DEFAULT_BUDGET_SECONDS, DEFAULT_MEMORY_MB
 
     group = parser.add_argument_group(
@@ -47,8 +48,8 @@ def add_budget(parser: argparse.ArgumentParser) -> None:
         type=positive_seconds,
         default=DEFAULT_BUDGET_SECONDS,
         metavar="SECONDS",
-        help=f"time the command may take, reading included (default {DEFAULT_BUDGET_SECONDS}); exact arithmetic "
-        "may use the first 40%%, then decimals only",
+        help=f"time the command may take, reading included (default {DEFAULT_BUDGET_SECONDS}); "
+        + EXACT_RULE.replace("%", "%%"),
     )
     group.add_argument(
         "--memory",
