@@ -160,7 +160,9 @@ def _one_plan(
         return PlanResult(plan.spelling, no_goal=_no_goal(distribution, played, plan, request, work))
     from oddsbench.strategy.session import analyse_session
 
-    figures = analyse_session(distribution, played, plan, settings.session_exact_limit, settings.rounds, work.should_stop)
+    figures = analyse_session(
+        distribution, played, plan, settings.session_exact_limit, settings.rounds, work.should_stop
+    )
     return PlanResult(plan.spelling, bounded=figures)
 
 
