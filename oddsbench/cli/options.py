@@ -203,4 +203,17 @@ def file_or_round(args: argparse.Namespace, command: str):
 
     if (args.file is None) == (args.round is None):
         raise OddsbenchError(f"{command}: give a ruleset FILE or --round NET:PROB,..., not both and not neither")
-    return inline_round(args.round) if args.round is not None else load_game(args.file)
+    return inline_round(args.round, "--round") if args.round is not None else load_game(args.file)
+
+
+def option_of(setting: str) -> str:
+    """The command line's way to change a setting the core names (``model/errors.py``, ``SettingProblem``):
+    its option, ``--`` and the key (``min_bet`` -> ``--min-bet``)."""
+    return "--" + setting.replace("_", "-")
+
+
+def error_line(error: BaseException) -> str:
+    """An error as the command line says it: a setting problem ends with the options that change it."""
+    from oddsbench.model.errors import with_ways
+
+    return with_ways(error, option_of, "change with ")

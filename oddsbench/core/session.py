@@ -19,7 +19,7 @@ from oddsbench.core.settings import DEFAULTS, SessionRequest, Settings
 from oddsbench.core.work import NO_WORK, Work, budgeted
 from oddsbench.model import budget as budgets
 from oddsbench.model.defaults import DEFAULT_PLANS, NO_GOAL_DEFAULT_PLANS
-from oddsbench.model.errors import OddsbenchError
+from oddsbench.model.errors import OddsbenchError, SettingProblem
 from oddsbench.model.ruleset import Ruleset
 from oddsbench.strategy.plans import Plan, parse_plan
 from oddsbench.strategy.session import SessionFigures, SessionSettings, merge_settings, settings_from_table
@@ -90,7 +90,9 @@ def session_round(game: Game, strategy: str | None, max_states: int | None = Non
     """The round a session repeats: the inline round, or the ruleset's round under a named strategy."""
     if game.round is not None:
         if strategy is not None:
-            raise OddsbenchError(f"{game.source}: --strategy needs a ruleset file; an inline round has no decisions")
+            raise SettingProblem(
+                f"{game.source}: a strategy needs a ruleset file; an inline round has no decisions", "strategy"
+            )
         return game.round
     from oddsbench.strategy.compare import policy_of, starting_at
 
@@ -137,7 +139,11 @@ def solve_plans(
     spellings = request.plans or (NO_GOAL_DEFAULT_PLANS if session.no_goal else DEFAULT_PLANS)
     plans = [parse_plan(spelling, no_goal=session.no_goal) for spelling in spellings]
     if session.no_goal and settings.rounds is not None:
-        raise OddsbenchError(f"{game.source}: --rounds needs a goal; with --goal none the session only ends at ruin")
+        raise SettingProblem(
+            f"{game.source}: a number of rounds needs a goal; with no goal the session only ends at ruin",
+            "rounds",
+            "goal",
+        )
     results = []
     for done, plan in enumerate(plans):
         work.check()
