@@ -21,13 +21,10 @@ from oddsbench.solve import rational_function
 
 
 def chebyshev(n: int) -> list[int]:
-    before, now = [1], [0, 1]
-    for _ in range(n - 1):
-        following = [0] + [2 * c for c in now]
-        for i, c in enumerate(before):
-            following[i] -= c
-        before, now = now, following
-    return now
+    """T_n's integer coefficients, lowest power first (sympy's own, exact)."""
+    from sympy import chebyshevt_poly
+
+    return [int(c) for c in reversed(chebyshevt_poly(n, polys=True).all_coeffs())]
 
 
 def ruleset(n: int, chance_is_x: bool) -> str:
