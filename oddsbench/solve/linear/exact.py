@@ -5,6 +5,9 @@
   each of its leading principal blocks: elimination in the given order needs no pivoting. Fill-in
   stays inside a chain's band (a bankroll walk stays tridiagonal, a 35-to-1 bet keeps a band of
   36), which is what makes exact solves of thousands of states take a fraction of a second.
+* ``integer``: ``IntegerLU`` (``linear/integer_lu.py``), the same elimination in whole numbers
+  (Bareiss): nothing reduced by a gcd until a value is asked for; solves return whole numerators
+  over one denominator, for callers that need only a few figures from long solution vectors.
 * ``dense``: sympy's ``DomainMatrix`` over QQ (python-flint's ``fmpq_mat`` underneath), with
   pivoting: for small general systems that are not I - Q (a root fit, a stationary law).
 * ``fraction-free``: sympy's sparse fraction-free ``solve_den`` over ZZ after clearing
@@ -30,7 +33,7 @@ from oddsbench.solve.linear.costs import (
 from oddsbench.solve.linear.costs import bits as _bits
 
 Row = dict[int, Rational]
-EXACT_METHODS = ("elimination", "dense", "fraction-free")
+EXACT_METHODS = ("elimination", "integer", "dense", "fraction-free")
 
 
 class ExactSparseLU:
