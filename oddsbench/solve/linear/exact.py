@@ -26,7 +26,7 @@ from oddsbench.solve.linear.costs import (
     POLL_OPERATIONS,
     POLL_ROWS,
     ExactClock,
-    ExactTooLarge,
+    factor_bits,
     require_exact_seconds,
     solve_seconds,
 )
@@ -88,12 +88,8 @@ class ExactSparseLU:
                 raise OddsbenchError("the first-step system is singular: some state cannot reach an end")
             kept = {j: v for j, v in row.items() if v != 0}
             if max_bits is not None:
-                stored_bits += (len(kept) + len(multipliers) + 1) * _bits(pivot)
-                if stored_bits > max_bits:
-                    raise ExactTooLarge(
-                        f"the exact factors reach about {stored_bits:,} bits at state {i + 1:,} of {size:,}, "
-                        f"over the exact size limit of {max_bits:,} bits (raise it with --exact-bits)"
-                    )
+                added = (len(kept) + len(multipliers) + 1) * _bits(pivot)
+                stored_bits = factor_bits(stored_bits, added, max_bits, i, size)
             upper_maps.append(kept)
             self.lower.append(multipliers)
             self.upper.append(sorted(kept.items()))

@@ -30,7 +30,7 @@ from flint import fmpq, fmpz
 
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.numbers import QQ, Rational
-from oddsbench.solve.linear.costs import POLL_OPERATIONS, POLL_ROWS, ExactClock, ExactTooLarge, require_exact_seconds
+from oddsbench.solve.linear.costs import POLL_OPERATIONS, POLL_ROWS, ExactClock, factor_bits, require_exact_seconds
 from oddsbench.solve.linear.costs import fastest as _fastest
 
 SOLVE_WORK_FACTOR = 1.0  # a solve row costs about one timed multiply-and-divide per entry touched
@@ -155,12 +155,8 @@ class IntegerLU:
                 raise OddsbenchError("the first-step system is singular: some state cannot reach an end")
             kept = {j: v for j, v in row.items() if v != 0}
             if max_bits is not None:
-                stored_bits += (len(kept) + len(steps) + 1) * pivot.bit_length()
-                if stored_bits > max_bits:
-                    raise ExactTooLarge(
-                        f"the exact factors reach about {stored_bits:,} bits at state {i + 1:,} of {size:,}, "
-                        f"over the exact size limit of {max_bits:,} bits (raise it with --exact-bits)"
-                    )
+                added = (len(kept) + len(steps) + 1) * pivot.bit_length()
+                stored_bits = factor_bits(stored_bits, added, max_bits, i, size)
             upper_maps.append(kept)
             self.pivots.append(pivot)
             self.lower.append(steps)
