@@ -33,7 +33,7 @@ from oddsbench.model.numbers import QQ, Rational
 from oddsbench.solve.linear.costs import POLL_OPERATIONS, POLL_ROWS, ExactClock, factor_bits, require_exact_seconds
 from oddsbench.solve.linear.costs import fastest as _fastest
 
-SOLVE_WORK_FACTOR = 1.0  # a solve row costs about one timed multiply-and-divide per entry touched
+SOLVE_WORK_FACTOR = 1.5  # measured: a solve costs 1.5-2.5 timed multiply-and-divides per entry touched
 
 
 @dataclass(frozen=True)
