@@ -40,6 +40,7 @@ VIEWS = (  # (name, ruleset, keys): every view, each shown at every size in ``SI
     ("sessions", "single-zero-wheel.toml", ("f5",)),
     ("source", "pass-line.toml", ("f6",)),
     ("simulation", "lantern-dice.toml", ("f7", *"20000", "tab", *"7", "enter")),
+    ("horizon", "single-zero-wheel.toml", ("f10",)),
     ("help", "pass-line.toml", ("f1",)),
     ("cautions", "pass-line.toml", ("f9",)),
     ("bad-value", "pass-line.toml", ("enter", "enter", "end", "ctrl+u", *"8/3(")),

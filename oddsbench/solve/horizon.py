@@ -38,6 +38,10 @@ LEVELS = (90, 95, 99)  # percent: central ranges of the realised return to playe
 MAX_ROUNDS = 10**9
 
 
+class TooManyRounds(OddsbenchError):
+    """A number of rounds refused before any work: out of range, or its law would be too large."""
+
+
 @dataclass(frozen=True)
 class ReturnRange:
     """The realised return to player over N rounds at one level: between the (1 - c)/2 and (1 + c)/2
@@ -123,10 +127,10 @@ def horizons(
 
 def _check_rounds(n: int, lattice: Lattice) -> None:
     if n < 1 or n > MAX_ROUNDS:
-        raise OddsbenchError(f"--rounds {count_text(n)}: give a whole number of rounds from 1 to {MAX_ROUNDS:,}")
+        raise TooManyRounds(f"--rounds {count_text(n)}: give a whole number of rounds from 1 to {MAX_ROUNDS:,}")
     support = n * lattice.span + 1
     if support > FLOAT_SUPPORT:
-        raise OddsbenchError(
+        raise TooManyRounds(
             f"--rounds {n:,}: the total after {n:,} rounds can take {count_text(support)} values, over the limit of "
             f"{FLOAT_SUPPORT:,} for its law (ask for fewer rounds)"
         )

@@ -27,6 +27,7 @@ from oddsbench.tui.analysis import Reading, RoundFailure, RoundResult
 from oddsbench.tui.editing import EditSession
 from oddsbench.tui.screens.workbench import background
 from oddsbench.tui.screens.workbench.background import (
+    HORIZON,
     READ,
     REPORT,
     ROUND,
@@ -37,6 +38,7 @@ from oddsbench.tui.screens.workbench.background import (
 )
 from oddsbench.tui.screens.workbench.edit_view import EditView
 from oddsbench.tui.screens.workbench.figure_views import FigureViews
+from oddsbench.tui.screens.workbench.horizon_view import HorizonViews
 from oddsbench.tui.screens.workbench.layout import FIGURE_VIEWS, workbench_layout
 from oddsbench.tui.screens.workbench.recovery import RecoveryCopy
 from oddsbench.tui.screens.workbench.saving import ask_about_disk_change, ask_save_path, saved_message
@@ -51,7 +53,7 @@ TALL = 36  # rows from which the detail pane has room for more lines
 ROOMY = 100  # columns from which the footer spaces its keys and names Ctrl+P (F1 lists it anyway)
 
 
-class WorkbenchScreen(EditView, FigureViews, Screen):
+class WorkbenchScreen(EditView, FigureViews, HorizonViews, Screen):
     """One open ruleset: editors, problems, figures and cautions."""
 
     AUTO_FOCUS = None  # the focus follows the view shown (on_screen_resume), not the first focusable widget
@@ -65,6 +67,7 @@ class WorkbenchScreen(EditView, FigureViews, Screen):
         Binding("f6", "view('source')", "Source view", show=False, priority=True),
         Binding("f7", "view('simulation')", "Simulation view", show=False, priority=True),
         Binding("f8", "write_report", "Write a report (md, csv, json)", show=False, priority=True),
+        Binding("f10", "view('horizon')", "Horizon view", show=False, priority=True),
         Binding("ctrl+s", "save", "Save", priority=True),
         Binding("f12", "save_as", "Save as", show=False),
         Binding("ctrl+z", "undo", "Undo", show=False, priority=True),
@@ -91,6 +94,7 @@ class WorkbenchScreen(EditView, FigureViews, Screen):
         self.entry: str | None = None
         self.force_fields = False  # set while undo/redo/source edits put document values into fields
         self.init_figure_views()
+        self.init_horizon_view()
         self.recovery = RecoveryCopy()
         self.jobs: dict[Worker, Job] = {}  # the background jobs running, by their worker
 
@@ -193,6 +197,7 @@ class WorkbenchScreen(EditView, FigureViews, Screen):
             SESSIONS: self._sessions_done,
             SIMULATION: self._simulated,
             REPORT: self._report_written,
+            HORIZON: self._horizon_done,
         }
         ended[job.kind](job.key, result)
 
@@ -244,8 +249,11 @@ class WorkbenchScreen(EditView, FigureViews, Screen):
             self.compare_strategies()
         elif self.query_one("#views", ContentSwitcher).current == "sessions":
             self.compare_sessions()
+        elif self.query_one("#views", ContentSwitcher).current == "horizon":
+            self.solve_horizon()
         if ruleset is None:
             self._show_sessions()
+            self._show_horizon()
 
     def _set_solving(self, generation: int, solving: bool) -> None:
         if generation != self.generation:
@@ -317,6 +325,8 @@ class WorkbenchScreen(EditView, FigureViews, Screen):
             self.compare_strategies()
         elif view == "sessions":
             self.compare_sessions()
+        elif view == "horizon":
+            self.solve_horizon()
         if view in FIGURE_VIEWS:
             self._announce_first_figure()
         self._update_topbar()
@@ -329,6 +339,7 @@ class WorkbenchScreen(EditView, FigureViews, Screen):
             "strategies": "#strategies-table",
             "sessions": "#plans-field",
             "simulation": "#sim-trials",
+            "horizon": "#horizon-rounds",
         }.get(view)
         wanted = self.query_one(target) if target else self.query_one(Navigator)
         chain = self.focus_chain
@@ -374,6 +385,7 @@ class WorkbenchScreen(EditView, FigureViews, Screen):
             "strategies": self.strategy_comparison.busy,
             "sessions": self.session_comparison.busy,
             "simulation": self.simulating,
+            "horizon": self.horizon_comparison.busy,
             "report": self.writing_report,
         }
         if any(busy.values()):
