@@ -50,7 +50,8 @@ ROUNDS_DIGITS = 12  # digits of one number of rounds read from text (the solver 
 
 
 def parse_rounds(text: str) -> tuple[int, ...]:
-    """Numbers of rounds typed as ``1, 10, 100`` (``1_000`` allowed), each at least 1, repeats dropped.
+    """Numbers of rounds typed as ``1, 10, 100`` (``1_000`` allowed), each at least 1: in increasing
+    order, repeats dropped (tables and charts run along N).
 
     Raises OddsbenchError with one line naming the item that does not read (a comma inside a number,
     as in ``1,000``, is taken for a separator: the message says so)."""
@@ -66,9 +67,8 @@ def parse_rounds(text: str) -> tuple[int, ...]:
         value = int(item)
         if value < 1:
             raise OddsbenchError(f"a number of rounds is at least 1, got {value}")
-        if value not in values:
-            values.append(value)
-    return tuple(values)
+        values.append(value)
+    return tuple(sorted(set(values)))
 
 
 @budgeted

@@ -16,6 +16,8 @@ from oddsbench.tui.screens.workbench import background
 from oddsbench.tui.screens.workbench.background import HORIZON, Comparison, Job
 from oddsbench.tui.widgets.horizon import HorizonPanel
 
+CANCELLED = "solve cancelled: Ctrl+R solves again"
+
 
 class HorizonViews:
     """State and behaviour of the Horizon view (mixed into ``WorkbenchScreen``)."""
@@ -23,6 +25,7 @@ class HorizonViews:
     def init_horizon_view(self) -> None:
         self.horizon_rounds = DEFAULT_HORIZON_ROUNDS
         self.horizon_comparison = Comparison()
+        self.horizon_cancelled = False
 
     @property
     def horizon_result(self):
@@ -34,6 +37,7 @@ class HorizonViews:
         ruleset = self.reading.ruleset if self.reading else None
         comparison = self.horizon_comparison
         if ruleset is not None and comparison.ask((self.session.text, self.horizon_rounds, self.strategy)):
+            self.horizon_cancelled = False
             self._show_horizon()
             job = Job(HORIZON, comparison.key)
             self._start(job, background.horizon, ruleset, self.strategy, self.horizon_rounds)
@@ -47,15 +51,25 @@ class HorizonViews:
             self.query_one(HorizonPanel).show_rounds_problem(result.message)
             self._show_horizon()
             return
+        if key == comparison.key:
+            self.horizon_cancelled = result is None
         if comparison.ended(key, result):
             self._show_horizon()
 
     def _show_horizon(self) -> None:
-        stale = self.reading is not None and self.reading.ruleset is None
+        stale: str | bool = self.reading is not None and self.reading.ruleset is None
+        if self.horizon_cancelled and not stale:
+            stale = CANCELLED
         comparison = self.horizon_comparison
         result = comparison.result
         panel = self.query_one(HorizonPanel)
         panel.show(result, stale=stale, busy=comparison.busy, kind=self.cells)
+
+    def escape_in_horizon(self) -> None:
+        """Esc with nothing to cancel: from the rounds field back to the table."""
+        table = self.query_one("#horizon-table")
+        if table.display and not table.has_focus:
+            table.focus()
 
     def on_horizon_panel_rounds_changed(self, event: HorizonPanel.RoundsChanged) -> None:
         """New rounds: solved at once; a list that does not read keeps the last good figures, marked."""

@@ -76,7 +76,7 @@ class WorkbenchScreen(EditView, FigureViews, HorizonViews, Screen):
         Binding("ctrl+n", "new", "New ruleset from the template", show=False),
         Binding("escape", "escape", "Cancel a solve or a run; back to the table or list", show=False),
         Binding("ctrl+r", "resolve", "Solve again (in Simulation: run)", show=False),
-        Binding("s", "next_strategy", "Next strategy (round, strategies)", show=False),
+        Binding("s", "next_strategy", "Next strategy (round, strategies, horizon)", show=False),
         Binding("g", "next_goal", "Next goal of the best play (strategies)", show=False),
     ]
 
@@ -394,6 +394,8 @@ class WorkbenchScreen(EditView, FigureViews, HorizonViews, Screen):
             return
         if self.current_view == "edit":
             self.escape_in_edit()
+        elif self.current_view == "horizon":
+            self.escape_in_horizon()
 
     def action_resolve(self) -> None:
         if self.current_view == "simulation":
