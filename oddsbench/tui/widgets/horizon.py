@@ -21,7 +21,7 @@ from oddsbench.tui.widgets.fields import Field
 from oddsbench.tui.widgets.figure_grid import FigureGrid
 from oddsbench.tui.widgets.stale import marked_heading
 
-ROUNDS_HINT = "N, N, ... (1_000 is a thousand) · Tab: the table · s: strategy · Esc: cancel"
+ROUNDS_HINT = "N, N, ... · Tab: the table · Shift+Tab, PgDn: the charts · s: strategy · Esc: stop"
 BAND_COLOURS = ("cyan", "blue", "magenta")  # one per band drawn, its low and high ends alike
 
 
@@ -50,6 +50,7 @@ class HorizonPanel(VerticalScroll):
         with Horizontal(id="horizon-charts"):
             yield PlotextPlot(id="ahead-chart")
             yield PlotextPlot(id="return-chart")
+        yield Static("", id="horizon-legend")
         yield Static("", id="horizon-notes", classes="notes")
 
     def on_mount(self) -> None:
@@ -124,12 +125,19 @@ class HorizonPanel(VerticalScroll):
         widget = self.query_one("#return-chart", PlotextPlot)
         plt = self._axes(widget, result)
         xs = list(result.positions)
+        # the legend is a line under the charts: in a chart's top left it would hide where the bands start
+        legend = Text("right: ", style="dim")
         for band, colour in zip(reversed(result.bands), BAND_COLOURS):
-            plt.plot(xs, list(band.high), marker="braille", color=colour, label=band.label)
+            plt.plot(xs, list(band.high), marker="braille", color=colour)
             plt.plot(xs, list(band.low), marker="braille", color=colour)
+            legend.append("━━ ", style=colour)
+            legend.append(f"{band.label}   ")
         if result.expected is not None:
             ends = [result.rounds_ticks[0][0], result.rounds_ticks[-1][0]]
-            plt.plot(ends, [result.expected, result.expected], marker="braille", color="white", label="expected")
+            plt.plot(ends, [result.expected, result.expected], marker="braille", color="white")
+            legend.append("━━ ", style="white")
+            legend.append("expected return")
+        self.query_one("#horizon-legend", Static).update(legend)
         ticks = result.band_ticks
         plt.yticks([value for value, _ in ticks], [label for _, label in ticks])
         plt.ylim(ticks[0][0], ticks[-1][0])
