@@ -1,6 +1,7 @@
-"""The workbench screen, one concept per module: the screen (``screen.py``: views, keys, edits and
-showing results), where its widgets sit (``layout.py``), the background jobs (``background.py``),
-saving (``saving.py``), the recovery copy (``recovery.py``) and the list's commands (``commands.py``)."""
+"""The workbench screen, one concept per module: the screen (``screen.py``: the open file, views,
+keys, edits) with its mixins (``edit_view.py``, ``figure_views.py``, ``jobs.py``, ``saving.py``),
+where its widgets sit (``layout.py``), what the background jobs run (``background.py``), the recovery
+copy (``recovery.py``) and the list's commands (``commands.py``)."""
 
 from oddsbench.tui.screens.workbench.screen import WorkbenchScreen
 

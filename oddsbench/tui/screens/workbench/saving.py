@@ -1,4 +1,5 @@
-"""Saving the open file: where Save as suggests, what it refuses, and what the workbench says after."""
+"""Saving the open file: Ctrl+S and Save as, where Save as suggests, what it refuses, and what the
+workbench says after."""
 
 from __future__ import annotations
 
@@ -7,7 +8,9 @@ from pathlib import Path
 
 from textual.app import App
 
-from oddsbench.model.errors import Problem
+from oddsbench.model.atomic_write import DiskChanged
+from oddsbench.model.document import DocumentError
+from oddsbench.model.errors import OddsbenchError, Problem
 from oddsbench.tui.editing import EditSession
 from oddsbench.tui.file_targets import path_problem
 from oddsbench.tui.screens.dialogs import AskName, Choose
@@ -69,3 +72,34 @@ def ask_about_disk_change(
         ),
         answered,
     )
+
+
+class Saving:
+    """Ctrl+S and Save as (mixed into ``WorkbenchScreen``): what is said after, and the questions
+    asked first (another program changed the file; another file is there)."""
+
+    def action_save(self) -> None:
+        if self.session.read_only:
+            self.action_save_as()
+            return
+        self.save_to(None)
+
+    def action_save_as(self) -> None:
+        ask_save_path(self.app, self.session, self.folder, self.save_to)
+
+    def save_to(self, path: Path | None, overwrite: bool = False) -> bool:
+        """Save to ``path`` (None: the open file); True once written, else the user was told why."""
+        try:
+            saved = self.session.save(path, overwrite)
+        except DiskChanged as changed:
+            again = lambda: self.save_to(path, overwrite=True)  # noqa: E731
+            ask_about_disk_change(self.app, str(changed), again, self.action_save_as)
+            return False
+        except (OddsbenchError, DocumentError) as error:
+            self.notify(str(error), severity="error")
+            return False
+        message, severity = saved_message(saved, self.reading.problems if self.reading else ())
+        self.notify(message, severity=severity)
+        self.sync_recovery()
+        self._update_topbar()
+        return True

@@ -1,15 +1,14 @@
 """The workbench: edit the game on the left, see every figure, exact beside decimal, everywhere.
 
-The screen owns the open file (an ``EditSession``). Editors post ``EditRequested``; the screen
-applies the edit, records it for undo, refreshes the editors from the document and starts the
-background jobs (``background.py``): read the new text (the problems of ``oddsbench check``), then
-solve the round; strategies and sessions when their view is shown. Every job's end is handled once,
-in ``on_worker_state_changed``. Saving, the recovery copy and the list's commands live beside it.
+The screen owns the open file (an ``EditSession``), the views and their keys. Editors post
+``EditRequested``; the screen applies the edit, records it for undo, refreshes the editors from the
+document and starts the background jobs (``jobs.py``): read the new text, then solve the round. Its
+parts are mixins beside it, one concept each: the Edit view (``edit_view.py``), the views of figures
+(``figure_views.py``), the jobs and their ends (``jobs.py``) and saving (``saving.py``).
 """
 
 from __future__ import annotations
 
-from functools import partial
 from pathlib import Path
 
 from textual import on
@@ -17,34 +16,18 @@ from textual.app import ComposeResult
 from textual.binding import Binding
 from textual.screen import Screen
 from textual.widgets import ContentSwitcher, Footer, Static, TextArea
-from textual.worker import Worker, WorkerState
 
-from oddsbench.model.atomic_write import DiskChanged
-from oddsbench.model.document import DocumentError
-from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.visible import visible
-from oddsbench.tui.analysis import Reading, RoundFailure, RoundResult
 from oddsbench.tui.editing import EditSession
-from oddsbench.tui.screens.workbench import background
-from oddsbench.tui.screens.workbench.background import (
-    HORIZON,
-    READ,
-    REPORT,
-    ROUND,
-    SESSIONS,
-    SIMULATION,
-    STRATEGIES,
-    Job,
-)
 from oddsbench.tui.screens.workbench.edit_view import EditView
 from oddsbench.tui.screens.workbench.figure_views import FigureViews
 from oddsbench.tui.screens.workbench.horizon_view import HorizonViews
+from oddsbench.tui.screens.workbench.jobs import Jobs
 from oddsbench.tui.screens.workbench.layout import FIGURE_VIEWS, workbench_layout
 from oddsbench.tui.screens.workbench.recovery import RecoveryCopy
-from oddsbench.tui.screens.workbench.saving import ask_about_disk_change, ask_save_path, saved_message
+from oddsbench.tui.screens.workbench.saving import Saving
 from oddsbench.tui.widgets.edits import EditRequested
 from oddsbench.tui.widgets.navigator import STATE, Navigator
-from oddsbench.tui.widgets.problems import ProblemsPanel
 from oddsbench.tui.widgets.source_view import SOURCE_HEADING, SOURCE_HEADING_CONTROLS
 from oddsbench.tui.widgets.topbar import TopBar
 
@@ -53,7 +36,7 @@ TALL = 36  # rows from which the detail pane has room for more lines
 ROOMY = 100  # columns from which the footer spaces its keys and names Ctrl+P (F1 lists it anyway)
 
 
-class WorkbenchScreen(EditView, FigureViews, HorizonViews, Screen):
+class WorkbenchScreen(EditView, FigureViews, HorizonViews, Jobs, Saving, Screen):
     """One open ruleset: editors, problems, figures and cautions."""
 
     AUTO_FOCUS = None  # the focus follows the view shown (on_screen_resume), not the first focusable widget
@@ -84,19 +67,13 @@ class WorkbenchScreen(EditView, FigureViews, HorizonViews, Screen):
         super().__init__()
         self.session = session
         self.folder = folder
-        self.generation = 0
-        self.reading: Reading | None = None
-        self.result: RoundResult | None = None
-        self.result_generation = -1
-        self.solving = False
         self.strategy: str | None = None
-        self.status_note = ""
         self.entry: str | None = None
         self.force_fields = False  # set while undo/redo/source edits put document values into fields
+        self.init_jobs()
         self.init_figure_views()
         self.init_horizon_view()
         self.recovery = RecoveryCopy()
-        self.jobs: dict[Worker, Job] = {}  # the background jobs running, by their worker
 
     # ----- layout -----
 
@@ -169,125 +146,6 @@ class WorkbenchScreen(EditView, FigureViews, HorizonViews, Screen):
             area.load_text(shown)
         heading = SOURCE_HEADING if shown == self.session.text else SOURCE_HEADING_CONTROLS
         self.query_one("#source-heading", Static).update(heading)
-
-    # ----- background reading and solving -----
-
-    def _start(self, job: Job, work, *args) -> None:
-        """Run one job in a thread worker; a newer job of its group replaces (cancels) the older."""
-        worker = self.run_worker(
-            partial(work, *args), name=job.kind, group=job.group, exclusive=True, thread=True, exit_on_error=False
-        )
-        self.jobs[worker] = job
-
-    def on_worker_state_changed(self, event: Worker.StateChanged) -> None:
-        """Every job ends here once: with its result, with an error shown in its place, or cancelled (None)."""
-        job = self.jobs.get(event.worker)
-        if job is None or event.state not in (WorkerState.SUCCESS, WorkerState.ERROR, WorkerState.CANCELLED):
-            return
-        del self.jobs[event.worker]
-        result = None
-        if event.state == WorkerState.SUCCESS:
-            result = event.worker.result
-        elif event.state == WorkerState.ERROR and not background.is_cancellation(event.worker.error):
-            result = job.failure(event.worker.error)
-        ended = {
-            READ: self._read,
-            ROUND: self._solved,
-            STRATEGIES: self._strategies_done,
-            SESSIONS: self._sessions_done,
-            SIMULATION: self._simulated,
-            REPORT: self._report_written,
-            HORIZON: self._horizon_done,
-        }
-        ended[job.kind](job.key, result)
-
-    def analyse(self) -> None:
-        self.generation += 1
-        self._start(Job(READ, self.generation), background.read, self.session.text, self.session.source)
-
-    def _read(self, generation: int, reading: Reading | RoundFailure | None) -> None:
-        """The new text is read: show its problems, then solve the round if it is valid."""
-        if reading is None or generation != self.generation:
-            return
-        if isinstance(reading, RoundFailure):
-            self._show_result(generation, reading)
-            return
-        self._show_reading(generation, reading)
-        ruleset = reading.ruleset
-        if ruleset is None:
-            return
-        strategy = self.strategy
-        if ruleset.has_decisions and strategy not in {s.name for s in ruleset.strategies}:
-            strategy = ruleset.strategies[0].name if ruleset.strategies else None
-        self._set_solving(generation, True)
-        self._start(Job(ROUND, generation), background.solve_round, ruleset, strategy)
-
-    def _solved(self, generation: int, result: RoundResult | RoundFailure | None) -> None:
-        if result is None:
-            self._cancelled(generation)
-        else:
-            self._show_result(generation, result)
-
-    def _show_reading(self, generation: int, reading: Reading) -> None:
-        if generation != self.generation:
-            return
-        self.reading = reading
-        problems = self.shown_problems(reading)
-        ruleset = reading.ruleset
-        valid = "valid"
-        if ruleset is not None:
-            ends = sum(1 for state in ruleset.states if state.is_end)
-            valid = f"{self.session.source}: valid: {len(ruleset.states)} states, {ends} end states"
-        self.query_one(ProblemsPanel).show(problems, valid)
-        if self.session.document is not None:
-            self.query_one(Navigator).show(self.session.document, failing=self._failing_states(problems))
-            self._show_editor(problems)
-        if ruleset is None:
-            self._show_figures(stale=True)
-            self._show_strategies()
-        elif self.query_one("#views", ContentSwitcher).current == "strategies":
-            self.compare_strategies()
-        elif self.query_one("#views", ContentSwitcher).current == "sessions":
-            self.compare_sessions()
-        elif self.query_one("#views", ContentSwitcher).current == "horizon":
-            self.solve_horizon()
-        if ruleset is None:
-            self._show_sessions()
-            self._show_horizon()
-
-    def _set_solving(self, generation: int, solving: bool) -> None:
-        if generation != self.generation:
-            return
-        self.solving = solving
-        self.status_note = ""
-        self.query_one("#progress").display = solving
-        self._update_topbar()
-
-    def _cancelled(self, generation: int) -> None:
-        if generation != self.generation:
-            return
-        self.solving = False
-        self.status_note = "solve cancelled: figures are from the last finished solve (Ctrl+R solves again)"
-        self.query_one("#progress").display = False
-        self._update_topbar()
-        self._show_figures(stale=True)
-
-    def _show_result(self, generation: int, result: RoundResult | RoundFailure) -> None:
-        if generation != self.generation:
-            return
-        self.solving = False
-        self.query_one("#progress").display = False
-        if isinstance(result, RoundFailure):
-            self.status_note = result.message
-            self._update_topbar()
-            self._show_figures(stale=True)
-            return
-        self.strategy = result.strategy
-        self.result = result
-        self.result_generation = generation
-        self.status_note = ""
-        self._update_topbar()
-        self._show_figures(stale=False)
 
     # ----- edits -----
 
@@ -396,50 +254,6 @@ class WorkbenchScreen(EditView, FigureViews, HorizonViews, Screen):
             self.escape_in_edit()
         elif self.current_view == "horizon":
             self.escape_in_horizon()
-
-    def action_resolve(self) -> None:
-        if self.current_view == "simulation":
-            self.run_simulation()
-            return
-        self.analyse()
-
-    def action_next_strategy(self) -> None:
-        ruleset = self.reading.ruleset if self.reading else None
-        if ruleset is None or not ruleset.has_decisions or not ruleset.strategies:
-            self.notify("this game has no decisions, so no strategies to switch")
-            return
-        names = [s.name for s in ruleset.strategies]
-        index = names.index(self.strategy) if self.strategy in names else -1
-        self.strategy = names[(index + 1) % len(names)]
-        self.notify(f"round solved under strategy {self.strategy!r}")
-        self.analyse()
-        self._show_strategies()
-
-    def action_save(self) -> None:
-        if self.session.read_only:
-            self.action_save_as()
-            return
-        self.save_to(None)
-
-    def action_save_as(self) -> None:
-        ask_save_path(self.app, self.session, self.folder, self.save_to)
-
-    def save_to(self, path: Path | None, overwrite: bool = False) -> bool:
-        """Save to ``path`` (None: the open file); True once written, else the user was told why."""
-        try:
-            saved = self.session.save(path, overwrite)
-        except DiskChanged as changed:
-            again = lambda: self.save_to(path, overwrite=True)  # noqa: E731
-            ask_about_disk_change(self.app, str(changed), again, self.action_save_as)
-            return False
-        except (OddsbenchError, DocumentError) as error:
-            self.notify(str(error), severity="error")
-            return False
-        message, severity = saved_message(saved, self.reading.problems if self.reading else ())
-        self.notify(message, severity=severity)
-        self.sync_recovery()
-        self._update_topbar()
-        return True
 
     def action_open(self) -> None:
         self.app.action_open()
