@@ -21,7 +21,7 @@ from oddsbench.tui.widgets.fields import Field
 from oddsbench.tui.widgets.figure_grid import FigureGrid
 from oddsbench.tui.widgets.stale import marked_heading
 
-ROUNDS_HINT = "N, N, ... · Tab: the table · Shift+Tab, PgDn: the charts · s: strategy · Esc: stop"
+ROUNDS_HINT = "N, N, ... · Tab: table · Shift+Tab, PgDn: charts · s: strategy · Esc: stop"
 BAND_COLOURS = ("cyan", "blue", "magenta")  # one per band drawn, its low and high ends alike
 
 
