@@ -32,6 +32,13 @@ def test_the_published_values_are_the_binomial_ones():
     assert binomial_chance(range(5, 6)) == WHEEL_EVEN_10
 
 
+async def open_horizon(pilot) -> None:
+    """Wait for the first solve, then F10 and wait for the horizon."""
+    await settle(pilot)
+    await pilot.press("f10")
+    await settle(pilot)
+
+
 async def type_rounds(pilot, keys: str) -> None:
     """Retype the rounds field with the keyboard."""
     field = pilot.app.workbench.query_one("#horizon-rounds")
@@ -43,9 +50,7 @@ async def type_rounds(pilot, keys: str) -> None:
 async def test_the_players_journey_in_the_horizon_view(tmp_path):
     app = app_on(copy_ruleset("single-zero-wheel.toml", tmp_path), tmp_path)
     async with app.run_test(size=(80, 24)) as pilot:
-        await settle(pilot)
-        await pilot.press("f10")
-        await settle(pilot)
+        await open_horizon(pilot)
         screen = app.workbench
         assert screen.current_view == "horizon"
         grid = screen.query_one("#horizon-table")
@@ -109,9 +114,7 @@ async def test_the_players_journey_in_the_horizon_view(tmp_path):
 async def test_s_cycles_the_strategy_and_the_figures_follow(tmp_path, capsys):
     app = app_on(copy_ruleset("lamplighter-ladder.toml", tmp_path), tmp_path)
     async with app.run_test(size=(120, 40)) as pilot:
-        await settle(pilot)
-        await pilot.press("f10")
-        await settle(pilot)
+        await open_horizon(pilot)
         screen = app.workbench
         await type_rounds(pilot, "1, 10")
         first = screen.strategy
@@ -152,9 +155,7 @@ async def test_esc_cancels_a_solve_and_marks_the_figures(tmp_path, monkeypatch):
     monkeypatch.setattr(horizons, "horizon_text", endless)
     app = app_on(copy_ruleset("single-zero-wheel.toml", tmp_path), tmp_path)
     async with app.run_test(size=(80, 24)) as pilot:
-        await settle(pilot)
-        await pilot.press("f10")
-        await settle(pilot)
+        await open_horizon(pilot)
         screen = app.workbench
         good = screen.horizon_result
         screen.query_one("#horizon-rounds").focus()
@@ -179,9 +180,7 @@ async def test_esc_cancels_a_solve_and_marks_the_figures(tmp_path, monkeypatch):
 async def test_rounds_the_core_refuses_keep_the_last_good_figures(tmp_path):
     app = app_on(copy_ruleset("single-zero-wheel.toml", tmp_path), tmp_path)
     async with app.run_test(size=(80, 24)) as pilot:
-        await settle(pilot)
-        await pilot.press("f10")
-        await settle(pilot)
+        await open_horizon(pilot)
         screen = app.workbench
         await type_rounds(pilot, "10, 9000000")  # 9,000,001 possible totals: over the float law's limit
         message = str(screen.query_one("#horizon-message").render())
@@ -195,8 +194,7 @@ async def test_rounds_the_core_refuses_keep_the_last_good_figures(tmp_path):
 async def test_a_game_of_points_draws_its_total_and_has_no_return(tmp_path):
     app = app_on(copy_ruleset("pig-turn.toml", tmp_path), tmp_path)
     async with app.run_test(size=(120, 40)) as pilot:
-        await settle(pilot)
-        await pilot.press("f10")
+        await open_horizon(pilot)
         await type_rounds(pilot, "1, 10, 100")
         result = app.workbench.horizon_result
         assert result.expected is None and result.band_title == "total after N rounds"
