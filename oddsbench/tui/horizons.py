@@ -13,6 +13,7 @@ from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.ruleset import Ruleset
 from oddsbench.report.figure_table import FigureTable
 from oddsbench.tui.analysis import RoundFailure, _game, _played, _work
+from oddsbench.tui.setting_ways import problem_line
 
 ROUNDS_TEXT = ", ".join(str(n) for n in DEFAULT_HORIZON_ROUNDS)  # what the rounds field shows at first
 CHART_LEVELS = (90, 99)  # the return-range bands drawn (every level is in the table)
@@ -68,9 +69,9 @@ def horizon_text(
     try:
         results = horizon(_game(ruleset), rounds, Settings(strategies=_played(ruleset, strategy)), _work(should_stop))
     except TooManyRounds as error:
-        return RoundsRefused(str(error).removeprefix("--rounds "))
+        return RoundsRefused(str(error))  # said beside the rounds field: no way to add
     except OddsbenchError as error:
-        return RoundFailure(str(error))
+        return RoundFailure(problem_line(error))
     return horizon_view(results)
 
 
