@@ -17,6 +17,7 @@ from textual.worker import Worker, WorkerState
 from oddsbench.tui.analysis import Reading, RoundFailure, RoundResult
 from oddsbench.tui.screens.workbench import background
 from oddsbench.tui.screens.workbench.background import (
+    HORIZON,
     READ,
     REPORT,
     ROUND,
@@ -66,6 +67,7 @@ class Jobs:
             SESSIONS: self._sessions_done,
             SIMULATION: self._simulated,
             REPORT: self._report_written,
+            HORIZON: self._horizon_done,
         }
         ended[job.kind](job.key, result)
 
@@ -118,8 +120,11 @@ class Jobs:
             self.compare_strategies()
         elif self.query_one("#views", ContentSwitcher).current == "sessions":
             self.compare_sessions()
+        elif self.query_one("#views", ContentSwitcher).current == "horizon":
+            self.solve_horizon()
         if ruleset is None:
             self._show_sessions()
+            self._show_horizon()
 
     def _set_solving(self, generation: int, solving: bool) -> None:
         if generation != self.generation:
