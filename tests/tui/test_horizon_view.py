@@ -200,3 +200,35 @@ async def test_a_game_of_points_draws_its_total_and_has_no_return(tmp_path):
         assert result.expected is None and result.band_title == "total after N rounds"
         labels = [row.label for row in result.table.rows]
         assert "ahead (total > 0)" in labels and not any("return to player" in label for label in labels)
+
+
+async def test_an_edit_that_breaks_the_file_keeps_the_figures_marked_and_a_fix_solves_again(tmp_path):
+    app = app_on(copy_ruleset("single-zero-wheel.toml", tmp_path), tmp_path)
+    async with app.run_test(size=(80, 24)) as pilot:
+        await open_horizon(pilot)
+        screen = app.workbench
+        good = screen.horizon_result
+        source = screen.session.text
+        screen.session.replace_text(source.replace("payout = 1", "payout = 1 +"))
+        screen.refresh_forms()
+        await settle(pilot)
+        assert screen.horizon_result is good and app.return_code is None
+        assert "last good figures (the text now has problems)" in str(screen.query_one("#horizon-heading").render())
+        screen.session.replace_text(source.replace("payout = 1", "payout = 2"))
+        screen.refresh_forms()
+        await settle(pilot)
+        heading = str(screen.query_one("#horizon-heading").render())
+        assert "last good" not in heading
+        # paying 2 to 1 on 18 of 37 pockets: ahead after one round with chance 18/37 still, the mean 17/37
+        table = screen.horizon_result.table
+        assert cell(table, "ahead (total > 0)", 0)[0] == "18/37"
+        assert cell(table, "mean total", 0)[0] == "17/37"
+
+
+async def test_f10_before_the_first_solve_plays_the_files_first_strategy(tmp_path):
+    app = app_on(copy_ruleset("lamplighter-ladder.toml", tmp_path), tmp_path)
+    async with app.run_test(size=(80, 24)) as pilot:
+        await pilot.press("f10")  # no wait: the round has not been solved yet, no strategy chosen
+        await settle(pilot)
+        heading = str(app.workbench.query_one("#horizon-heading").render())
+        assert "strategy 'first-win'" in heading and app.workbench.horizon_result.table

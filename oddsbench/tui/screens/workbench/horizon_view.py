@@ -11,6 +11,7 @@ from __future__ import annotations
 
 from oddsbench.model.defaults import DEFAULT_HORIZON_ROUNDS
 from oddsbench.model.errors import OddsbenchError
+from oddsbench.tui.analysis import strategy_to_play
 from oddsbench.tui.horizons import RoundsRefused
 from oddsbench.tui.screens.workbench import background
 from oddsbench.tui.screens.workbench.background import HORIZON, Comparison, Job
@@ -35,12 +36,14 @@ class HorizonViews:
     def solve_horizon(self) -> None:
         """Solve the horizon unless this text, these rounds and this strategy are solved already."""
         ruleset = self.reading.ruleset if self.reading else None
+        if ruleset is None:
+            return
+        strategy = strategy_to_play(ruleset, self.strategy)  # before the first round is solved too
         comparison = self.horizon_comparison
-        if ruleset is not None and comparison.ask((self.session.text, self.horizon_rounds, self.strategy)):
+        if comparison.ask((self.session.text, self.horizon_rounds, strategy)):
             self.horizon_cancelled = False
             self._show_horizon()
-            job = Job(HORIZON, comparison.key)
-            self._start(job, background.horizon, ruleset, self.strategy, self.horizon_rounds)
+            self._start(Job(HORIZON, comparison.key), background.horizon, ruleset, strategy, self.horizon_rounds)
 
     def _horizon_done(self, key: tuple, result) -> None:
         comparison = self.horizon_comparison

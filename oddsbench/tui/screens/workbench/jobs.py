@@ -14,7 +14,7 @@ from functools import partial
 from textual.widgets import ContentSwitcher
 from textual.worker import Worker, WorkerState
 
-from oddsbench.tui.analysis import Reading, RoundFailure, RoundResult
+from oddsbench.tui.analysis import Reading, RoundFailure, RoundResult, strategy_to_play
 from oddsbench.tui.screens.workbench import background
 from oddsbench.tui.screens.workbench.background import (
     HORIZON,
@@ -87,9 +87,7 @@ class Jobs:
         ruleset = reading.ruleset
         if ruleset is None:
             return
-        strategy = self.strategy
-        if ruleset.has_decisions and strategy not in {s.name for s in ruleset.strategies}:
-            strategy = ruleset.strategies[0].name if ruleset.strategies else None
+        strategy = strategy_to_play(ruleset, self.strategy)
         self._set_solving(generation, True)
         self._start(Job(ROUND, generation), background.solve_round, ruleset, strategy)
 
