@@ -25,7 +25,10 @@ class Certified:
     """A real number known inside a proved interval: ``text`` is correct to its last digit."""
 
     text: str
-    radius: str  # an upper bound on |true - shown midpoint|, as text ("0" when exact)
+    # the radius of the proved interval the digits were read from ("0" when exact); the digits in
+    # ``text`` are rounded from its midpoint, so they are within one unit of their last place, not
+    # within ``radius``: say so with ``error_bound_text``
+    radius: str
     log10: float  # log10 of the value (-inf for 0), usable far below the float range
     value: float  # nearest float (0.0 when the value is below the float range)
 
@@ -76,6 +79,15 @@ def certified(ball, digits: int) -> Certified:
     except (OverflowError, ValueError):
         value = 0.0
     return Certified(shown, radius_text, log10, value)
+
+
+def error_bound_text(radius: str, how: str = "proved by interval arithmetic") -> str:
+    """What the error of certified digits is: one unit in their last place (they are rounded), and
+    the radius of the interval they were read from, said apart so no one adds them up wrongly."""
+    return (
+        "every digit shown is correct to within one unit of the last; "
+        f"the interval it was read from has radius at most {radius} ({how})"
+    )
 
 
 def certified_exact(value: Rational, digits: int = DEFAULT_DIGITS) -> Certified:

@@ -34,6 +34,7 @@ from oddsbench.solve.ruin.balls import (
     bits_for,
     cancellable,
     certified,
+    error_bound_text,
     interval,
     precision,
 )
@@ -210,7 +211,7 @@ def _possible(walk: WalkFacts, reduced: Law, notes: list[str], check: bool, show
                 f"{loss} ruin levels 0..-{loss - 1}, the minimal solution of the hitting equations; "
                 "digits by interval arithmetic"
             ),
-            error_bound=f"at most {ruin.radius} (proved by interval arithmetic)",
+            error_bound=error_bound_text(ruin.radius),
         )
         absent["ruin_exact"] = "the ruin chance is algebraic (a combination of roots): known by its proved digits"
         absent["ruin_closed_form"] = absent["ruin_exact"]
@@ -264,7 +265,7 @@ def _skip_free_answer(rho: CharacteristicRoot, level: int, notes: list[str], rad
                 "skip-free walk (the only loss is one step): ruin = theta^bankroll, theta the algebraic root "
                 "in (0, 1) of E[t^X] = 1 (sympy CRootOf), digits by interval arithmetic"
             ),
-            error_bound=f"at most {radius} (proved by interval arithmetic)",
+            error_bound=error_bound_text(radius),
         )
     answer: dict = {}
     if level * (numerator(rho.exact).bit_length() + denominator(rho.exact).bit_length()) <= MAX_EXACT_BITS:

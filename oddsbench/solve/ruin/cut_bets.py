@@ -32,6 +32,7 @@ from oddsbench.solve.ruin.balls import (
     certified,
     certified_exact,
     enough,
+    error_bound_text,
     interval,
     precision,
     with_retries,
@@ -409,7 +410,7 @@ def _possible(
                 "levels with cut bets solved together with the tail's roots inside the unit disc (per residue "
                 "class mod g); interval arithmetic"
             )
-            error_bound = f"at most {ruin.radius} (proved by interval arithmetic)"
+            error_bound = error_bound_text(ruin.radius)
             absent["ruin_exact"] = "the ruin chance is algebraic (roots of the tail's polynomial): proved digits only"
         if truncation is not None and ball is not None:
             truncation = _with_consistency(truncation, ball, gap_ball, digits)

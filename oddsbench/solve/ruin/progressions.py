@@ -33,6 +33,7 @@ from oddsbench.solve.ruin.balls import (
     certified,
     certified_exact,
     current_stop,
+    error_bound_text,
     interval,
     precision,
 )
@@ -243,7 +244,7 @@ def _solve(states, moves_at, top, level, full_bet_law, start_state, digits, unit
             f"truncation at a goal of {goal} steps ({arithmetic} arithmetic); gap at most max h / min h x "
             "exp(-R (goal - K + 1)) with R and h verified in ball arithmetic"
         ),
-        error_bound=f"at most {ruin.radius} (truncation gap {gap_bound.text}, proved)",
+        error_bound=error_bound_text(ruin.radius, f"truncation gap {gap_bound.text}, proved"),
         adjustment_coefficient=certified_exact(QQ(int(rate * 2**40), 2**40), 10),
         adjustment_text="verified R (dyadic)",
         lundberg=lundberg,
