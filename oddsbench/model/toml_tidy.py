@@ -24,6 +24,7 @@ import re
 import tomllib
 from difflib import SequenceMatcher
 
+_MATCHER_LIMIT = 4_000_000  # lines x lines: past this a rewrite (not a deletion) is left as it is
 _HEADER = re.compile(r"\s*\[\[?\s*[^\[\],{}=]+?\s*\]\]?\s*(#.*)?")
 
 
@@ -74,7 +75,9 @@ def tidy_removal(before: str, after: str) -> str:
     new = after.splitlines(keepends=True)
     newline = "\r\n" if (old and old[0].endswith("\r\n")) else "\n"
     lines = list(new)
-    opcodes = SequenceMatcher(None, old, new, autojunk=False).get_opcodes()
+    opcodes = _removals(old, new)
+    if opcodes is None:
+        return after  # not lines removed but lines rewritten: nothing to tidy
     for place in range(len(opcodes) - 1, -1, -1):
         tag, i1, i2, j1, _ = opcodes[place]
         if tag != "delete":
@@ -91,6 +94,46 @@ def tidy_removal(before: str, after: str) -> str:
     except tomllib.TOMLDecodeError:
         return after
     return tidied if same else after
+
+
+def _removals(old: list[str], new: list[str]) -> list[tuple[str, int, int, int, int]] | None:
+    """The runs of ``old`` kept and removed to give ``new`` (as ``SequenceMatcher`` opcodes), found
+    in one pass when ``new`` is ``old`` less some lines (a deletion: linear even in a long file);
+    else by ``SequenceMatcher`` on the part between the common start and end, if that is short."""
+    start = 0
+    while start < min(len(old), len(new)) and old[start] == new[start]:
+        start += 1
+    end = 0
+    while end < min(len(old), len(new)) - start and old[-1 - end] == new[-1 - end]:
+        end += 1
+    middle_old, middle_new = old[start : len(old) - end], new[start : len(new) - end]
+    runs: list[tuple[str, int, int, int, int]] = []
+    i = j = 0
+    while i < len(middle_old) and j < len(middle_new):
+        first = i
+        while i < len(middle_old) and middle_old[i] != middle_new[j]:
+            i += 1
+        if i > first:
+            runs.append(("delete", first, i, j, j))
+        first = i
+        while i < len(middle_old) and j < len(middle_new) and middle_old[i] == middle_new[j]:
+            i, j = i + 1, j + 1
+        if i > first:
+            runs.append(("equal", first, i, j - (i - first), j))
+    if j < len(middle_new):
+        if len(middle_old) * len(middle_new) > _MATCHER_LIMIT:
+            return None
+        runs = SequenceMatcher(None, middle_old, middle_new, autojunk=False).get_opcodes()
+        if any(tag in ("insert", "replace") for tag, *_ in runs):
+            return None
+    elif i < len(middle_old):
+        runs.append(("delete", i, len(middle_old), j, j))
+    shifted = [(tag, a + start, b + start, c + start, d + start) for tag, a, b, c, d in runs]
+    return (
+        [("equal", 0, start, 0, start)] * (start > 0)
+        + shifted
+        + [("equal", len(old) - end, len(old), len(new) - end, len(new))] * (end > 0)
+    )
 
 
 def _close_gap(old: list[str], lines: list[str], i1: int, i2: int, seam: int, newline: str) -> None:

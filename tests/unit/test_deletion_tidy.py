@@ -217,3 +217,19 @@ def test_the_file_keeps_its_own_line_endings_and_spacing_elsewhere():
     before = "a = 1\r\n\r\n\r\nb = 2\r\n\r\nc = 3\r\n\r\nd = 4\r\n"
     after = "a = 1\r\n\r\n\r\nb = 2\r\n\r\n\r\nd = 4\r\n"
     assert tidy_removal(before, after) == "a = 1\r\n\r\n\r\nb = 2\r\n\r\nd = 4\r\n"
+
+
+def test_a_line_rewritten_rather_than_removed_is_left_as_it_is():
+    # Deleting the last row of a one-line array rewrites the line: no blank line is touched.
+    before = "a = [1, 2]\n\n\nb = 1\n"
+    after = "a = [1]\n\n\nb = 1\n"
+    assert tidy_removal(before, after) == after
+
+
+def test_deletions_far_apart_in_a_long_file_are_each_tidied():
+    states = "".join(f'# state {i}\n[states.s{i}]\nresult = "win"\n\n' for i in range(400))
+    strategies = '[strategies.plan]\ndefault = "x"\n# about s200\ns200 = "y"\n'
+    text = deleted(lambda doc: doc.delete_state("s200"), '[ruleset]\nstart = "s0"\n\n' + states + strategies)
+    assert "# state 200\n" not in text and "s200" not in text and "# about s200" not in text
+    assert '# state 199\n[states.s199]\nresult = "win"\n\n# state 201\n' in text
+    assert_tidy(text)
