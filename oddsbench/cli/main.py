@@ -22,7 +22,7 @@ from oddsbench.cli import (
     sweep_command,
     tune_command,
 )
-from oddsbench.cli.options import add_budget, budget_of
+from oddsbench.cli.options import add_budget, budget_of, error_line
 from oddsbench.model.errors import OddsbenchError, RulesetError, one_line
 from oddsbench.model.visible import visible
 
@@ -152,7 +152,7 @@ def _run(args: argparse.Namespace, hard_limits: bool = False) -> int:
             print(problem, file=sys.stderr)
         return EXIT_BAD_INPUT
     except OddsbenchError as error:
-        print(one_line(f"oddsbench: {error}"), file=sys.stderr)
+        print(one_line(f"oddsbench: {error_line(error)}"), file=sys.stderr)
         return EXIT_BAD_INPUT
     except KeyboardInterrupt:
         print("oddsbench: interrupted", file=sys.stderr)

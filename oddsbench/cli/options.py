@@ -37,6 +37,7 @@ def positive_seconds(text: str) -> float:
 
 def add_budget(parser: argparse.ArgumentParser) -> None:
     """``--budget`` and ``--memory``: the work budget of the command (``model/budget.py``)."""
+    from oddsbench.model.budget import EXACT_RULE
     from oddsbench.model.defaults import DEFAULT_BUDGET_SECONDS, DEFAULT_MEMORY_MB
 
     group = parser.add_argument_group(
@@ -47,8 +48,8 @@ def add_budget(parser: argparse.ArgumentParser) -> None:
         type=positive_seconds,
         default=DEFAULT_BUDGET_SECONDS,
         metavar="SECONDS",
-        help=f"time the command may take, reading included (default {DEFAULT_BUDGET_SECONDS}); exact arithmetic "
-        "may use the first 40%%, then decimals only",
+        help=f"time the command may take, reading included (default {DEFAULT_BUDGET_SECONDS}); "
+        + EXACT_RULE.replace("%", "%%"),
     )
     group.add_argument(
         "--memory",
@@ -202,4 +203,17 @@ def file_or_round(args: argparse.Namespace, command: str):
 
     if (args.file is None) == (args.round is None):
         raise OddsbenchError(f"{command}: give a ruleset FILE or --round NET:PROB,..., not both and not neither")
-    return inline_round(args.round) if args.round is not None else load_game(args.file)
+    return inline_round(args.round, "--round") if args.round is not None else load_game(args.file)
+
+
+def option_of(setting: str) -> str:
+    """The command line's way to change a setting the core names (``model/errors.py``, ``SettingProblem``):
+    its option, ``--`` and the key (``min_bet`` -> ``--min-bet``)."""
+    return "--" + setting.replace("_", "-")
+
+
+def error_line(error: BaseException) -> str:
+    """An error as the command line says it: a setting problem ends with the options that change it."""
+    from oddsbench.model.errors import with_ways
+
+    return with_ways(error, option_of, "change with ")

@@ -93,8 +93,8 @@ def run(args: argparse.Namespace) -> int:
     game = file_or_round(args, "session")
     settings = settings_of(args, sessions=True)
     if session_settings(game, settings.session).no_goal:
-        for option, given in (("--rounds", args.rounds), ("--series", args.series), ("--series-csv", args.series_csv)):
-            if given:
+        for option, given in (("--series", args.series), ("--series-csv", args.series_csv)):
+            if given:  # the core says the same of a number of rounds
                 raise OddsbenchError(
                     f"{game.source}: {option} needs a goal; with --goal none the session only ends at ruin"
                 )

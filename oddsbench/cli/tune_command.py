@@ -54,13 +54,13 @@ def run(args: argparse.Namespace) -> int:
     from oddsbench.report.tune_report import tune_json, tune_text
 
     target = parse_target(args.target) if args.target is not None else None
-    tolerance = parse_amount(args.tolerance, "--tolerance")
+    tolerance = parse_amount(args.tolerance, "tolerance")
     between = None
     if args.between is not None:
         ends = args.between.split(",")
         if len(ends) != 2:
             raise OddsbenchError(f"--between {args.between[:40]!r}: expected LO,HI")
-        between = (parse_amount(ends[0], "--between"), parse_amount(ends[1], "--between"))
+        between = (parse_amount(ends[0], "between"), parse_amount(ends[1], "between"))
     results = tune(load_game(args.file), args.vary, target, settings_of(args), tolerance, between)
     print(dumps(tune_json(results)) if args.json else tune_text(results))
     return 0

@@ -19,7 +19,7 @@ if TYPE_CHECKING:  # the round's module imports numpy: `oddsbench check` needs n
     from oddsbench.chain.round_distribution import RoundDistribution
 
 INLINE_TITLE = "Inline round"
-INLINE_SOURCE = "--round"
+INLINE_SOURCE = "the inline round"  # what messages call a round given as text (the CLI: its option)
 
 
 @dataclass(frozen=True)
@@ -72,11 +72,12 @@ def game_from_text(text: str, source: str = "<text>", params: Mapping[str, objec
     return _read(read_ruleset_text(text, source, exact), text, exact)
 
 
-def inline_round(spelled: str) -> Game:
-    """A round given as ``NET:PROB,...`` (an optional third field is an extra stake): sessions only."""
+def inline_round(spelled: str, source: str = INLINE_SOURCE) -> Game:
+    """A round given as ``NET:PROB,...`` (an optional third field is an extra stake): sessions only;
+    ``source`` is what messages call it."""
     from oddsbench.chain.round_distribution import parse_round_text
 
-    return Game(INLINE_SOURCE, round=parse_round_text(spelled), text=spelled)
+    return Game(source, round=parse_round_text(spelled), text=spelled)
 
 
 def _exact(params: Mapping[str, object] | None) -> dict | None:

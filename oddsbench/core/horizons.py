@@ -13,7 +13,7 @@ from dataclasses import dataclass
 from oddsbench.core.game import Game
 from oddsbench.core.settings import DEFAULTS, Settings
 from oddsbench.core.work import NO_WORK, Work, budgeted
-from oddsbench.model.errors import OddsbenchError
+from oddsbench.model.errors import OddsbenchError, SettingProblem
 from oddsbench.model.figure import Figure
 from oddsbench.model.numbers import QQ, Rational, to_float
 from oddsbench.solve.horizon import Horizon, horizons
@@ -48,7 +48,7 @@ class HorizonResults:
 def horizon(game: Game, rounds: Sequence[int], settings: Settings = DEFAULTS, work: Work = NO_WORK) -> HorizonResults:
     """The law of the total net after each N in ``rounds`` independent rounds, played as ``settings`` says."""
     if not rounds:
-        raise OddsbenchError(f"{game.source}: give the numbers of rounds (--rounds 1,10,100)")
+        raise SettingProblem(f"{game.source}: give the numbers of rounds, e.g. 1,10,100", "rounds")
     if game.round is not None:
         distribution = game.round
         law: dict[Rational, Rational] = {}

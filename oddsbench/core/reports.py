@@ -27,7 +27,6 @@ class ReportFigures:
 @budgeted
 def report_figures(game: Game, settings: Settings = DEFAULTS, work: Work = NO_WORK) -> ReportFigures:
     """The round under each requested strategy (all of the file's when none is named); sessions under the first."""
-    from oddsbench.solve.round_distribution import round_distribution_of
     from oddsbench.strategy.compare import plays_to_compare, solve_rounds, starting_at
 
     ruleset = game.need_ruleset("a report")
@@ -38,10 +37,10 @@ def report_figures(game: Game, settings: Settings = DEFAULTS, work: Work = NO_WO
     )
     if settings.session is None:
         return ReportFigures(game, rounds)
-    from oddsbench.core.session import session_settings, solve_plans
+    from oddsbench.core.session import repeated_round, session_settings, solve_plans
 
     first = rounds.columns[0]
-    distribution = round_distribution_of(starting_at(ruleset, None, settings.max_states), first.policy)
+    distribution = repeated_round(starting_at(ruleset, None, settings.max_states), first.policy)
     session = session_settings(game, settings.session)
     results = solve_plans(game, distribution, session, _for_sessions(settings), work, first.strategy)
     return ReportFigures(game, rounds, results)

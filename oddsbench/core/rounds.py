@@ -12,7 +12,7 @@ from typing import TYPE_CHECKING
 from oddsbench.core.game import Game
 from oddsbench.core.settings import DEFAULTS, Settings
 from oddsbench.core.work import NO_WORK, Work, budgeted
-from oddsbench.model.errors import OddsbenchError
+from oddsbench.model.errors import OddsbenchError, SettingProblem
 from oddsbench.model.ruleset import Ruleset
 from oddsbench.strategy.compare import (
     RoundResults,
@@ -83,7 +83,7 @@ def one_play(ruleset: Ruleset, settings: Settings, question: str) -> str | None:
         raise OddsbenchError(f"{ruleset.source}: {question} repeats one round: name one start state, not several")
     if ruleset.has_decisions and len(settings.strategies) != 1:
         known = ", ".join(s.name for s in ruleset.strategies) or "none defined"
-        raise OddsbenchError(f"{ruleset.source}: has decision states: choose one --strategy NAME (known: {known})")
+        raise SettingProblem(f"{ruleset.source}: has decision states: choose one strategy (known: {known})", "strategy")
     return settings.strategies[0] if settings.strategies else None
 
 
@@ -119,7 +119,9 @@ def round_play(ruleset: Ruleset, settings: Settings, work: Work = NO_WORK) -> tu
         return dict(best.policy), f"best for {settings.best_goal}"
     if ruleset.has_decisions:
         known = ", ".join(s.name for s in ruleset.strategies) or "none defined"
-        raise OddsbenchError(
-            f"{ruleset.source}: has decision states: choose --strategy NAME (known: {known}) or --best GOAL"
+        raise SettingProblem(
+            f"{ruleset.source}: has decision states: choose a strategy (known: {known}) or the best play for a goal",
+            "strategy",
+            "best",
         )
     return {}, None

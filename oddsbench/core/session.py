@@ -17,8 +17,10 @@ from oddsbench.chain.round_distribution import RoundDistribution
 from oddsbench.core.game import Game
 from oddsbench.core.settings import DEFAULTS, SessionRequest, Settings
 from oddsbench.core.work import NO_WORK, Work, budgeted
+from oddsbench.model import budget as budgets
 from oddsbench.model.defaults import DEFAULT_PLANS, NO_GOAL_DEFAULT_PLANS
-from oddsbench.model.errors import OddsbenchError
+from oddsbench.model.errors import OddsbenchError, SettingProblem
+from oddsbench.model.ruleset import Ruleset
 from oddsbench.strategy.plans import Plan, parse_plan
 from oddsbench.strategy.session import SessionFigures, SessionSettings, merge_settings, settings_from_table
 
@@ -88,13 +90,24 @@ def session_round(game: Game, strategy: str | None, max_states: int | None = Non
     """The round a session repeats: the inline round, or the ruleset's round under a named strategy."""
     if game.round is not None:
         if strategy is not None:
-            raise OddsbenchError(f"{game.source}: --strategy needs a ruleset file; an inline round has no decisions")
+            raise SettingProblem(
+                f"{game.source}: a strategy needs a ruleset file; an inline round has no decisions", "strategy"
+            )
         return game.round
-    from oddsbench.solve.round_distribution import round_distribution_of
     from oddsbench.strategy.compare import policy_of, starting_at
 
     played = starting_at(game.ruleset, None, max_states)
-    return round_distribution_of(played, policy_of(played, strategy))
+    return repeated_round(played, policy_of(played, strategy))
+
+
+def repeated_round(ruleset: Ruleset, policy: dict[str, str]) -> RoundDistribution:
+    """The exact round distribution a session repeats, from the ruleset's start under ``policy``.
+    Sessions have no decimal stand-in for it, so it is a part of its own with its own piece of
+    exact arithmetic's time (``exact_part``): the time spent reading the file never starves it."""
+    from oddsbench.solve.round_distribution import round_distribution_of
+
+    with budgets.exact_part(1):
+        return round_distribution_of(ruleset, policy)
 
 
 @budgeted
@@ -126,22 +139,37 @@ def solve_plans(
     spellings = request.plans or (NO_GOAL_DEFAULT_PLANS if session.no_goal else DEFAULT_PLANS)
     plans = [parse_plan(spelling, no_goal=session.no_goal) for spelling in spellings]
     if session.no_goal and settings.rounds is not None:
-        raise OddsbenchError(f"{game.source}: --rounds needs a goal; with --goal none the session only ends at ruin")
+        raise SettingProblem(
+            f"{game.source}: a number of rounds needs a goal; with no goal the session only ends at ruin",
+            "rounds",
+            "goal",
+        )
     results = []
     for done, plan in enumerate(plans):
         work.check()
-        played = for_plan(session, plan)
-        if session.no_goal:
-            results.append(PlanResult(plan.spelling, no_goal=_no_goal(distribution, played, plan, request, work)))
-        else:
-            from oddsbench.strategy.session import analyse_session
-
-            figures = analyse_session(
-                distribution, played, plan, settings.session_exact_limit, settings.rounds, work.should_stop
-            )
-            results.append(PlanResult(plan.spelling, bounded=figures))
+        with budgets.exact_part(len(plans)):  # each plan its own piece of exact arithmetic's time
+            results.append(_one_plan(distribution, session, plan, settings, request, work))
         work.done(done + 1, len(plans))
     return SessionResults(game.title, game.source, distribution, session, tuple(results), strategy, settings.rounds)
+
+
+def _one_plan(
+    distribution: RoundDistribution,
+    session: SessionSettings,
+    plan: Plan,
+    settings: Settings,
+    request: SessionRequest,
+    work: Work,
+) -> PlanResult:
+    played = for_plan(session, plan)
+    if session.no_goal:
+        return PlanResult(plan.spelling, no_goal=_no_goal(distribution, played, plan, request, work))
+    from oddsbench.strategy.session import analyse_session
+
+    figures = analyse_session(
+        distribution, played, plan, settings.session_exact_limit, settings.rounds, work.should_stop
+    )
+    return PlanResult(plan.spelling, bounded=figures)
 
 
 def for_plan(session: SessionSettings, plan: Plan) -> SessionSettings:

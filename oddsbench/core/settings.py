@@ -22,7 +22,7 @@ from oddsbench.model.defaults import (
     SESSION_EXACT_LIMIT,
     is_no_goal,
 )
-from oddsbench.model.errors import OddsbenchError, shown_name
+from oddsbench.model.errors import OddsbenchError, SettingProblem, shown_name
 from oddsbench.model.numbers import Rational
 
 MONEY_FIELDS = ("bankroll", "goal", "floor", "min_bet", "max_bet", "unit")
@@ -105,19 +105,24 @@ def money(value: object, name: str) -> Rational | None:
     if value is None:
         return None
     if isinstance(value, bool):
-        raise OddsbenchError(f"--{name.replace('_', '-')} {shown_name(value)}: expected an amount")
+        raise SettingProblem(f"{_words(name)} {shown_name(value)}: expected an amount", name)
     if isinstance(value, int):
         return QQ(value)
     if isinstance(value, str):
         try:
             return evaluate_text(value)
         except ExpressionError as error:
-            raise OddsbenchError(f"--{name.replace('_', '-')} {shown_name(value)}: {error}") from None
+            raise SettingProblem(f"{_words(name)} {shown_name(value)}: {error}", name) from None
     if isinstance(value, float):
-        raise OddsbenchError(
-            f"--{name.replace('_', '-')} {shown_name(value)}: give amounts exactly, as text such as '0.5' or '1/2'"
+        raise SettingProblem(
+            f"{_words(name)} {shown_name(value)}: give amounts exactly, as text such as '0.5' or '1/2'", name
         )
     return value
+
+
+def _words(name: str) -> str:
+    """A setting's key as words: ``min_bet`` -> ``min bet``."""
+    return name.replace("_", " ")
 
 
 def session_request(**given: Any) -> SessionRequest:

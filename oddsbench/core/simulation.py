@@ -13,7 +13,7 @@ from oddsbench.core.game import Game
 from oddsbench.core.settings import DEFAULTS, Settings
 from oddsbench.core.work import NO_WORK, Work, budgeted
 from oddsbench.model.defaults import DEFAULT_PLANS, DEFAULT_ROUND_TRIALS, DEFAULT_SESSION_TRIALS
-from oddsbench.model.errors import OddsbenchError
+from oddsbench.model.errors import SettingProblem
 from oddsbench.simulate.checks import Check
 from oddsbench.simulate.round_sim import RoundSample
 from oddsbench.simulate.session_sim import SessionSample
@@ -98,9 +98,10 @@ def _sessions(game: Game, chain, seed: int, play: str | None, settings: Settings
 
     session = session_settings(game, settings.session)
     if session.no_goal:
-        raise OddsbenchError(
-            f"{game.source}: simulated sessions need a goal: with --goal none play only stops at ruin, "
-            "which may never come (use `oddsbench session --goal none` for the exact figures)"
+        raise SettingProblem(
+            f"{game.source}: simulated sessions need a goal: with no goal play only stops at ruin, which may "
+            "never come (the exact figures of play with no goal need no simulation: ask for the session)",
+            "goal",
         )
     distribution = round_distribution(chain)
     player = RoundPlayer.of(chain)

@@ -25,7 +25,7 @@ from oddsbench.core.settings import DEFAULTS, Settings
 from oddsbench.core.tune_points import ROUND_FIGURES, FigureAt, Point, shown_figure, spread
 from oddsbench.core.tune_scan import Bracket, scan
 from oddsbench.core.work import NO_WORK, Work, budgeted
-from oddsbench.model.errors import OddsbenchError, shown_name
+from oddsbench.model.errors import OddsbenchError, SettingProblem, shown_name
 from oddsbench.model.figure import Figure
 from oddsbench.model.numbers import QQ, Rational, text
 from oddsbench.model.param_degree import ParamDegrees, param_degrees
@@ -108,9 +108,10 @@ class TuneResults:
     notes: tuple[str, ...] = field(default_factory=tuple)
 
 
-def parse_amount(spelled: str, what: str) -> Rational:
-    """An exact value: the expression language (``1/40``, ``0.015``), a trailing ``%`` (``1.5%`` is
-    3/200), or a decimal exponent (``1e-9``). Never evaluated as code."""
+def parse_amount(spelled: str, setting: str, what: str | None = None) -> Rational:
+    """An exact value of the setting ``setting`` (named ``what`` in a message, else its key):
+    the expression language (``1/40``, ``0.015``), a trailing ``%`` (``1.5%`` is 3/200), or a
+    decimal exponent (``1e-9``). Never evaluated as code."""
     import re
 
     from oddsbench.model.expr import ExpressionError, evaluate_text
@@ -125,15 +126,17 @@ def parse_amount(spelled: str, what: str) -> Rational:
             return evaluate_text(power.group(1)) * QQ(10) ** int(power.group(2)) * scale
         return evaluate_text(body) * scale
     except ExpressionError as error:
-        raise OddsbenchError(f"{what} {shown_name(spelled)}: not an exact value ({error})") from None
+        raise SettingProblem(
+            f"{what or setting} {shown_name(spelled)}: not an exact value ({error})", setting
+        ) from None
 
 
 def parse_target(spelled: str) -> tuple[str, Rational]:
     """``FIGURE=VALUE`` (``house_edge=1.5%``, ``end:won=1/2``)."""
     figure, sign, value = spelled.partition("=")
     if not sign or not figure.strip() or not value.strip():
-        raise OddsbenchError(f"--target {shown_name(spelled)}: expected FIGURE=VALUE, e.g. house_edge=1.5%")
-    return figure.strip(), parse_amount(value, f"--target {shown_name(figure.strip())} =")
+        raise SettingProblem(f"target {shown_name(spelled)}: expected FIGURE=VALUE, e.g. house_edge=1.5%", "target")
+    return figure.strip(), parse_amount(value, "target", f"target {shown_name(figure.strip())} =")
 
 
 @budgeted
@@ -154,18 +157,19 @@ def tune(
     params = dict(ruleset.params)
     if name not in params:
         known = ", ".join(repr(key) for key in params) or "none"
-        raise OddsbenchError(
-            f"{ruleset.source}: --vary {shown_name(name)}: no such parameter (its parameters: {known})"
+        raise SettingProblem(
+            f"{ruleset.source}: parameter to vary {shown_name(name)}: no such parameter (its parameters: {known})",
+            "vary",
         )
     figure, value = target if target is not None else (BREAK_EVEN, QQ(0))
     _check_figure(ruleset, figure)
     if figure == "net_sd" and value < 0:
         raise OddsbenchError(f"{ruleset.source}: net_sd is a standard deviation: a target below 0 is never reached")
     if tolerance <= 0:
-        raise OddsbenchError(f"--tolerance {text(tolerance)}: must be above 0")
+        raise SettingProblem(f"tolerance {text(tolerance)}: must be above 0", "tolerance")
     if between is not None and between[0] >= between[1]:
-        raise OddsbenchError(
-            f"--between {text(between[0])},{text(between[1])}: the first value must be below the second"
+        raise SettingProblem(
+            f"range to scan {text(between[0])},{text(between[1])}: the first value must be below the second", "between"
         )
     strategy = one_play(ruleset, settings, "tuning")
     at = FigureAt(game, name, figure, strategy, settings, work)
@@ -278,7 +282,7 @@ def _too_few(at: FigureAt, current: Rational, points: list[Point], tried: int) -
     problems = [p.problem for p in at.cache.values() if p.problem]
     why = f" (e.g. {problems[0]})" if problems else " (the chain changes shape there)"
     return (
-        f"{at.game.source}: --vary {at.name}: the file is valid at only {len(points)} of {tried} values tried near "
+        f"{at.game.source}: varying {at.name}: the file is valid at only {len(points)} of {tried} values tried near "
         f"{text(current)}{why}: not enough to find the figure as a function of {at.name}"
     )
 

@@ -10,7 +10,9 @@ from ``--budget SECONDS`` and ``--memory MB`` (its clock starts before the file 
 core sets it from ``Settings`` for the workbench and the Python API, and every layer below reads
 it (``check()`` in loops, ``left()`` before a step). A nested scope never loosens an outer one.
 Exact arithmetic may use only the first ``EXACT_SHARE`` of the time, so the float engine always
-has time left to give decimals.
+has time left to give decimals. A question of several parts side by side (the plans of a
+session) gives each part its own equal piece of that share, counted from the part's first exact
+step (``exact_part``): whether one plan is exact never depends on what another plan used.
 """
 
 from __future__ import annotations
@@ -21,7 +23,7 @@ import time
 from collections.abc import Iterator
 from contextlib import contextmanager
 from contextvars import ContextVar
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 
 from oddsbench.model.defaults import DEFAULT_BUDGET_SECONDS, DEFAULT_MEMORY_MB
 from oddsbench.model.errors import OddsbenchError
@@ -29,6 +31,10 @@ from oddsbench.model.errors import OddsbenchError
 TIME_OPTION = "--budget SECONDS"
 MEMORY_OPTION = "--memory MB"
 EXACT_SHARE = 0.4  # of the time budget, for exact arithmetic before it gives way to decimals
+EXACT_RULE = (
+    f"exact arithmetic may use {EXACT_SHARE:.0%} of it, then decimals only; plans side by side get "
+    f"{EXACT_SHARE:.0%}/N each, counted from the plan's first exact step, whatever the others used"
+)
 MEMORY_GUARD = 0.9  # of the memory budget: the polled guard stops here, the hard limit is the budget
 MEMORY_POLL_SECONDS = 0.05  # the resident size is read at most this often
 MB = 1 << 20
@@ -45,6 +51,7 @@ class Budget:
     seconds: float = DEFAULT_BUDGET_SECONDS
     memory_mb: int = DEFAULT_MEMORY_MB
     started: float = field(default_factory=time.monotonic)
+    piece: ExactPiece | None = field(default=None, compare=False)  # one part's own exact time (``exact_part``)
 
     @property
     def deadline(self) -> float:
@@ -52,6 +59,8 @@ class Budget:
 
     @property
     def exact_deadline(self) -> float:
+        if self.piece is not None:
+            return min(self.piece.deadline(), self.deadline)
         return self.started + EXACT_SHARE * self.seconds
 
     @property
@@ -69,7 +78,25 @@ class Budget:
         deadline = min(self.deadline, outer.deadline)
         memory = min(self.memory_mb, outer.memory_mb)
         started = min(self.started, outer.started)
-        return Budget(deadline - started, memory, started)
+        return Budget(deadline - started, memory, started, self.piece or outer.piece)
+
+    def exact_piece(self, count: int) -> float:
+        """Seconds of exact arithmetic each of ``count`` parts side by side may use (``exact_part``)."""
+        return EXACT_SHARE * self.seconds / max(count, 1)
+
+
+@dataclass
+class ExactPiece:
+    """One part's own seconds of exact arithmetic, whose clock starts when the part's exact work
+    first asks how much time it has (the float engine's time before that is not counted)."""
+
+    seconds: float
+    began: float | None = None
+
+    def deadline(self) -> float:
+        if self.began is None:
+            self.began = time.monotonic()
+        return self.began + self.seconds
 
 
 _CURRENT: ContextVar[Budget | None] = ContextVar("oddsbench_budget", default=None)
@@ -89,6 +116,24 @@ def scope(budget: Budget | None) -> Iterator[Budget | None]:
         return
     outer = current()
     token = _CURRENT.set(budget.within(outer) if outer is not None else budget)
+    try:
+        yield _CURRENT.get()
+    finally:
+        _CURRENT.reset(token)
+
+
+@contextmanager
+def exact_part(count: int) -> Iterator[Budget | None]:
+    """Run one of ``count`` parts side by side (the plans of a session) with exact arithmetic's own
+    piece of the time: ``EXACT_SHARE`` x seconds / ``count``, counted from the part's first exact
+    step, whatever the other parts used (the deadline and the memory guard of the whole stay as
+    they are). This is the one rule every front end gets: the command line, the workbench and the
+    reports all ask for sessions through the core, which runs each plan in its own part."""
+    outer = current()
+    if outer is None:
+        yield None
+        return
+    token = _CURRENT.set(replace(outer, piece=ExactPiece(outer.exact_piece(count))))
     try:
         yield _CURRENT.get()
     finally:

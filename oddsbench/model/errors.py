@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+from collections.abc import Callable
 from dataclasses import dataclass
 
 from oddsbench.model.visible import visible
@@ -58,14 +59,39 @@ class OddsbenchError(Exception):
     """A user-facing failure outside ruleset files (bad option values, limits); one line."""
 
 
-class SettingError(OddsbenchError):
-    """A session setting missing or wrong. The command line prints the whole line (which may name its
-    option); a form shows ``reason`` beside the field of ``setting``, in the form's own words."""
+class SettingProblem(OddsbenchError):
+    """A setting (or settings that clash) wrong, said in the setting's own words.
+
+    The command line, the workbench and the Python API set the same things in different ways
+    (``--rounds N``, a field of a form, a keyword), so the message names a setting as the analysis
+    knows it ("a number of rounds", "the target") and ``settings`` carries the keys (names of
+    ``Settings``, ``SessionRequest``, the session table or a tune argument), the one to change
+    first; each front end adds its own way to change them (``with_ways``) from its one table: the
+    command line's options (``cli/options.py``), the workbench's fields (``tui/setting_ways.py``)."""
+
+    def __init__(self, message: str, *settings: str) -> None:
+        super().__init__(message)
+        self.settings = settings
+
+
+class SettingError(SettingProblem):
+    """A session setting missing or wrong; a form shows ``reason`` beside the field of ``setting``."""
 
     def __init__(self, message: str, setting: str, reason: str) -> None:
-        super().__init__(message)
+        super().__init__(message, setting)
         self.setting = setting
         self.reason = reason
+
+
+def with_ways(error: BaseException, way: Callable[[str], str | None], lead: str = "") -> str:
+    """The error's line, and for a setting problem the front end's ways to change the settings it
+    names, after ``lead`` (``way(key)``; None where that front end has no way: the line is left as
+    the core said it)."""
+    line = str(error)
+    if not isinstance(error, SettingProblem):
+        return line
+    ways = [found for found in (way(key) for key in error.settings) if found]
+    return f"{line} ({lead}{', '.join(dict.fromkeys(ways))})" if ways else line
 
 
 def type_name(value: object) -> str:

@@ -15,6 +15,7 @@ decimals (python-flint ``arb`` balls; every digit shown is proved).
 
 from __future__ import annotations
 
+import functools
 import math
 from collections.abc import Sequence
 from dataclasses import dataclass
@@ -25,6 +26,7 @@ from oddsbench.model.numbers import QQ, Rational, denominator, numerator, to_flo
 from oddsbench.solve.ruin.balls import Certified, bits_for, certified, certified_exact, enough, precision, with_retries
 
 ROOT_DIGITS = 30
+ROOT_CACHE = 64  # factors x precisions whose real roots are kept (text, a few KB each)
 
 
 class DegreeBoundFailed(OddsbenchError):
@@ -155,9 +157,7 @@ class Solution:
             from oddsbench.model.numbers import text
 
             return text(self.exact)
-        number = self.index + 1
-        ordinal = {1: "1st", 2: "2nd", 3: "3rd"}.get(number, f"{number}th")
-        return f"the {ordinal} real root of {poly_text(self.polynomial, variable)}"
+        return f"the {ordinal(self.index + 1)} real root of {poly_text(self.polynomial, variable)}"
 
     @property
     def algebraic(self) -> Any:
@@ -167,6 +167,14 @@ class Solution:
         from sympy import CRootOf, Poly, Symbol
 
         return CRootOf(Poly(list(reversed(self.polynomial)), Symbol("x"), domain="ZZ"), self.index)
+
+
+def ordinal(number: int) -> str:
+    """1st, 2nd, 3rd, 4th, ..., 11th, 12th, 13th, ..., 21st, 22nd, 23rd, ..., 111th (English ordinals)."""
+    if number % 100 in (11, 12, 13):
+        return f"{number}th"
+    suffix = {1: "st", 2: "nd", 3: "rd"}.get(number % 10, "th")
+    return f"{number}{suffix}"
 
 
 def equation(f: RationalFunction, target: Rational) -> tuple[int, ...]:
@@ -223,11 +231,19 @@ def _real_root_balls(low_first: tuple[int, ...]) -> list[Any]:
     precision, smallest first (found detached when the degree is large)."""
     import flint
 
+    return [flint.arb(found) for found in _roots_at(low_first, flint.ctx.prec)]
+
+
+@functools.lru_cache(maxsize=ROOT_CACHE)
+def _roots_at(low_first: tuple[int, ...], prec: int) -> tuple[str, ...]:
+    """``_real_root_texts``, found once per factor and precision: every root's certificate and every
+    validity sign asks for one root of the same factor (a degree-60 factor with 55 real roots asked
+    192 times, each a child process), and a root found at a precision stays found. A stop or an
+    error is not kept (``lru_cache`` keeps only returned values)."""
     from oddsbench.solve.ruin.roots import detached_roots
 
-    prec = flint.ctx.prec
     texts = detached_roots(low_first, _real_root_texts, (low_first, prec), "finding the roots of f(x) = target")
-    return [flint.arb(found) for found in texts]
+    return tuple(texts)
 
 
 def _real_root_texts(low_first: tuple[int, ...], prec: int) -> list[str]:

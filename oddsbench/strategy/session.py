@@ -121,21 +121,21 @@ def merge_settings(defaults: Mapping[str, Any], overrides: Mapping[str, Any], so
     merged = {**defaults, **{k: v for k, v in overrides.items() if v is not None}}
     if "bankroll" not in merged:
         raise SettingError(
-            f"{source}: session needs --bankroll (or bankroll in the [session] table)",
+            f"{source}: a session needs a bankroll (or bankroll in the [session] table)",
             "bankroll",
             "needed: the money a session starts with",
         )
     if "goal" not in merged:
         raise SettingError(
-            f"{source}: session needs --goal (or goal in the [session] table)",
+            f"{source}: a session needs a goal (or goal in the [session] table)",
             "goal",
             'needed: the amount that ends a session, or "none" to play until ruin',
         )
     if is_no_goal(merged["goal"]):
         if merged.get("max_rounds") is not None:
             raise SettingError(
-                f"{source}: --goal none plays until ruin; a time cap (max_rounds) needs a goal, or use --rounds N "
-                "with a goal for the chance of ruin within N rounds",
+                f"{source}: with no goal play goes on until ruin; a time cap (max_rounds) needs a goal, or ask, with "
+                "a goal, for the chance of ruin within a number of rounds",
                 "max_rounds",
                 'with goal "none" play goes on until ruin: a cap on rounds needs a goal amount',
             )

@@ -21,6 +21,7 @@ from oddsbench.model.families import FamilyMember
 from oddsbench.model.load import read_ruleset_text
 from oddsbench.model.ruleset import Ruleset
 from oddsbench.report.figure_table import FigureTable
+from oddsbench.tui.setting_ways import problem_line
 
 SolveCancelled = Cancelled  # what the workers catch when a solve was cancelled
 LENGTH_POINTS = 12  # points of the "still playing" chart
@@ -94,7 +95,7 @@ def solve_round_text(
     try:
         results = round_figures(_game(ruleset), Settings(strategies=_played(ruleset, strategy)), _work(should_stop))
     except OddsbenchError as error:
-        return RoundFailure(str(error))
+        return RoundFailure(problem_line(error))
     figures = results.columns[0].figures
     played = strategy if strategy and ruleset.has_decisions else None
     summary = tuple(summary_items(figures, played))
@@ -169,7 +170,7 @@ def strategies_text(
             check = check_strategy(game, strategy.name, settings, work).checks[0]
             checks.append(StrategyVerdict(strategy.name, check_summary(check), improvement_table(check), check.notes))
     except OddsbenchError as error:
-        return RoundFailure(str(error))
+        return RoundFailure(problem_line(error))
     named = len(ruleset.strategies)
     heading = (
         f"{ruleset.title}: one round from {best.start!r} under each of {named} named strateg"
@@ -251,7 +252,7 @@ def sessions_text(
         without_goal = _without_goal(ruleset, strategy, plans, work)
         return _bounded_result(results, without_goal, work)
     except OddsbenchError as error:
-        return RoundFailure(str(error))
+        return RoundFailure(problem_line(error))
 
 
 def _without_goal(ruleset: Ruleset, strategy: str | None, plans: tuple[str, ...], work: Work):

@@ -14,6 +14,7 @@ from oddsbench.model.ruleset import Ruleset
 from oddsbench.report.writing import FORMATS, report_format
 from oddsbench.tui.analysis import RoundFailure, session_settings_of
 from oddsbench.tui.file_targets import path_problem
+from oddsbench.tui.setting_ways import problem_line
 
 
 def suggested_report_path(source_path: Path | None, folder: Path) -> Path:
@@ -58,7 +59,7 @@ def write_report(
             session_settings_of(ruleset)
             session = SessionRequest(plans=plans)
         except OddsbenchError as error:
-            skipped = f" (no sessions: {error})"
+            skipped = f" (no sessions: {problem_line(error)})"
     game = Game(ruleset.source, ruleset=ruleset, text=text)
     fmt = report_format(None, path)
     try:
@@ -66,5 +67,5 @@ def write_report(
         rendered = render_report(figures, fmt)
         written = write_atomically(path, rendered, force=force)
     except OddsbenchError as error:
-        return RoundFailure(f"no report written: {error}")
+        return RoundFailure(f"no report written: {problem_line(error)}")
     return f"wrote {written} ({fmt}, {len(rendered.encode('utf-8')):,} bytes){skipped}"

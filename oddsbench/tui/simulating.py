@@ -14,6 +14,7 @@ from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.ruleset import Ruleset
 from oddsbench.report.figure_table import FigureTable
 from oddsbench.tui.analysis import RoundFailure
+from oddsbench.tui.setting_ways import problem_line
 
 
 @dataclass(frozen=True)
@@ -79,7 +80,7 @@ def simulate_text(
     try:
         result = simulate(Game(ruleset.source, ruleset=ruleset), settings, work)
     except OddsbenchError as error:
-        return RoundFailure(str(error))
+        return RoundFailure(problem_line(error))
     confidence = result.confidence
     play = f", playing {result.play!r}" if result.play else ""
     if not result.of_sessions:

@@ -11,6 +11,7 @@ from collections.abc import Callable
 from dataclasses import dataclass
 
 from oddsbench.model.errors import OddsbenchError, one_line
+from oddsbench.tui.setting_ways import problem_line
 
 DEFAULT_TARGET = "house_edge=0"
 
@@ -52,5 +53,5 @@ def tune_view(
     except RulesetError as error:
         return "the file has problems: fix them first (" + one_line(str(error).splitlines()[0]) + ")"
     except OddsbenchError as error:
-        return one_line(str(error))
+        return one_line(problem_line(error))
     return TuneView(tune_text(results), tuple(applicable_values(results)))

@@ -63,4 +63,9 @@ def test_bad_horizon_input_is_one_line_and_exit_2(capsys, args, fragment):
 
 def test_a_game_with_decisions_and_no_strategy_is_refused_in_one_line(capsys):
     code, _, err = run_cli(capsys, "horizon", RULESETS / "pig-turn.toml", "--rounds", "2")
-    assert code == 2 and "choose one --strategy" in err and len(err.strip().splitlines()) == 1
+    assert (
+        code == 2
+        and "choose one strategy" in err
+        and err.strip().endswith("(change with --strategy)")
+        and len(err.strip().splitlines()) == 1
+    )

@@ -50,7 +50,7 @@ def test_an_unknown_strategy_exits_2_naming_the_file(capsys):
 
 def test_a_game_with_decisions_needs_a_strategy_or_a_goal(capsys, rulesets_dir):
     assert main(["simulate", str(rulesets_dir / "pig-turn.toml"), "--trials", "10"]) == 2
-    assert "choose --strategy NAME (known: hold-at-10" in capsys.readouterr().err
+    assert "choose a strategy (known: hold-at-10" in capsys.readouterr().err
 
 
 def test_the_best_play_for_a_goal_is_simulated_against_its_exact_figures(capsys, rulesets_dir):
@@ -84,4 +84,4 @@ def test_simulate_sessions_as_json_lists_each_plan(capsys):
 
 def test_sessions_need_a_bankroll_and_a_goal(capsys, tmp_path):
     assert main(["simulate", str(RULESETS / "pass-line.toml"), "--plan", "bold", "--trials", "10"]) == 2
-    assert "session needs --bankroll" in capsys.readouterr().err
+    assert "a session needs a bankroll" in capsys.readouterr().err

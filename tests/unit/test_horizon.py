@@ -129,5 +129,5 @@ def test_an_inline_round_is_per_unit_staked():
 
 
 def test_a_game_with_decisions_needs_one_strategy():
-    with pytest.raises(OddsbenchError, match="choose one --strategy"):
+    with pytest.raises(OddsbenchError, match="choose one strategy"):
         horizon(load_game(RULESETS / "pig-turn.toml"), [3])

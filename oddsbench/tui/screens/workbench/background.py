@@ -15,6 +15,7 @@ from textual.worker import get_current_worker
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.tui import analysis
 from oddsbench.tui.analysis import Reading, RoundFailure, SolveCancelled
+from oddsbench.tui.setting_ways import problem_line
 
 READ, ROUND, STRATEGIES, SESSIONS = "read", "round", "strategies", "sessions"
 SIMULATION, REPORT = "simulation", "report"
@@ -97,7 +98,7 @@ def _shown(kind: str, expected: tuple[type[BaseException], ...], solve, *args, *
     except SolveCancelled:
         raise
     except expected as error:
-        return RoundFailure(f"{FAILED[kind]}: {error}")
+        return RoundFailure(f"{FAILED[kind]}: {problem_line(error)}")
 
 
 class Comparison:
