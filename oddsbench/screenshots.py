@@ -9,6 +9,7 @@ from __future__ import annotations
 
 import asyncio
 import os
+import re
 import shutil
 import sys
 import tempfile
@@ -40,6 +41,7 @@ VIEWS = (  # (name, ruleset, keys): every view, each shown at every size in ``SI
     ("sessions", "single-zero-wheel.toml", ("f5",)),
     ("source", "pass-line.toml", ("f6",)),
     ("simulation", "lantern-dice.toml", ("f7", *"20000", "tab", *"7", "enter")),
+    ("horizon", "single-zero-wheel.toml", ("f10",)),
     ("help", "pass-line.toml", ("f1",)),
     ("cautions", "pass-line.toml", ("f9",)),
     ("bad-value", "pass-line.toml", ("enter", "enter", "end", "ctrl+u", *"8/3(")),
@@ -82,12 +84,43 @@ async def take(scene: Scene, folder: Path, scratch: Path) -> Path:
             await _settle(pilot)
         await _settle(pilot)
         path = Path(app.save_screenshot(f"{scene.name}.svg", str(folder)))
-    # Spaces are drawn as written: without this, SVG viewers drop the spaces that begin a run of
-    # text ("State 'first-roll'  3 outcomes" would read "State 'first-roll'3 outcomes").
-    path.write_text(
-        path.read_text(encoding="utf-8").replace("<svg ", '<svg xml:space="preserve" ', 1), encoding="utf-8"
-    )
+    path.write_text(for_any_viewer(path.read_text(encoding="utf-8")), encoding="utf-8")
     return path
+
+
+_RUN = re.compile(
+    r'<text class="(?P<cls>[^"]*)" x="(?P<x>[\d.]+)" y="(?P<y>[\d.]+)" textLength="(?P<length>[\d.]+)"'
+    r"(?P<rest>[^>]*)>(?P<text>[^<]*)</text>"
+)
+_CHAR = re.compile(r"&#?\w+;|.", re.DOTALL)  # one character of a run: an entity counts as one
+_BRAILLE = re.compile("[\u2800-\u28ff]")
+
+
+def for_any_viewer(svg: str) -> str:
+    """The SVG so that any viewer draws it as the terminal showed it.
+
+    Spaces are drawn as written: without ``xml:space``, viewers drop the spaces that begin a run of
+    text ("State 'first-roll'  3 outcomes" would read "State 'first-roll'3 outcomes"). Runs of
+    braille (the charts) get one element per cell: each run is placed at its start and squeezed to
+    its cells by ``textLength``, which librsvg ignores; its fonts draw braille wider than a cell, so
+    a long run of a chart's curve ran past its cells and drew a second, false branch (the Sessions
+    chart of the timid plan on the single-zero wheel, near bankroll 160 to 190)."""
+    if 'xml:space="preserve"' not in svg[:400]:
+        svg = svg.replace("<svg ", '<svg xml:space="preserve" ', 1)
+
+    def per_cell(run: re.Match) -> str:
+        chars = _CHAR.findall(run["text"])
+        if len(chars) < 2 or not _BRAILLE.search(run["text"]):
+            return run[0]
+        cell = float(run["length"]) / len(chars)
+        x = float(run["x"])
+        return "".join(
+            f'<text class="{run["cls"]}" x="{x + i * cell:.5g}" y="{run["y"]}" textLength="{cell:.5g}"'
+            f"{run['rest']}>{char}</text>"
+            for i, char in enumerate(chars)
+        )
+
+    return _RUN.sub(per_cell, svg)
 
 
 async def take_all(

@@ -5,26 +5,20 @@ from __future__ import annotations
 import argparse
 
 from oddsbench.cli.options import add_exact_limit, add_max_states
-from oddsbench.model.defaults import ROUND_EXACT_LIMIT
+from oddsbench.model.defaults import DEFAULT_HORIZON_ROUNDS, ROUND_EXACT_LIMIT
+from oddsbench.model.errors import OddsbenchError
 
-DEFAULT_ROUNDS = "1,10,100,1000,10000"
+DEFAULT_ROUNDS = ",".join(str(n) for n in DEFAULT_HORIZON_ROUNDS)
 
 
 def rounds_list(text: str) -> tuple[int, ...]:
-    """``1,10,100`` as whole numbers of at least 1 (one line naming the bad item otherwise)."""
-    items = [item.strip().replace("_", "") for item in text.split(",") if item.strip()]
-    if not items:
-        raise argparse.ArgumentTypeError(f"expected whole numbers such as 1,10,100, got {text!r}")
-    values = []
-    for item in items:
-        if not item.isdigit() or len(item) > 12:
-            raise argparse.ArgumentTypeError(f"expected whole numbers such as 1,10,100, got {item[:20]!r}")
-        value = int(item)
-        if value < 1:
-            raise argparse.ArgumentTypeError(f"a number of rounds is at least 1, got {value}")
-        if value not in values:
-            values.append(value)
-    return tuple(values)
+    """``--rounds 1,10,100``, read by the core's one grammar (argparse shows the message)."""
+    from oddsbench.core.horizons import parse_rounds
+
+    try:
+        return parse_rounds(text)
+    except OddsbenchError as error:
+        raise argparse.ArgumentTypeError(str(error)) from None
 
 
 def register(commands) -> None:
@@ -49,7 +43,7 @@ def register(commands) -> None:
     parser.add_argument(
         "--rounds",
         type=rounds_list,
-        default=rounds_list(DEFAULT_ROUNDS),
+        default=DEFAULT_HORIZON_ROUNDS,
         metavar="N,N,...",
         help=f"numbers of rounds, comma separated (default {DEFAULT_ROUNDS})",
     )

@@ -35,7 +35,8 @@ def register(commands) -> None:
         "--tolerance",
         metavar="WIDTH",
         default="1e-9",
-        help="piecewise figures: bisect until the bracket is at most this wide (default 1e-9)",
+        help="piecewise figures: bisect until the bracket is at most this wide (default 1e-9; a parameter "
+        "that takes whole values only is bracketed by two neighbouring whole values, exactly)",
     )
     parser.add_argument("--between", metavar="LO,HI", help="piecewise figures: scan the parameter evenly from LO to HI")
     parser.add_argument("--strategy", metavar="NAME", help="play the file's named strategy (games with decisions)")

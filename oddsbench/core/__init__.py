@@ -31,6 +31,7 @@ _WHERE = {
     "dealt_size": "game",
     "HorizonResults": "horizons",
     "horizon": "horizons",
+    "parse_rounds": "horizons",
     "ReportFigures": "reports",
     "report_figures": "reports",
     "BestResults": "rounds",

@@ -16,7 +16,9 @@ from oddsbench.core.work import NO_WORK, Work, budgeted
 from oddsbench.model.errors import OddsbenchError, SettingProblem
 from oddsbench.model.figure import Figure
 from oddsbench.model.numbers import QQ, Rational, to_float
-from oddsbench.solve.horizon import Horizon, horizons
+from oddsbench.solve.horizon import Horizon, TooManyRounds, horizons
+
+__all__ = ["Horizon", "HorizonResults", "TooManyRounds", "horizon", "parse_rounds"]
 
 
 @dataclass(frozen=True)
@@ -42,6 +44,31 @@ class HorizonResults:
             return None
         value = 1 + self.expected_net.exact / self.expected_staked.exact
         return Figure(value, to_float(value))
+
+
+ROUNDS_DIGITS = 12  # digits of one number of rounds read from text (the solver refuses past its own limit)
+
+
+def parse_rounds(text: str) -> tuple[int, ...]:
+    """Numbers of rounds typed as ``1, 10, 100`` (``1_000`` allowed), each at least 1: in increasing
+    order, repeats dropped (tables and charts run along N).
+
+    Raises OddsbenchError with one line naming the item that does not read (a comma inside a number,
+    as in ``1,000``, is taken for a separator: the message says so)."""
+    items = [item.strip().replace("_", "") for item in text.split(",")]
+    if not any(items):
+        raise OddsbenchError(f"expected whole numbers of rounds such as 1,10,100, got {text[:40]!r}")
+    values: list[int] = []
+    for item in filter(None, items):
+        if not item.isascii() or not item.isdigit() or len(item) > ROUNDS_DIGITS:
+            raise OddsbenchError(f"expected whole numbers of rounds such as 1,10,100, got {item[:20]!r}")
+        if len(item) > 1 and item.startswith("0"):
+            raise OddsbenchError(f"{item!r}: commas separate the numbers of rounds: write 1000 or 1_000, not 1,000")
+        value = int(item)
+        if value < 1:
+            raise OddsbenchError(f"a number of rounds is at least 1, got {value}")
+        values.append(value)
+    return tuple(sorted(set(values)))
 
 
 @budgeted

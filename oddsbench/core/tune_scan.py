@@ -61,9 +61,11 @@ def scan(
     tolerance: Rational,
     between: tuple[Rational, Rational] | None,
     counts: bool = False,
-) -> tuple[tuple[Bracket, ...], tuple[Rational, Rational], tuple[str, ...]]:
+) -> tuple[tuple[Bracket, ...], tuple[Rational, Rational], tuple[str, ...], bool]:
     """The crossings of ``goal`` found by the scan (nearest the file's value first), the range
-    scanned, and notes. ``counts``: the parameter sets a count in the file (whole values only)."""
+    scanned, notes, and whether only whole values were scanned (then each bracket is two
+    neighbouring whole values, found exactly: no tolerance applies). ``counts``: the parameter sets
+    a count in the file (whole values only)."""
     whole = is_integer(current) and (counts or _whole_numbers_only(at, current))
     if between is not None:
         low, high = between
@@ -96,7 +98,7 @@ def scan(
     found.sort(key=lambda b: abs(b.low - current))
     if len(found) > MAX_BRACKETS:
         notes.append(f"{len(found)} crossings found: the {MAX_BRACKETS} nearest the file's value are shown")
-    return tuple(found[:MAX_BRACKETS]), (values[0], values[-1]), tuple(notes)
+    return tuple(found[:MAX_BRACKETS]), (values[0], values[-1]), tuple(notes), whole
 
 
 def _whole_numbers_only(at: FigureAt, current: Rational) -> bool:

@@ -104,6 +104,7 @@ class TuneResults:
     brackets: tuple[Bracket, ...] = ()
     scanned: tuple[Rational, Rational] | None = None
     tolerance: Rational = DEFAULT_TOLERANCE
+    whole: bool = False  # only whole values scanned: brackets of neighbouring whole values, exact (no tolerance)
     figure_now: Figure | None = None
     notes: tuple[str, ...] = field(default_factory=tuple)
 
@@ -211,8 +212,10 @@ def tune(
             return dataclasses.replace(found, values=tuple(v for v in found.values if _within(v.solution, between)))
         except DegreeBoundFailed as error:
             reasons.append(f"the exact solves do not fit one rational function ({error})")
-    brackets, scanned, notes = scan(at, params[name], goal, tolerance, between, degrees.counts)
-    return TuneResults(**base, kind=kind, reasons=tuple(reasons), brackets=brackets, scanned=scanned, notes=notes)
+    brackets, scanned, notes, whole = scan(at, params[name], goal, tolerance, between, degrees.counts)
+    return TuneResults(
+        **base, kind=kind, reasons=tuple(reasons), brackets=brackets, scanned=scanned, notes=notes, whole=whole
+    )
 
 
 def _check_figure(ruleset, figure: str) -> None:

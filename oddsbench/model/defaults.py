@@ -29,6 +29,9 @@ NO_GOAL_DIGITS = 20  # significant digits of each proved decimal with no goal (`
 # Best play.
 DEFAULT_BEST_GOAL = "max-return"
 
+# Results over many rounds (``oddsbench horizon``, the workbench's Horizon view).
+DEFAULT_HORIZON_ROUNDS = (1, 10, 100, 1_000, 10_000)
+
 # Simulation.
 DEFAULT_ROUND_TRIALS = 1_000_000
 DEFAULT_SESSION_TRIALS = 100_000

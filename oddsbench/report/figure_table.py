@@ -107,9 +107,11 @@ def round_table(figures: RoundFigures, column: str = "value") -> FigureTable:
 
 def net_law_table(figures: RoundFigures) -> FigureTable:
     """The round's net law, one row per net value: its chance and its contribution (chance x net);
-    no rows where the core did not list it."""
-    table = figures.return_table
-    law = () if table is None or table.law is None else table.law
+    no rows where the core did not list it, the likeliest values only past a screen's rows
+    (``return_table_report.screen_law``)."""
+    from oddsbench.report.return_table_report import screen_law
+
+    law = screen_law(figures)
     rows = [
         row(
             f"net_law[{text(value.net)}]",

@@ -7,13 +7,15 @@ round's nets as the file writes its pays); the return to player is the realised 
 
 from __future__ import annotations
 
+from dataclasses import dataclass
 from typing import TYPE_CHECKING, Any
 
 from oddsbench.model.figure import Figure
-from oddsbench.model.numbers import text, to_float
+from oddsbench.model.numbers import Rational, text, to_float
 from oddsbench.report.cautions import HORIZON_CAUTIONS, caution_block
+from oddsbench.report.figure_table import FigureTable, Shown, row, word
 from oddsbench.report.json_output import envelope
-from oddsbench.report.numbers_text import decimal_text, exact_text, render_table
+from oddsbench.report.numbers_text import decimal_text, exact_text, figure_decimal_text, render_table
 from oddsbench.report.round_report import figure_json
 
 if TYPE_CHECKING:
@@ -24,7 +26,15 @@ METHODS = {"exact": "exact law", "float": "float convolution"}
 
 
 def _percent(figure: Figure) -> str:
-    return decimal_text(figure.decimal, figure.exact, percent=True)
+    return figure_decimal_text(figure, percent=True)
+
+
+def _chance(key: str, label: str, figure: Figure) -> HorizonItem:
+    return HorizonItem(key, label, _exact(figure.exact), _percent(figure), figure_decimal_text(figure))
+
+
+def _exact(*values: Rational | None) -> tuple[Rational, ...] | None:
+    return None if any(value is None for value in values) else values
 
 
 def _rtp_text(figure: Figure) -> str:
@@ -53,50 +63,96 @@ def summary_rows(results: HorizonResults) -> list[list[str]]:
 SUMMARY_HEADERS = ["rounds", "law", "ahead", "even", "behind", "return, 90 % range", "normal approximation"]
 
 
-def horizon_rows(h: Horizon) -> list[list[str]]:
-    """quantity | exact | decimal for one number of rounds."""
-    rows = [
-        ["ahead (total > 0)", exact_text(h.ahead.exact, EXACT_WIDTH), _percent(h.ahead)],
-        ["even (total = 0)", exact_text(h.even.exact, EXACT_WIDTH), _percent(h.even)],
-        ["behind (total < 0)", exact_text(h.behind.exact, EXACT_WIDTH), _percent(h.behind)],
-        ["mean total", exact_text(h.mean, EXACT_WIDTH), decimal_text(to_float(h.mean), h.mean)],
-        ["variance of the total", exact_text(h.variance, EXACT_WIDTH), decimal_text(to_float(h.variance), h.variance)],
+@dataclass(frozen=True)
+class HorizonItem:
+    """One figure after N rounds: its key (for its meaning), its label, its exact value (one value, or
+    the two ends of a range; None where only a decimal exists) and its decimal text."""
+
+    key: str
+    label: str
+    exact: tuple[Rational, ...] | None
+    decimal: str
+    brief: str | None = None  # a shorter decimal for narrow columns (no percent form; ranges in percent, 3 digits)
+
+
+def horizon_items(h: Horizon) -> list[HorizonItem]:
+    """Every figure after ``h.rounds`` rounds, in the order the text and the workbench show them; each
+    normal approximation on the row under the figure it approximates, named."""
+    items = [
+        _chance("horizon.ahead", "ahead (total > 0)", h.ahead),
+        _chance("horizon.even", "even (total = 0)", h.even),
+        _chance("horizon.behind", "behind (total < 0)", h.behind),
+        HorizonItem("horizon.mean", "mean total", (h.mean,), decimal_text(to_float(h.mean), h.mean)),
+        HorizonItem(
+            "horizon.variance", "variance of the total", (h.variance,), decimal_text(to_float(h.variance), h.variance)
+        ),
     ]
     normal = dict(h.normal_quantiles)
     for q, figure in h.quantiles:
-        rows.append(
-            [
-                f"quantile {q} % of the total",
-                exact_text(figure.exact, EXACT_WIDTH),
-                f"{decimal_text(figure.decimal)}  (normal approximation {normal[q]:.6g})",
-            ]
+        label = f"quantile {q} % of the total"
+        items.append(HorizonItem(f"horizon.quantile[{q}]", label, _exact(figure.exact), decimal_text(figure.decimal)))
+        items.append(
+            HorizonItem(f"horizon.quantile_normal[{q}]", f"  normal approximation, {q} %", None, f"{normal[q]:.6g}")
         )
     for band in h.rtp_ranges:
-        exact = "-"
-        if band.low.exact is not None:
-            exact = f"{exact_text(band.low.exact, 18)} .. {exact_text(band.high.exact, 18)}"
-        rows.append(
-            [
-                f"return to player, {band.level} % range",
-                exact,
-                f"{_rtp_text(band.low)} .. {_rtp_text(band.high)} (chance inside {decimal_text(band.inside.decimal)})",
-            ]
+        level = band.level
+        items += [
+            HorizonItem(
+                f"horizon.return_range[{level}]",
+                f"{level} % range of the return to player",
+                _exact(band.low.exact, band.high.exact),
+                f"{_rtp_text(band.low)} .. {_rtp_text(band.high)}",
+                f"{band.low.decimal * 100:.3g}..{band.high.decimal * 100:.3g}",
+            ),
+            _chance(f"horizon.return_range_inside[{level}]", f"  chance inside the {level} % range", band.inside),
+            HorizonItem(
+                f"horizon.return_range_normal[{level}]",
+                f"  normal approximation, {level} %",
+                None,
+                f"{band.normal_low * 100:.4g} % .. {band.normal_high * 100:.4g} %",
+                f"{band.normal_low * 100:.3g}..{band.normal_high * 100:.3g}",
+            ),
+        ]
+    return items
+
+
+def horizon_rows(h: Horizon) -> list[list[str]]:
+    """quantity | exact | decimal for one number of rounds (long exact values shortened)."""
+    rows = []
+    for item in horizon_items(h):
+        exact = (
+            "" if item.exact is None else " .. ".join(exact_text(v, EXACT_WIDTH // len(item.exact)) for v in item.exact)
         )
-        rows.append(
-            [
-                f"  normal approximation, {band.level} %",
-                "",
-                f"{band.normal_low * 100:.4g} % .. {band.normal_high * 100:.4g} % (from the exact sd)",
-            ]
-        )
+        rows.append([item.label, exact, item.decimal])
     return rows
 
 
-def _heading(results: HorizonResults) -> list[str]:
+def rounds_column(rounds: int) -> str:
+    """A column of figures after ``rounds`` rounds, as the workbench and its detail pane name it."""
+    return f"N = {rounds:,}"
+
+
+def horizon_table(results: HorizonResults) -> FigureTable:
+    """The figures after each number of rounds side by side, one column per N, for a screen: the law
+    used (exact or float), then every item of ``horizon_items`` with its exact value in full."""
+    columns = tuple(rounds_column(h.rounds) for h in results.horizons)
+    per_rounds = [horizon_items(h) for h in results.horizons]
+    rows = [row("horizon.law", "law", [word(h.method) for h in results.horizons])]
+    for index, first in enumerate(per_rounds[0]):
+        cells = []
+        for items in per_rounds:
+            item = items[index]
+            exact = None if item.exact is None else " .. ".join(text(v) for v in item.exact)
+            cells.append(Shown(exact, item.decimal, item.brief))
+        rows.append(row(first.key, first.label, cells, first.key.split("[")[0]))
+    return FigureTable(columns, tuple(rows))
+
+
+def heading_lines(results: HorizonResults) -> tuple[str, str]:
+    """What is asked (the game, its start and strategy) and one round's figures, as two lines."""
     play = f" from {results.start!r}" if results.start else ""
     if results.strategy:
         play += f", strategy {results.strategy!r}"
-    lines = [f"{results.title}: the total net after N independent rounds{play}"]
     one = (
         f"One round: expected net {text(results.expected_net.exact)} ({decimal_text(results.expected_net.decimal)}), "
         f"variance {exact_text(results.net_variance.exact, 24)} ({decimal_text(results.net_variance.decimal)})"
@@ -104,24 +160,34 @@ def _heading(results: HorizonResults) -> list[str]:
     rtp = results.return_to_player
     if rtp is not None:
         one += f", return to player {exact_text(rtp.exact, 24)} ({_rtp_text(rtp)})"
-    return lines + [one + f"; {len(results.law):,} net value(s)."]
+    return (
+        f"{results.title}: the total net after N independent rounds{play}",
+        one + f"; {len(results.law):,} net value(s).",
+    )
+
+
+RANGE_NOTE = (
+    "the return-to-player range lies between the (100 - level)/2 % and (100 + level)/2 % quantiles of the "
+    "law (it holds at least the level; the exact chance inside is shown); the normal approximation (de "
+    "Moivre-Laplace) uses the exact mean and standard deviation"
+)
+
+
+def horizon_notes(results: HorizonResults) -> list[str]:
+    """The notes of the round and of each N (where the exact law gave way to floats, and why)."""
+    notes = list(results.notes)
+    for h in results.horizons:
+        notes += [f"{h.rounds:,} rounds: {note}" for note in h.notes]
+    return notes + [RANGE_NOTE]
 
 
 def horizon_text(results: HorizonResults) -> str:
     """The human output of ``oddsbench horizon``: a summary table, then every figure for each N."""
-    parts = _heading(results)
+    parts = list(heading_lines(results))
     parts += ["", render_table(SUMMARY_HEADERS, summary_rows(results))]
     for h in results.horizons:
         parts += ["", _block_heading(h), "", render_table(["quantity", "exact", "decimal"], horizon_rows(h))]
-    notes = list(results.notes)
-    for h in results.horizons:
-        notes += [f"{h.rounds:,} rounds: {note}" for note in h.notes]
-    notes.append(
-        "the return-to-player range lies between the (100 - level)/2 % and (100 + level)/2 % quantiles of the "
-        "law (it holds at least the level; the exact chance inside is shown); the normal approximation (de "
-        "Moivre-Laplace) uses the exact mean and standard deviation"
-    )
-    parts += ["", "Notes:"] + [f"  - {note}" for note in notes]
+    parts += ["", "Notes:"] + [f"  - {note}" for note in horizon_notes(results)]
     parts += ["", caution_block() + "\n" + "\n".join(f"  - {line}" for line in HORIZON_CAUTIONS)]
     return "\n".join(parts)
 

@@ -5,8 +5,8 @@ Figures are named as the core names them: round figures by their name (``house_e
 chances as the simulation and reports key them (``end_probability[double]``,
 ``result_probability[win]``, ``end_probability_by_step[double]``), session figures with a
 ``session.`` prefix (``session.ruin_probability``), play with no goal with ``no_goal.``, a
-strategy's check with ``check.`` and simulated estimates with ``estimate.`` before the name of
-the figure they estimate.
+strategy's check with ``check.``, figures after N rounds with ``horizon.`` and simulated estimates
+with ``estimate.`` before the name of the figure they estimate.
 """
 
 from __future__ import annotations
@@ -97,6 +97,27 @@ CHECK = {
     "gain": "How much this state's value rises when only its action changes to the better one.",
 }
 
+HORIZON = {
+    "law": "How the law of the total after N rounds was found: 'exact' by exact convolution, 'float' by a float "
+    "convolution past the exact limits (each chance then within a stated error; mean and variance still exact).",
+    "ahead": "The chance that the total net after N independent rounds is above zero: the player is ahead.",
+    "even": "The chance that the total net after N independent rounds is exactly zero.",
+    "behind": "The chance that the total net after N independent rounds is below zero: the player is behind.",
+    "mean": "The average total net after N rounds: N times one round's expected net, exactly.",
+    "variance": "How widely the total after N rounds spreads around its average: N times one round's variance.",
+    "quantile": "The total that the total net after N rounds stays at or below with at least this chance (the "
+    "smallest such total of the law).",
+    "quantile_normal": "The same quantile from the normal approximation (de Moivre-Laplace) with the exact mean and "
+    "standard deviation: compare it with the exact quantile above.",
+    "return_range": "Where the realised return to player over N rounds (1 + total / (N x expected staked)) lands "
+    "with at least this chance: between the law's lower and upper quantiles. It narrows as N grows, around "
+    "the expected return, never away from the house edge.",
+    "return_range_inside": "The exact chance that the realised return lands inside the range above: at least the "
+    "level, more where the law jumps.",
+    "return_range_normal": "The same range from the normal approximation (de Moivre-Laplace) with the exact mean and "
+    "standard deviation: an approximation, close to the exact range when N is large.",
+}
+
 _KEYED = re.compile(r"^(end_probability|result_probability|end_probability_by_step)\[(.*)\]$")
 
 
@@ -107,7 +128,7 @@ def meaning(key: str) -> str:
             f"Estimated by simulation. {meaning(key.removeprefix('estimate.'))} The interval holds the true value "
             "at the chosen confidence if the model is right: 'inside' when the exact figure falls in it."
         )
-    for prefix, table in (("session.", SESSION), ("no_goal.", NO_GOAL), ("check.", CHECK)):
+    for prefix, table in (("session.", SESSION), ("no_goal.", NO_GOAL), ("check.", CHECK), ("horizon.", HORIZON)):
         if key.startswith(prefix):
             return table.get(key.removeprefix(prefix), _fallback(key.removeprefix(prefix)))
     keyed = _KEYED.match(key)

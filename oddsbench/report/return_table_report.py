@@ -13,9 +13,10 @@ from oddsbench.model.numbers import Rational, text, to_float
 from oddsbench.report.numbers_text import decimal_text, exact_text, render_table
 
 if TYPE_CHECKING:
-    from oddsbench.core.results import RoundFigures
+    from oddsbench.core.results import NetValue, RoundFigures
 
 NET_TEXT_ROWS = 30  # net values shown in text; every one is in --json
+SCREEN_LAW_ROWS = 1_000  # net values a screen table lists (a table of 10,000 took 1.5 s to redraw)
 SHARE_TEXT_ROWS = 20  # paying steps shown in text (largest shares first when there are more)
 LAW_HEADERS = ["net", "chance", "chance (decimal)", "contribution", "contribution (decimal)"]
 SHARE_HEADERS = ["step", "pay", "times taken", "share of expected net", "decimal"]
@@ -78,7 +79,24 @@ def law_title(figures: RoundFigures) -> str:
         return ""
     if table.law is None:
         return f"net law: {table.values:,} values, too many to list (see the notes)"
+    if table.values > SCREEN_LAW_ROWS:
+        return (
+            f"net law: the {SCREEN_LAW_ROWS:,} likeliest of {table.values:,} values shown, in order of the net; "
+            "every value: oddsbench solve --json, or a report (F8)"
+        )
     return f"net law: {table.values:,} value(s); contribution = chance x net, summing to the expected net"
+
+
+def screen_law(figures: RoundFigures) -> tuple[NetValue, ...]:
+    """The net values a screen lists: all of them up to ``SCREEN_LAW_ROWS``, else that many of the
+    likeliest (the largest chances, ties to the smaller net), in order of the net."""
+    table = figures.return_table
+    if table is None or table.law is None:
+        return ()
+    if len(table.law) <= SCREEN_LAW_ROWS:
+        return table.law
+    order = sorted(range(len(table.law)), key=lambda i: (-table.law[i].probability, i))
+    return tuple(table.law[i] for i in sorted(order[:SCREEN_LAW_ROWS]))
 
 
 SHARES_TITLE = "each paying step's share of the expected net (times taken x pay)"

@@ -110,8 +110,9 @@ def _figure_cell(figure: Figure) -> str:
     return f"{figure.decimal:.10g}"
 
 
-def tune_text(results: TuneResults) -> str:
-    """The human output of ``oddsbench tune``."""
+def tune_text(results: TuneResults, cautions: bool = True) -> str:
+    """The human output of ``oddsbench tune``; ``cautions`` False leaves out the cautions block for a
+    screen that keeps them on its own line (the workbench's tune dialog, F9 for the full text)."""
     name = results.parameter
     parts = _heading(results) + [""]
     if results.kind == "constant":
@@ -140,7 +141,7 @@ def tune_text(results: TuneResults) -> str:
         parts += [f"  - {reason}" for reason in results.reasons]
         low, high = results.scanned or (results.current, results.current)
         parts += textwrap.wrap(
-            f"Exact bisection to {text(results.tolerance)}: {name} scanned from {text(low)} to {text(high)} "
+            f"{_search_text(results)}: {name} scanned from {text(low)} to {text(high)} "
             "(steps doubling away from the file's value, or evenly with --between LO,HI); crossings of the target:",
             width=100,
         )
@@ -151,8 +152,20 @@ def tune_text(results: TuneResults) -> str:
             parts.append("  none found in the scanned values (try --between LO,HI)")
     if results.notes:
         parts += ["", "Notes:"] + [f"  - {note}" for note in results.notes]
-    parts += ["", caution_block()]
+    if cautions:
+        parts += ["", caution_block()]
     return "\n".join(parts)
+
+
+def _search_text(results: TuneResults) -> str:
+    """How the crossings were searched: over whole values the bisection ends at two neighbouring
+    whole values, exactly, whatever the tolerance; otherwise to the tolerance."""
+    if results.whole:
+        return (
+            f"Exact bisection over whole values of {results.parameter} (each crossing between two neighbouring "
+            "whole values; no tolerance applies)"
+        )
+    return f"Exact bisection to {text(results.tolerance)}"
 
 
 def _value(value: Rational | None) -> dict[str, Any] | None:
@@ -227,6 +240,7 @@ def tune_json(results: TuneResults) -> dict[str, Any]:
         ],
         "scanned": None if results.scanned is None else [_value(results.scanned[0]), _value(results.scanned[1])],
         "tolerance": _value(results.tolerance),
+        "whole_values": results.whole,
         "notes": list(results.notes),
     }
     return envelope("tune", body)

@@ -24,7 +24,7 @@ from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 from statistics import NormalDist
 
-from oddsbench.model.errors import OddsbenchError
+from oddsbench.model.errors import OddsbenchError, SettingProblem
 from oddsbench.model.figure import Figure
 from oddsbench.model.numbers import QQ, Rational, count_text, denominator, numerator, to_float
 from oddsbench.solve.cancel import SolveCancelled
@@ -36,6 +36,14 @@ FLOAT_CHANCE_ERROR = 1e-12  # absolute error of each chance of the float law (he
 QUANTILES = (1, 5, 25, 50, 75, 95, 99)  # percent
 LEVELS = (90, 95, 99)  # percent: central ranges of the realised return to player
 MAX_ROUNDS = 10**9
+
+
+class TooManyRounds(SettingProblem):
+    """A number of rounds refused before any work: out of range, or its law would be too large (the
+    setting ``rounds``: each front end adds its way to change it)."""
+
+    def __init__(self, message: str) -> None:
+        super().__init__(message, "rounds")
 
 
 @dataclass(frozen=True)
@@ -123,11 +131,11 @@ def horizons(
 
 def _check_rounds(n: int, lattice: Lattice) -> None:
     if n < 1 or n > MAX_ROUNDS:
-        raise OddsbenchError(f"--rounds {count_text(n)}: give a whole number of rounds from 1 to {MAX_ROUNDS:,}")
+        raise TooManyRounds(f"{count_text(n)} rounds: a number of rounds runs from 1 to {MAX_ROUNDS:,}")
     support = n * lattice.span + 1
     if support > FLOAT_SUPPORT:
-        raise OddsbenchError(
-            f"--rounds {n:,}: the total after {n:,} rounds can take {count_text(support)} values, over the limit of "
+        raise TooManyRounds(
+            f"{n:,} rounds: the total after {n:,} rounds can take {count_text(support)} values, over the limit of "
             f"{FLOAT_SUPPORT:,} for its law (ask for fewer rounds)"
         )
 

@@ -23,7 +23,7 @@ from dataclasses import dataclass
 from oddsbench.chain.round_chain import RoundChain
 from oddsbench.model.figure import Figure
 from oddsbench.model.numbers import QQ, Rational, denominator, numerator, to_float
-from oddsbench.solve.linear import ExactTooLarge
+from oddsbench.solve.linear import ExactTooLarge, ScaledVector
 from oddsbench.solve.round_distribution import PRODUCT_LIMIT, ProductTooLarge, round_law
 
 NET_LAW_LIMIT = 10_000  # distinct net values listed; past it the law is summed up, not listed
@@ -95,13 +95,16 @@ def return_table(
     exact_limit: int,
     should_stop: Callable[[], bool] | None = None,
     max_bits: int | None = None,
+    chain_visits: ScaledVector | None = None,
 ) -> ReturnTable | str:
     """The return table of a round chain, or one line saying why it is not listed.
 
-    The product chain is solved exactly while it has at most ``exact_limit`` transient nodes.
+    The product chain is solved exactly while it has at most ``exact_limit`` transient nodes; where
+    it is the round chain itself, the round's expected visits (``chain_visits``) serve instead.
     """
     try:
-        law = round_law(chain, max(PRODUCT_LIMIT, 2 * exact_limit), should_stop, max_bits, transient_limit=exact_limit)
+        limit = max(PRODUCT_LIMIT, 2 * exact_limit)
+        law = round_law(chain, limit, should_stop, max_bits, exact_limit, chain_visits)
     except (ProductTooLarge, ExactTooLarge) as error:
         return f"return table not listed: {error}"
     by_net: dict[Rational, Rational] = {}

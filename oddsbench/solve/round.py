@@ -13,7 +13,7 @@ from collections.abc import Callable
 from dataclasses import dataclass, field
 
 import numpy as np
-from flint import fmpq_mat
+from flint import fmpq, fmpz
 
 from oddsbench.chain.deal import HandCounts
 from oddsbench.chain.round_chain import RoundChain
@@ -30,6 +30,7 @@ from oddsbench.solve.linear import (
     identity_minus,
     sparse_from_rows,
 )
+from oddsbench.solve.linear.integer_lu import ScaledVector, grouped_products
 from oddsbench.solve.return_table import CHANCE_FIGURES, ReturnTable, net_sd, return_table
 
 DEFAULT_EXACT_LIMIT = ROUND_EXACT_LIMIT
@@ -88,6 +89,7 @@ class _Moments:
     net_variance: object = None  # centred, where the engine solved for it (floats)
     steps_variance: object = None
     resolution: float = 0.0  # the smallest net variance the float engine resolves
+    visits: ScaledVector | None = None  # exact expected visits from the start (for the return table)
 
 
 def solve_round(
@@ -139,7 +141,7 @@ def solve_round(
     _add_net_sd(figures)
     table = None
     if with_return_table:
-        table = _return_table(chain, figures, exact is not None, exact_limit, should_stop, exact_bits, notes)
+        table = _return_table(chain, figures, exact, exact_limit, should_stop, exact_bits, notes)
     by_step: dict[str, Figure] = {}
     if rounds is not None:
         by_step = _by_step(chain, rounds, exact is not None, notes, should_stop)
@@ -176,7 +178,7 @@ def _add_net_sd(figures: dict[str, Figure]) -> None:
 def _return_table(
     chain: RoundChain,
     figures: dict[str, Figure],
-    exact: bool,
+    exact: _Moments | None,
     exact_limit: int,
     should_stop: Callable[[], bool] | None,
     exact_bits: int | None,
@@ -184,10 +186,10 @@ def _return_table(
 ) -> ReturnTable | None:
     """Where exact arithmetic ran, add the hit, push and loss chances to ``figures``; return the
     table (None, with a note, when it is not listed)."""
-    if not exact:
+    if exact is None:
         notes.append("return table (net law; hit, push and loss chances) not listed: it needs exact arithmetic")
         return None
-    table = return_table(chain, exact_limit, should_stop, exact_bits)
+    table = return_table(chain, exact_limit, should_stop, exact_bits, exact.visits)
     if isinstance(table, str):
         notes.append(table)
         return None
@@ -219,52 +221,46 @@ def _floats_of(exact: _Moments) -> _Moments:
 def _exact_moments(
     chain: RoundChain, should_stop: Callable[[], bool] | None, max_bits: int | None = DEFAULT_EXACT_BITS
 ) -> _Moments | None:
-    """One exact factorisation, three solves: the expected visits from the start (a transposed solve)
-    give every end chance and every figure needed only at the start; expected net and steps are
-    solved for every state because the second moments' right-hand sides need them."""
+    """One exact factorisation in whole numbers (``linear/integer_lu.py``), three solves: the expected
+    visits from the start (a transposed solve) give every end chance and every figure needed only at
+    the start; expected net and steps are solved for every state because the second moments need
+    them. The three vectors stay whole numerators over one denominator: the figures are sums of
+    their products, and only the figures are reduced to lowest terms."""
     n = chain.transient_count
     if n == 0:
         return _Moments([QQ(1)], QQ(0), QQ(0), QQ(0), QQ(0), QQ(0))
-    lu = factor_exact(identity_minus(chain.q_rows()), should_stop=should_stop, max_bits=max_bits)
+    lu = factor_exact(identity_minus(chain.q_rows()), "integer", should_stop, max_bits)
     lu.expect_solves(EXACT_SOLVES)
-    visits = _visits_from_start(lu, n)
-    visits_row = fmpq_mat(1, n, visits)
-
-    def at_start(rhs: list) -> Rational:
-        # FLINT's rational matrix product clears denominators once: 20x a running sum of fractions
-        return (visits_row * fmpq_mat(n, 1, rhs))[0, 0]
-
-    end = _end_chances_exact(chain, visits)
-    net = lu.solve(_one_step(chain, lambda e: e.pay))
-
-    def net_after(edge) -> Rational:
-        return net[edge.target] if edge.target < n else QQ(0)
-
-    net_second = at_start(_one_step(chain, lambda e: e.pay * e.pay + 2 * e.pay * net_after(e)))
-    steps = lu.solve([QQ(1)] * n)
-    steps_second = at_start([2 * t - 1 for t in steps])
-    extra = at_start(_one_step(chain, lambda e: e.stake))
-    return _Moments(end, net[0], extra, net_second, steps[0], steps_second)
-
-
-def _visits_from_start(lu, n: int) -> list[Rational]:
-    """Expected visits to every transient state from the start: one transposed solve that answers every
-    figure needed only at the start (end chances, second moments, staked) as a sum of products."""
     start = [QQ(0)] * n
     start[0] = QQ(1)
-    return lu.solve_transposed(start)
+    visits = lu.solve_transposed_scaled(start)
+    end = _end_chances_exact(chain, visits)
+    net = lu.solve_scaled(_one_step(chain, lambda e: e.pay))
+    steps = lu.solve_scaled([QQ(1)] * n)
+    # E[net^2] = sum over steps of visits x prob x (pay^2 + 2 pay net(after)); E[T^2] = visits . (2 T - 1)
+    inside = [e for e in chain.edges if e.target < n]
+    carried = grouped_products(
+        [(e.prob * e.pay, visits.numerators[e.source] * net.numerators[e.target]) for e in inside]
+    )
+    net_second = visits.weighted(_one_step(chain, lambda e: e.pay * e.pay)) + 2 * carried / (
+        visits.denominator * net.denominator
+    )
+    products = sum((v * t for v, t in zip(visits.numerators, steps.numerators)), fmpz(0))
+    steps_second = 2 * fmpq(products, visits.denominator * steps.denominator) - visits.total()
+    extra = visits.weighted(_one_step(chain, lambda e: e.stake))
+    return _Moments(end, net.value(0), extra, net_second, steps.value(0), steps_second, visits=visits)
 
 
-def _end_chances_exact(chain: RoundChain, visits: list[Rational]) -> list[Rational]:
+def _end_chances_exact(chain: RoundChain, visits: ScaledVector) -> list[Rational]:
     """The chance of ending in each end state from the start: P(end j) = sum over edges i -> j of v_i p,
     from the expected visits v (no transient x end matrix: a star of 10,000 branches needs one solve,
     not 10,000)."""
     n = chain.transient_count
-    end = [QQ(0)] * len(chain.ends)
+    into: list[list[tuple[Rational, object]]] = [[] for _ in chain.ends]
     for edge in chain.edges:
-        if edge.target >= n and visits[edge.source] != 0:
-            end[edge.target - n] += visits[edge.source] * edge.prob
-    return end
+        if edge.target >= n:
+            into[edge.target - n].append((edge.prob, visits.numerators[edge.source]))
+    return [grouped_products(terms) / visits.denominator for terms in into]
 
 
 def _decimal_moments(chain: RoundChain) -> _Moments:

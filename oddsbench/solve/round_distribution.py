@@ -17,11 +17,14 @@ from __future__ import annotations
 from collections.abc import Callable
 from dataclasses import dataclass
 
+from flint import fmpq, fmpz
+
 from oddsbench.chain.round_chain import RoundChain
 from oddsbench.chain.round_distribution import RoundDistribution, RoundOutcome, make_distribution
 from oddsbench.model.errors import OddsbenchError
 from oddsbench.model.numbers import QQ, Rational
-from oddsbench.solve.linear import factor_exact, identity_minus
+from oddsbench.solve.linear import ScaledVector, factor_exact, identity_minus
+from oddsbench.solve.linear.integer_lu import grouped_products
 
 PRODUCT_LIMIT = 20_000
 
@@ -50,12 +53,14 @@ def round_law(
     should_stop: Callable[[], bool] | None = None,
     max_bits: int | None = None,
     transient_limit: int | None = None,
+    chain_visits: ScaledVector | None = None,
 ) -> RoundLaw:
     """The exact law of the round's (pay, extra stake) totals: one transposed solve on the product chain.
 
     Raises ``ProductTooLarge`` past ``limit`` product nodes or ``transient_limit`` transient ones
     (``ExactTooLarge``, ``SolveCancelled``
-    from the exact elimination under ``max_bits`` and ``should_stop``).
+    from the exact elimination under ``max_bits`` and ``should_stop``). ``chain_visits``, the round
+    chain's expected visits from the start, spares the solve when the product chain is the round chain.
     """
     n = chain.transient_count
     if n == 0:
@@ -97,29 +102,41 @@ def round_law(
             f"limit of {transient_limit:,} (raise it with --exact-limit)"
         )
     position = {node: k for k, node in enumerate(transient)}
-    q_rows = []
-    for i in transient:
-        q_row: dict[int, object] = {}
-        for target, k in transitions[i]:
-            if target in position:
-                q_row[position[target]] = q_row.get(position[target], QQ(0)) + chain.edges[k].prob
-        q_rows.append(q_row)
-    lu = factor_exact(identity_minus(q_rows), should_stop=should_stop, max_bits=max_bits)
-    unit = [QQ(0)] * len(transient)
-    unit[0] = QQ(1)
-    visits = lu.solve_transposed(unit)
-    ending: dict[tuple[Rational, Rational], Rational] = {}
-    taken = [QQ(0)] * len(chain.edges)
+    states = [nodes[i][0] for i in transient]
+    if chain_visits is not None and len(set(states)) == n == len(states):
+        # each state is reached with one pay so far: the product chain is the round chain, whose
+        # expected visits the caller already has (the exact round's one factorisation)
+        visits = ScaledVector(tuple(chain_visits.numerators[state] for state in states), chain_visits.denominator)
+    else:
+        q_rows = []
+        for i in transient:
+            q_row: dict[int, object] = {}
+            for target, k in transitions[i]:
+                if target in position:
+                    q_row[position[target]] = q_row.get(position[target], QQ(0)) + chain.edges[k].prob
+            q_rows.append(q_row)
+        lu = factor_exact(identity_minus(q_rows), "integer", should_stop, max_bits)
+        unit = [QQ(0)] * len(transient)
+        unit[0] = QQ(1)
+        visits = lu.solve_transposed_scaled(unit)
+    # whole-number sums of visits per edge and per ending; each reduced to lowest terms once
+    through = [fmpz(0)] * len(chain.edges)
+    ending_terms: dict[tuple[Rational, Rational], list] = {}
     for j, i in enumerate(transient):
-        if visits[j] == 0:
+        visited = visits.numerators[j]
+        if visited == 0:
             continue
         for target, k in transitions[i]:
-            flow = visits[j] * chain.edges[k].prob
-            taken[k] += flow
+            through[k] += visited
             if target not in position:
-                key = nodes[target][1:]
-                ending[key] = ending.get(key, QQ(0)) + flow
-    return RoundLaw(ending, tuple(taken), len(transient))
+                ending_terms.setdefault(nodes[target][1:], []).append((chain.edges[k].prob, visited))
+    ending = {key: grouped_products(terms) / visits.denominator for key, terms in ending_terms.items()}
+    reduced: dict = {fmpz(0): QQ(0)}  # the edges of one state share its visits: reduce each total once
+    for total in through:
+        if total not in reduced:
+            reduced[total] = fmpq(total, visits.denominator)
+    taken = tuple(edge.prob * reduced[total] for edge, total in zip(chain.edges, through))
+    return RoundLaw(ending, taken, len(transient))
 
 
 def drifting_loop(chain: RoundChain) -> bool:

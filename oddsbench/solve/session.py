@@ -17,6 +17,7 @@ import numpy as np
 from oddsbench.chain.bankroll import BankrollChain
 from oddsbench.model.defaults import SESSION_EXACT_LIMIT
 from oddsbench.model.figure import Figure
+from oddsbench.model.float_series import FloatSeries
 from oddsbench.model.numbers import Rational
 from oddsbench.solve.bankroll_system import skip_free_view
 from oddsbench.solve.by_step import require_exact_steps
@@ -37,7 +38,7 @@ class SessionSolution:
 
     figures: dict[str, Figure]
     final: tuple[FinalValue, ...]
-    goal_series: tuple[float, ...]
+    goal_series: FloatSeries
     goal_series_exact: tuple[Rational, ...] | None
     after_rounds: tuple[FinalValue, ...] = ()
     rounds: int | None = None
@@ -115,7 +116,7 @@ def solve_session(
     goal_series, goal_exact, goal_log10 = goal_series_of(chain, series, series_exact, series_log10)
     underflow_notes(figures, notes)
     goal = figures["goal_probability"]
-    if goal.exact is None and goal.log10 is None and goal.decimal == 0.0 and any(v > 0 for v in goal_series[:-1]):
+    if goal.exact is None and goal.log10 is None and goal.decimal == 0.0 and (goal_series.array()[:-1] > 0).any():
         notes.append(
             "goal_probability: shown as 0 because it is below the float range (about 1e-308); the goal can "
             "be reached from higher bankrolls (see the series); solve a smaller grid exactly for its size"

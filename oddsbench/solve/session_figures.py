@@ -13,6 +13,7 @@ import numpy as np
 
 from oddsbench.chain.bankroll import FLOOR, GOAL, KIND_NAMES, RUIN, BankrollChain
 from oddsbench.model.figure import FLOAT_TINY, Figure
+from oddsbench.model.float_series import FloatSeries
 from oddsbench.model.numbers import QQ, Rational, to_float
 from oddsbench.solve.checked import Tolerance, checked_figure
 
@@ -163,9 +164,9 @@ def goal_series_of(chain: BankrollChain, series, series_exact, series_log10=None
         for k in range(width):
             exact[grid.low + k] = series_exact[k * chain.levels]
         decimal = np.array([to_float(v) for v in exact])
-    decimal = np.where(np.abs(decimal) < FLOAT_TINY, 0.0, decimal)
+    decimal[np.abs(decimal) < FLOAT_TINY] = 0.0
     return (
-        tuple(decimal.tolist()),
+        FloatSeries(decimal),
         (tuple(exact) if exact is not None else None),
         log10,
     )

@@ -19,6 +19,7 @@ from oddsbench.chain.round_distribution import RoundDistribution
 from oddsbench.model.defaults import NO_GOAL, SESSION_EXACT_LIMIT, SESSION_SETTING_NAMES, is_no_goal
 from oddsbench.model.errors import OddsbenchError, SettingError
 from oddsbench.model.figure import Figure
+from oddsbench.model.float_series import FloatSeries
 from oddsbench.model.numbers import QQ, Rational, is_integer, text, to_float, to_int
 from oddsbench.solve.session import FinalValue, solve_session
 from oddsbench.strategy.plan_bets import planned_bets
@@ -58,7 +59,7 @@ class SessionFigures:
     plan: str
     figures: dict[str, Figure]
     final: tuple[FinalValue, ...]
-    goal_series: tuple[float, ...]
+    goal_series: FloatSeries  # read-only decimals, one per bankroll step (a sequence of floats)
     goal_series_exact: tuple[Rational, ...] | None
     step: Rational
     states: int

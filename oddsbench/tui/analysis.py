@@ -78,6 +78,14 @@ def _work(should_stop: Callable[[], bool] | None, progress: Callable[[int, int],
     return Work(should_stop=should_stop or (lambda: False), progress=progress)
 
 
+def strategy_to_play(ruleset: Ruleset, strategy: str | None) -> str | None:
+    """The strategy the views play: the one selected (``s``), else the file's first where the game has
+    decisions and the selected one is not (or no longer) in the file."""
+    if ruleset.has_decisions and strategy not in {s.name for s in ruleset.strategies}:
+        return ruleset.strategies[0].name if ruleset.strategies else None
+    return strategy
+
+
 def _played(ruleset: Ruleset, strategy: str | None) -> tuple[str, ...]:
     """The strategy to play, for a game with decisions (a game without plays as written)."""
     return (strategy,) if strategy is not None and ruleset.has_decisions else ()

@@ -196,6 +196,11 @@ class WorkbenchApp(App):
                 lambda: bench.action_view("simulation"),
             ),
             ("Write a report", "Markdown, CSV or JSON, as oddsbench report writes it (F8)", bench.action_write_report),
+            (
+                "Horizon",
+                "the total after N rounds: chance ahead, return range, log-scale charts (F10)",
+                lambda: bench.action_view("horizon"),
+            ),
             ("Cautions", "the cautions in full (F9)", self.action_cautions),
             ("Solve again", "re-run the round solve; in Simulation, run (Ctrl+R)", bench.action_resolve),
             ("Help", "every key (F1)", self.action_help),
@@ -237,7 +242,7 @@ def help_areas() -> list[tuple[str, list]]:
         ("Strategy table", list(StrategyTable.BINDINGS)),
         ("Parameters", list(ParamsEditor.BINDINGS)),
         ("Deck", list(CardCounts.BINDINGS) + list(DeckEditor.BINDINGS)),
-        ("Tables of figures (Round, Strategies, Sessions, Simulation)", list(FigureGrid.BINDINGS)),
+        ("Tables of figures (Round, Strategies, Sessions, Simulation, Horizon)", list(FigureGrid.BINDINGS)),
         (
             "Fields",
             [

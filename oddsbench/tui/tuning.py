@@ -54,4 +54,4 @@ def tune_view(
         return "the file has problems: fix them first (" + one_line(str(error).splitlines()[0]) + ")"
     except OddsbenchError as error:
         return one_line(problem_line(error))
-    return TuneView(tune_text(results), tuple(applicable_values(results)))
+    return TuneView(tune_text(results, cautions=False), tuple(applicable_values(results)))

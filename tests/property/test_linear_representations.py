@@ -61,7 +61,9 @@ def test_float_engines_match_the_exact_engines_on_the_same_walk(walk):
     truth = factor_exact(exact_rows).solve(rhs)
     assert factor_exact(exact_rows, method="dense").solve(rhs) == truth
     assert factor_exact(exact_rows, method="fraction-free").solve(rhs) == truth
+    assert factor_exact(exact_rows, method="integer").solve(rhs) == truth
     truth_t = factor_exact(exact_rows).solve_transposed(rhs)
+    assert factor_exact(exact_rows, method="integer").solve_transposed(rhs) == truth_t
     assert factor_exact(exact_rows, method="fraction-free").solve_transposed(rhs) == truth_t
     expected = np.array([to_float(v) for v in truth])
     expected_t = np.array([to_float(v) for v in truth_t])

@@ -87,7 +87,7 @@ def binding_keys() -> list[str]:
 
 BINDING_KEYS = binding_keys()
 ALPHABET = BINDING_KEYS + PRINTABLE + MOVES + [PAUSE]
-START_VIEWS = ("f2", "f3", "f4", "f5", "f6", "f7")
+START_VIEWS = ("f2", "f3", "f4", "f5", "f6", "f7", "f10")
 
 
 async def _settle(pilot) -> None:
@@ -152,6 +152,6 @@ def test_random_keys_never_end_the_workbench(name, size, start, keys):
 
 def test_the_fuzz_presses_every_binding_of_the_workbench():
     """The alphabet holds each view's key, the report and cautions keys and the tables' own keys."""
-    for key in ("f1", "f2", "f3", "f4", "f5", "f6", "f7", "f8", "f9", "f12", "ctrl+s", "ctrl+z", "ctrl+r", "c", "g"):
+    for key in "f1 f2 f3 f4 f5 f6 f7 f8 f9 f10 f12 ctrl+s ctrl+z ctrl+r c g".split():
         assert key in BINDING_KEYS, key
     assert not QUIT_KEYS & set(BINDING_KEYS)

@@ -46,3 +46,41 @@ async def test_f3_shows_the_net_law_as_solve_json_gives_it(tmp_path, capsys):
         shown = [str(c) for i in range(grid.row_count) for c in grid.get_row_at(i)]
         assert grid.kind == "decimal" and not any(PASS_LINE_WIN in c for c in shown)
         assert str(workbench.query_one("#cautions").render())
+
+
+TWO_WHEELS = """
+[ruleset]
+title = "Two wheels of a hundred (invented demo)"
+start = "first"
+stake = 1
+
+[states.first]
+outcomes = [{ each = { k = [0, 99] }, to = "second", prob = "1/100", pay = "k" }]
+
+[states.second]
+outcomes = [{ each = { j = [0, 99] }, to = "done", prob = "1/100", pay = "100 * j - 5000" }]
+
+[states.done]
+result = "push"
+"""
+
+
+async def test_a_net_law_of_10000_values_lists_the_likeliest_1000_and_says_where_the_rest_is(tmp_path, capsys):
+    # nets k + 100 j - 5000 for k, j in 0..99: 10,000 distinct values, each 1/10000 (first principles)
+    path = tmp_path / "two-wheels.toml"
+    path.write_text(TWO_WHEELS)
+    code, out, _ = run_cli(capsys, "solve", path, "--json")
+    assert code == 0 and len(json.loads(out)["results"][0]["net_law"]) == 10_000
+    app = app_on(path, tmp_path)
+    async with app.run_test(size=(80, 24)) as pilot:
+        await settle(pilot)
+        await pilot.press("f3")
+        await pilot.pause()
+        workbench = app.workbench
+        grid = workbench.query_one("#law-table")
+        assert grid.row_count == 1_000
+        heading = str(workbench.query_one("#law-heading").render())
+        assert "1,000 likeliest of 10,000 values" in heading and "solve --json" in heading
+        # equal chances: the likeliest are the first in order of the net
+        assert grid.table.rows[0].label == "net -5000" and grid.table.rows[-1].label == "net -4001"
+        assert cell(grid.table, "net -5000", 0)[0] == "1/10000"

@@ -116,6 +116,28 @@ class TestSimulationView:
 
 
 @pytest.mark.parametrize("size", SIZES)
+class TestHorizonView:
+    def test_the_total_after_n_rounds_with_its_charts(self, snap_compare, scratch, size):
+        """F10: a column per N (1 to 10,000), the last one a float law (said in the law row), the
+        caution over many rounds above the table, the first column of figures whole at 80 columns."""
+        assert snap_compare(
+            workbench(scratch, "single-zero-wheel.toml"), terminal_size=size, run_before=pressing("f10")
+        )
+
+    def test_the_charts_against_n_on_a_log_scale(self, snap_compare, scratch, size):
+        """F10, Shift+Tab, PgDn: the chance ahead and the 90 % and 99 % return ranges closing in on the
+        expected return, against N at round powers of ten, the legend on a line of its own."""
+        scene = pressing("f10", "shift+tab", "pagedown")
+        assert snap_compare(workbench(scratch, "pass-line.toml"), terminal_size=size, run_before=scene)
+
+    def test_a_bad_list_keeps_the_last_good_figures(self, snap_compare, scratch, size):
+        """A list of rounds that does not read: the message beside the field, the figures of the
+        last list that read marked as the last good ones."""
+        scene = pressing("f10", "end", *", 1,0")
+        assert snap_compare(workbench(scratch, "single-zero-wheel.toml"), terminal_size=size, run_before=scene)
+
+
+@pytest.mark.parametrize("size", SIZES)
 class TestScreensOverTheWorkbench:
     def test_help(self, snap_compare, scratch, size):
         """F1: every key, read from the bindings."""

@@ -33,6 +33,16 @@ async def test_a_target_house_edge_shows_the_formula_and_applies_the_payout_with
         # (19 - 18 x)/37 = 3/200 at x = 3689/3600 (first principles)
         assert "house_edge(payout) = (19 - 18*payout)/37" in answer
         assert "3689/3600" in answer and "not advice" in str(dialog.query_one(".cautions-text").render())
+        # the cautions once, on their one line (F9 the full text), not again as a block in the answer
+        assert "Cautions:" not in answer and "not advice" not in answer
+        await pilot.press("f9")
+        await pilot.pause()
+        from oddsbench.tui.widgets.cautions import CautionsScreen
+
+        assert isinstance(app.screen, CautionsScreen)
+        await pilot.press("escape")
+        await pilot.pause()
+        assert app.screen is dialog
         choices = dialog.query_one("#tune-choices", OptionList)
         choices.focus()
         choices.highlighted = 0

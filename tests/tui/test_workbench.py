@@ -283,20 +283,20 @@ async def test_escape_cancels_a_long_solve_and_keeps_the_workbench_responsive(tm
     import asyncio
     import threading
 
-    from oddsbench.solve.linear import ExactSparseLU
+    from oddsbench.solve.linear import IntegerLU
     from oddsbench.tui import analysis
     from oddsbench.tui.analysis import SolveCancelled
 
     asked, released, ended, outcome = threading.Event(), threading.Event(), threading.Event(), []
     solve = analysis.solve_round_text
     solving = threading.Event()
-    exact_solve = ExactSparseLU.solve
+    exact_solve = IntegerLU.solve_transposed_scaled  # the exact round's first solve (expected visits)
 
     def noted_solve(self, rhs):
         solving.set()
         return exact_solve(self, rhs)
 
-    monkeypatch.setattr(ExactSparseLU, "solve", noted_solve)
+    monkeypatch.setattr(IntegerLU, "solve_transposed_scaled", noted_solve)
 
     def held_solve(ruleset, strategy, should_stop=None):
         """The workbench's round solve, held at the engine's first cancellation check (in the phase

@@ -22,6 +22,7 @@ from oddsbench.model.numbers import QQ
 from oddsbench.model.ruleset import Ruleset
 from oddsbench.solve.cancel import SolveCancelled, cancellable
 from oddsbench.solve.linear import ExactSparseLU, costs, factor_exact, identity_minus
+from oddsbench.solve.linear.integer_lu import IntegerLU
 from oddsbench.solve.round import solve_round
 from tests.unit.test_numerics_limits import walk
 
@@ -112,13 +113,13 @@ def test_solve_round_gives_no_figures_when_cancelled_in_its_exact_solves(every_r
     """A cancel in the exact moments' solves is a cancel, not a reason for decimals only: nothing is returned."""
     chain = build_round_chain(long_walk())
     solving = []
-    real_solve = ExactSparseLU.solve
+    real_solve = IntegerLU.solve_transposed_scaled  # the round's first solve: expected visits
 
     def noted_solve(self, rhs):
         solving.append(True)
         return real_solve(self, rhs)
 
-    monkeypatch.setattr(ExactSparseLU, "solve", noted_solve)
+    monkeypatch.setattr(IntegerLU, "solve_transposed_scaled", noted_solve)
     figures = solve_round(chain)  # uncancelled, the exact walk matches Feller's formula
     r = (1 - UP) / UP
     goal = STATES + 1

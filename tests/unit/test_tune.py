@@ -170,3 +170,21 @@ def test_a_count_is_bisected_over_whole_values():
     assert [(b.low, b.high) for b in result.brackets] == [(QQ(22), QQ(23))]
     assert result.brackets[0].figure_low.exact == 1 - 11 * QQ(9, 10) ** 22
     assert any("whole numbers" in note for note in result.notes)
+
+
+def test_the_search_over_whole_values_says_it_is_exact_not_to_a_tolerance():
+    # Issue 13 round 3: the text said "to 1e-9" for a count, whose brackets are neighbouring whole
+    # values found exactly; a payout through floor() is bisected to the tolerance (first principles:
+    # floor(payout) in the wheel's pay is piecewise, and payout takes any value).
+    from oddsbench.report.tune_report import tune_json, tune_text
+
+    counted = tune(game_from_text(STREAK), "rungs")
+    assert counted.whole
+    shown = " ".join(tune_text(counted).split())
+    assert "over whole values of rungs" in shown and "no tolerance applies" in shown
+    assert "to 1/1000000000" not in shown
+    assert tune_json(counted)["whole_values"] is True
+    floored = tune(game_from_text(WHEEL.read_text().replace('pay = "payout"', 'pay = "floor(payout)"')), "payout")
+    assert floored.kind == "piecewise" and not floored.whole
+    assert "Exact bisection to 1/1000000000" in " ".join(tune_text(floored).split())
+    assert tune_json(floored)["whole_values"] is False

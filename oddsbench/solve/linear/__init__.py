@@ -20,7 +20,8 @@ Float: ``factor_float(system, order=...)``.
   ``Structure.band_fits``, else COLAMD), ``"natural"`` (the exact engine's order, for its fill).
 
 Exact: ``factor_exact(rows, method=...)`` over dict rows of rationals: ``"elimination"``
-(``ExactSparseLU``, no pivoting: I - Q of an absorbing chain), ``"dense"`` (sympy
+(``ExactSparseLU``, no pivoting: I - Q of an absorbing chain), ``"integer"`` (``IntegerLU``: the
+same elimination in whole numbers, solves as numerators over one denominator), ``"dense"`` (sympy
 ``DomainMatrix`` over QQ with pivoting, for small general systems), ``"fraction-free"`` (sympy's
 sparse ``solve_den`` over ZZ, an independent method for cross-checks).
 
@@ -47,6 +48,7 @@ from oddsbench.solve.linear.exact import (
     Row,
     identity_minus,
 )
+from oddsbench.solve.linear.integer_lu import IntegerLU, ScaledVector
 from oddsbench.solve.linear.skip_free import SkipFreeFactors, SkipFreeWalk
 from oddsbench.solve.linear.sparse import ORDERS, FloatSingular, SuperLUFactors, sparse_from_rows
 from oddsbench.solve.linear.structure import (
@@ -70,7 +72,9 @@ __all__ = [
     "ExactTooLarge",
     "FloatSingular",
     "FractionFreeSolver",
+    "IntegerLU",
     "Row",
+    "ScaledVector",
     "SkipFreeFactors",
     "SkipFreeWalk",
     "Structure",
@@ -150,13 +154,15 @@ def factor_exact(
     method: str = "elimination",
     should_stop: Callable[[], bool] | None = None,
     max_bits: int | None = None,
-) -> ExactSparseLU | DenseExactSolver | FractionFreeSolver:
+) -> ExactSparseLU | IntegerLU | DenseExactSolver | FractionFreeSolver:
     """Factor a square system of exact rationals given as dict rows (see the module text).
 
     ``should_stop`` and ``max_bits`` bound the elimination (``SolveCancelled``, ``ExactTooLarge``).
     """
     if method == "elimination":
         return ExactSparseLU(rows, should_stop, max_bits)
+    if method == "integer":
+        return IntegerLU(rows, should_stop, max_bits)
     if method == "dense":
         return DenseExactSolver(rows)
     if method == "fraction-free":

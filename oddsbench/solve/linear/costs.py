@@ -37,6 +37,18 @@ class ExactTooLarge(OddsbenchError):
     """The exact factors or solves would outgrow the size or time limit; callers fall back to decimals only."""
 
 
+def factor_bits(stored: int, added: int, max_bits: int | None, row: int, size: int) -> int:
+    """The exact factors' estimated size (numbers stored times the pivot's bits) after one more row
+    of ``added`` bits: ``ExactTooLarge`` past ``max_bits`` (None: no limit), so elimination stops early."""
+    stored += added
+    if max_bits is not None and stored > max_bits:
+        raise ExactTooLarge(
+            f"the exact factors reach about {stored:,} bits at state {row + 1:,} of {size:,}, "
+            f"over the exact size limit of {max_bits:,} bits (raise it with --exact-bits)"
+        )
+    return stored
+
+
 def bits(value: Rational) -> int:
     return QQ.numer(value).bit_length() + QQ.denom(value).bit_length()
 

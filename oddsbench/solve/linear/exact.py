@@ -5,6 +5,9 @@
   each of its leading principal blocks: elimination in the given order needs no pivoting. Fill-in
   stays inside a chain's band (a bankroll walk stays tridiagonal, a 35-to-1 bet keeps a band of
   36), which is what makes exact solves of thousands of states take a fraction of a second.
+* ``integer``: ``IntegerLU`` (``linear/integer_lu.py``), the same elimination in whole numbers
+  (Bareiss): nothing reduced by a gcd until a value is asked for; solves return whole numerators
+  over one denominator, for callers that need only a few figures from long solution vectors.
 * ``dense``: sympy's ``DomainMatrix`` over QQ (python-flint's ``fmpq_mat`` underneath), with
   pivoting: for small general systems that are not I - Q (a root fit, a stationary law).
 * ``fraction-free``: sympy's sparse fraction-free ``solve_den`` over ZZ after clearing
@@ -23,14 +26,14 @@ from oddsbench.solve.linear.costs import (
     POLL_OPERATIONS,
     POLL_ROWS,
     ExactClock,
-    ExactTooLarge,
+    factor_bits,
     require_exact_seconds,
     solve_seconds,
 )
 from oddsbench.solve.linear.costs import bits as _bits
 
 Row = dict[int, Rational]
-EXACT_METHODS = ("elimination", "dense", "fraction-free")
+EXACT_METHODS = ("elimination", "integer", "dense", "fraction-free")
 
 
 class ExactSparseLU:
@@ -85,12 +88,8 @@ class ExactSparseLU:
                 raise OddsbenchError("the first-step system is singular: some state cannot reach an end")
             kept = {j: v for j, v in row.items() if v != 0}
             if max_bits is not None:
-                stored_bits += (len(kept) + len(multipliers) + 1) * _bits(pivot)
-                if stored_bits > max_bits:
-                    raise ExactTooLarge(
-                        f"the exact factors reach about {stored_bits:,} bits at state {i + 1:,} of {size:,}, "
-                        f"over the exact size limit of {max_bits:,} bits (raise it with --exact-bits)"
-                    )
+                added = (len(kept) + len(multipliers) + 1) * _bits(pivot)
+                stored_bits = factor_bits(stored_bits, added, max_bits, i, size)
             upper_maps.append(kept)
             self.lower.append(multipliers)
             self.upper.append(sorted(kept.items()))

@@ -9,7 +9,7 @@ from textual.containers import VerticalScroll
 from textual.screen import ModalScreen
 from textual.widgets import Static
 
-from oddsbench.report.cautions import CAUTIONS
+from oddsbench.report.cautions import CAUTIONS, HORIZON_CAUTIONS
 
 FULL_TEXT_KEY = "F9"
 
@@ -41,6 +41,8 @@ class CautionsScreen(ModalScreen[None]):
         with VerticalScroll(id="cautions-full", classes="dialog"):
             yield Static(Text("Cautions", style="bold"), classes="dialog-question")
             yield Static("\n".join(f"• {line}" for line in CAUTIONS), classes="cautions-text", markup=False)
+            yield Static(Text("Over many rounds (the Horizon view, F10)", style="bold"), classes="dialog-question")
+            yield Static("\n".join(f"• {line}" for line in HORIZON_CAUTIONS), classes="cautions-text", markup=False)
             yield Static("Esc, Enter or q closes.", classes="dialog-detail")
 
     def on_mount(self) -> None:

@@ -106,7 +106,10 @@ class SessionsPanel(VerticalScroll):
                 xs, ys = series.bankrolls, series.goal_chance
             else:
                 xs, ys = series.rounds, series.still_playing
-            plt.plot(list(xs), list(ys), label=series.plan, marker="braille")
+            # one legend, on the goal chart (its top left stays clear: chances there start low); the
+            # length chart's curves start at 1 in its top left, where a legend would hide them
+            label = series.plan if axis == "bankroll" else None
+            plt.plot(list(xs), list(ys), label=label, marker="braille")
         ticks = result.bankroll_ticks if axis == "bankroll" else result.round_ticks
         if ticks:
             plt.xticks([value for value, _ in ticks], [label for _, label in ticks])
@@ -119,6 +122,6 @@ class SessionsPanel(VerticalScroll):
                 plt.vline(result.bankroll, "white")
             plt.xlabel(f"bankroll (the line: yours, {result.bankroll_text})")
         else:
-            plt.title("chance still playing after n rounds")
+            plt.title("chance still playing after n rounds (plans coloured as on the left)")
             plt.xlabel("rounds")
         widget.refresh()

@@ -18,7 +18,7 @@ from oddsbench.tui.analysis import Reading, RoundFailure, SolveCancelled
 from oddsbench.tui.setting_ways import problem_line
 
 READ, ROUND, STRATEGIES, SESSIONS = "read", "round", "strategies", "sessions"
-SIMULATION, REPORT = "simulation", "report"
+SIMULATION, REPORT, HORIZON = "simulation", "report", "horizon"
 # Jobs in one group replace each other: a new text's reading cancels the solve of the old text.
 GROUPS = {
     READ: "analysis",
@@ -27,6 +27,7 @@ GROUPS = {
     SESSIONS: "sessions",
     SIMULATION: "simulation",
     REPORT: "report",
+    HORIZON: "horizon",
 }
 SOLVE_FAILURES = (ArithmeticError, ValueError, MemoryError)  # numbers out of reach, not a bug
 FAILED = {
@@ -36,6 +37,7 @@ FAILED = {
     SESSIONS: "the sessions could not be solved",
     SIMULATION: "the simulation could not run",
     REPORT: "the report could not be written",
+    HORIZON: "the figures after N rounds could not be found",
 }
 
 
@@ -84,6 +86,13 @@ def simulate(ruleset, strategy: str | None, ask, progress):
     return _shown(SIMULATION, SOLVE_FAILURES, simulate_text, ruleset, strategy, ask, progress=progress)
 
 
+def horizon(ruleset, strategy: str | None, rounds: tuple[int, ...]):
+    """The total net after each number of rounds, through the core."""
+    from oddsbench.tui.horizons import horizon_text
+
+    return _shown(HORIZON, SOLVE_FAILURES, horizon_text, ruleset, strategy, rounds)
+
+
 def write_report(ruleset, text: str, plans, path, force: bool):
     from oddsbench.tui.reporting import write_report as write
 
@@ -102,7 +111,7 @@ def _shown(kind: str, expected: tuple[type[BaseException], ...], solve, *args, *
 
 
 class Comparison:
-    """A view solved in the background (strategies, sessions): the inputs last asked for, whether
+    """A view solved in the background (strategies, sessions, horizon): the inputs last asked for, whether
     their job runs, and the last result. A job's end counts only for the inputs last asked for."""
 
     def __init__(self) -> None:

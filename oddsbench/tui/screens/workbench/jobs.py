@@ -14,9 +14,10 @@ from functools import partial
 from textual.widgets import ContentSwitcher
 from textual.worker import Worker, WorkerState
 
-from oddsbench.tui.analysis import Reading, RoundFailure, RoundResult
+from oddsbench.tui.analysis import Reading, RoundFailure, RoundResult, strategy_to_play
 from oddsbench.tui.screens.workbench import background
 from oddsbench.tui.screens.workbench.background import (
+    HORIZON,
     READ,
     REPORT,
     ROUND,
@@ -66,6 +67,7 @@ class Jobs:
             SESSIONS: self._sessions_done,
             SIMULATION: self._simulated,
             REPORT: self._report_written,
+            HORIZON: self._horizon_done,
         }
         ended[job.kind](job.key, result)
 
@@ -85,9 +87,7 @@ class Jobs:
         ruleset = reading.ruleset
         if ruleset is None:
             return
-        strategy = self.strategy
-        if ruleset.has_decisions and strategy not in {s.name for s in ruleset.strategies}:
-            strategy = ruleset.strategies[0].name if ruleset.strategies else None
+        strategy = strategy_to_play(ruleset, self.strategy)
         self._set_solving(generation, True)
         self._start(Job(ROUND, generation), background.solve_round, ruleset, strategy)
 
@@ -118,8 +118,11 @@ class Jobs:
             self.compare_strategies()
         elif self.query_one("#views", ContentSwitcher).current == "sessions":
             self.compare_sessions()
+        elif self.query_one("#views", ContentSwitcher).current == "horizon":
+            self.solve_horizon()
         if ruleset is None:
             self._show_sessions()
+            self._show_horizon()
 
     def _set_solving(self, generation: int, solving: bool) -> None:
         if generation != self.generation:

@@ -1,5 +1,5 @@
 """Where everything sits on the workbench: the view switcher (edit, round, strategies, sessions,
-simulation, source), the detail pane under the views of figures, and the summary, the one-line
+simulation, horizon, source), the detail pane under the views of figures, and the summary, the one-line
 cautions and the keys that stay below every view."""
 
 from __future__ import annotations
@@ -9,12 +9,14 @@ from textual.containers import Horizontal, Vertical
 from textual.widgets import ContentSwitcher, Footer, ProgressBar, Static
 
 from oddsbench.tui import analysis
+from oddsbench.tui.horizons import ROUNDS_TEXT
 from oddsbench.tui.widgets.cautions import CautionsLine
 from oddsbench.tui.widgets.deck_editor import DeckEditor
 from oddsbench.tui.widgets.detail import DetailPane
 from oddsbench.tui.widgets.family_editor import FamilyEditor
 from oddsbench.tui.widgets.figure_grid import FigureGrid
 from oddsbench.tui.widgets.figures import SummaryLine
+from oddsbench.tui.widgets.horizon import HorizonPanel
 from oddsbench.tui.widgets.navigator import Navigator
 from oddsbench.tui.widgets.problems import ProblemsPanel
 from oddsbench.tui.widgets.sessions import SessionsPanel
@@ -26,7 +28,7 @@ from oddsbench.tui.widgets.strategies import StrategiesPanel
 from oddsbench.tui.widgets.strategy_editor import StrategyEditor
 from oddsbench.tui.widgets.topbar import TopBar
 
-FIGURE_VIEWS = ("round", "strategies", "sessions", "simulation")  # the views with a detail pane
+FIGURE_VIEWS = ("round", "strategies", "sessions", "simulation", "horizon")  # the views with a detail pane
 
 
 def workbench_layout() -> ComposeResult:
@@ -64,6 +66,8 @@ def workbench_layout() -> ComposeResult:
             yield SessionsPanel(", ".join(analysis.DEFAULT_PLANS), id="sessions-panel")
         with Vertical(id="simulation"):
             yield SimulationPanel(id="simulation-panel")
+        with Vertical(id="horizon"):
+            yield HorizonPanel(ROUNDS_TEXT, id="horizon-panel")
         yield SourceView(id="source")
     yield DetailPane(id="detail")
     yield SummaryLine("", id="summary")

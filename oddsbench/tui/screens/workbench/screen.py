@@ -21,6 +21,7 @@ from oddsbench.model.visible import visible
 from oddsbench.tui.editing import EditSession
 from oddsbench.tui.screens.workbench.edit_view import EditView
 from oddsbench.tui.screens.workbench.figure_views import FigureViews
+from oddsbench.tui.screens.workbench.horizon_view import HorizonViews
 from oddsbench.tui.screens.workbench.jobs import Jobs
 from oddsbench.tui.screens.workbench.layout import FIGURE_VIEWS, workbench_layout
 from oddsbench.tui.screens.workbench.recovery import RecoveryCopy
@@ -35,7 +36,7 @@ TALL = 36  # rows from which the detail pane has room for more lines
 ROOMY = 100  # columns from which the footer spaces its keys and names Ctrl+P (F1 lists it anyway)
 
 
-class WorkbenchScreen(EditView, FigureViews, Jobs, Saving, Screen):
+class WorkbenchScreen(EditView, FigureViews, HorizonViews, Jobs, Saving, Screen):
     """One open ruleset: editors, problems, figures and cautions."""
 
     AUTO_FOCUS = None  # the focus follows the view shown (on_screen_resume), not the first focusable widget
@@ -49,6 +50,7 @@ class WorkbenchScreen(EditView, FigureViews, Jobs, Saving, Screen):
         Binding("f6", "view('source')", "Source view", show=False, priority=True),
         Binding("f7", "view('simulation')", "Simulation view", show=False, priority=True),
         Binding("f8", "write_report", "Write a report (md, csv, json)", show=False, priority=True),
+        Binding("f10", "view('horizon')", "Horizon view", show=False, priority=True),
         Binding("ctrl+s", "save", "Save", priority=True),
         Binding("f12", "save_as", "Save as", show=False),
         Binding("ctrl+z", "undo", "Undo", show=False, priority=True),
@@ -57,7 +59,7 @@ class WorkbenchScreen(EditView, FigureViews, Jobs, Saving, Screen):
         Binding("ctrl+n", "new", "New ruleset from the template", show=False),
         Binding("escape", "escape", "Cancel a solve or a run; back to the table or list", show=False),
         Binding("ctrl+r", "resolve", "Solve again (in Simulation: run)", show=False),
-        Binding("s", "next_strategy", "Next strategy (round, strategies)", show=False),
+        Binding("s", "next_strategy", "Next strategy (round, strategies, horizon)", show=False),
         Binding("g", "next_goal", "Next goal of the best play (strategies)", show=False),
     ]
 
@@ -70,6 +72,7 @@ class WorkbenchScreen(EditView, FigureViews, Jobs, Saving, Screen):
         self.force_fields = False  # set while undo/redo/source edits put document values into fields
         self.init_jobs()
         self.init_figure_views()
+        self.init_horizon_view()
         self.recovery = RecoveryCopy()
 
     # ----- layout -----
@@ -180,6 +183,8 @@ class WorkbenchScreen(EditView, FigureViews, Jobs, Saving, Screen):
             self.compare_strategies()
         elif view == "sessions":
             self.compare_sessions()
+        elif view == "horizon":
+            self.solve_horizon()
         if view in FIGURE_VIEWS:
             self._announce_first_figure()
         self._update_topbar()
@@ -192,6 +197,7 @@ class WorkbenchScreen(EditView, FigureViews, Jobs, Saving, Screen):
             "strategies": "#strategies-table",
             "sessions": "#plans-field",
             "simulation": "#sim-trials",
+            "horizon": "#horizon-rounds",
         }.get(view)
         wanted = self.query_one(target) if target else self.query_one(Navigator)
         chain = self.focus_chain
@@ -237,6 +243,7 @@ class WorkbenchScreen(EditView, FigureViews, Jobs, Saving, Screen):
             "strategies": self.strategy_comparison.busy,
             "sessions": self.session_comparison.busy,
             "simulation": self.simulating,
+            "horizon": self.horizon_comparison.busy,
             "report": self.writing_report,
         }
         if any(busy.values()):
@@ -245,6 +252,8 @@ class WorkbenchScreen(EditView, FigureViews, Jobs, Saving, Screen):
             return
         if self.current_view == "edit":
             self.escape_in_edit()
+        elif self.current_view == "horizon":
+            self.escape_in_horizon()
 
     def action_open(self) -> None:
         self.app.action_open()
