@@ -206,10 +206,13 @@ def file_or_round(args: argparse.Namespace, command: str):
     return inline_round(args.round, "--round") if args.round is not None else load_game(args.file)
 
 
+OPTION_NAMES = {"plans": "--plan"}  # settings whose option is not ``--`` and the key
+
+
 def option_of(setting: str) -> str:
     """The command line's way to change a setting the core names (``model/errors.py``, ``SettingProblem``):
-    its option, ``--`` and the key (``min_bet`` -> ``--min-bet``)."""
-    return "--" + setting.replace("_", "-")
+    its option, ``--`` and the key (``min_bet`` -> ``--min-bet``) unless ``OPTION_NAMES`` says otherwise."""
+    return OPTION_NAMES.get(setting) or "--" + setting.replace("_", "-")
 
 
 def error_line(error: BaseException) -> str:

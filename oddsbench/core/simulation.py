@@ -12,6 +12,7 @@ from dataclasses import dataclass
 from oddsbench.core.game import Game
 from oddsbench.core.settings import DEFAULTS, Settings
 from oddsbench.core.work import NO_WORK, Work, budgeted
+from oddsbench.model import budget as budgets
 from oddsbench.model.defaults import DEFAULT_PLANS, DEFAULT_ROUND_TRIALS, DEFAULT_SESSION_TRIALS
 from oddsbench.model.errors import SettingProblem
 from oddsbench.simulate.checks import Check
@@ -103,7 +104,8 @@ def _sessions(game: Game, chain, seed: int, play: str | None, settings: Settings
             "never come (the exact figures of play with no goal need no simulation: ask for the session)",
             "goal",
         )
-    distribution = round_distribution(chain)
+    with budgets.exact_part(1):  # the round has no decimal stand-in: a part of its own (core/session.py)
+        distribution = round_distribution(chain)
     player = RoundPlayer.of(chain)
     trials = settings.trials or DEFAULT_SESSION_TRIALS
     limit = settings.round_exact_limit
@@ -113,7 +115,8 @@ def _sessions(game: Game, chain, seed: int, play: str | None, settings: Settings
         work.check()
         played = for_plan(session, plan)
         planned = session_chain(distribution, played, plan, limit)
-        figures = analyse_session(distribution, played, plan, limit, should_stop=work.should_stop, planned=planned)
+        with budgets.exact_part(len(plans)):  # each plan its own piece of exact arithmetic's time
+            figures = analyse_session(distribution, played, plan, limit, should_stop=work.should_stop, planned=planned)
 
         def progress(count: int, total: int, done: int = done) -> None:  # every plan's sessions, in turn
             work.done(done * total + count, len(plans) * total)

@@ -9,15 +9,27 @@ from __future__ import annotations
 
 import time
 from pathlib import Path
+from typing import TYPE_CHECKING
 
 from oddsbench.core.work import NO_WORK, Work, budgeted
 from oddsbench.model.errors import OddsbenchError, RulesetError
-from oddsbench.model.numbers import parse_fraction, text
+from oddsbench.model.numbers import QQ, parse_fraction, text
 from oddsbench.sweep.points import Point, PointResult, PointTask, grid_points
 from oddsbench.sweep.runners import SweepResult
 from oddsbench.sweep.spec import SweepSpec
 
-QUICK_SECONDS = 2.0  # a sweep the first points show to take less runs in this process
+if TYPE_CHECKING:
+    from oddsbench.core.session import PlanResult
+    from oddsbench.strategy.no_goal_play import NoGoalFigures
+
+QUICK_SECONDS = 2.0
+NO_GOAL_ROWS = (  # the session figures of play with no goal, as ``_no_goal_rows`` gives them
+    "ruin_probability",
+    "ruin_probability_lower",
+    "ruin_probability_upper",
+    "expected_result_per_round",
+    "expected_rounds_to_ruin",
+)  # a sweep the first points show to take less runs in this process
 
 
 def read_spec(path: str | Path) -> SweepSpec:
@@ -47,9 +59,54 @@ def solve_point(ruleset_text: str, source: str, exact_limit: int, point: Point) 
     ]
     notes = figures.notes
     if session is not None:
-        rows += [(f"session.{name}", _text(f.exact), f.decimal) for name, f in session.figures.items()]
-        notes += tuple(f"session: {note}" for note in session.notes)
+        session_rows, session_notes = _session_rows(session)
+        rows += [(f"session.{name}", exact, decimal) for name, exact, decimal in session_rows]
+        notes += tuple(f"session: {note}" for note in session_notes)
     return PointResult(point.index, tuple(rows), notes)
+
+
+def _session_rows(plan: PlanResult) -> tuple[list[tuple[str, str | None, float | None]], tuple[str, ...]]:
+    """A plan's session figures as rows: the bounded session's figures, or with no goal the ruin figures."""
+    if plan.bounded is not None:
+        return [(name, _text(f.exact), f.decimal) for name, f in plan.bounded.figures.items()], plan.bounded.notes
+    return _no_goal_rows(plan.no_goal)
+
+
+def _no_goal_rows(figures: NoGoalFigures) -> tuple[list[tuple[str, str | None, float | None]], tuple[str, ...]]:
+    """Play with no goal: the ruin chance (exact where it is rational) between proved exact bounds
+    (equal to it when it is exact), the expected result per round and, when finite, the expected
+    rounds to ruin; a ruin chance that is not rational is named in a note by its exact form."""
+    from oddsbench.core.tune_scan import decimal_rational, last_digit_unit
+    from oddsbench.model.numbers import to_float
+
+    ruin, grid = figures.ruin, figures.walk.grid
+    notes = list(ruin.notes)
+    if ruin.ruin_exact is not None:
+        low = high = ruin.ruin_exact
+    else:
+        # the digits are correct to the last one shown, and the ball's radius is about its own
+        # midpoint: the truth lies within one unit of the last digit plus the radius
+        middle, radius = decimal_rational(ruin.ruin.text), decimal_rational(ruin.ruin.radius)
+        slack = radius + last_digit_unit(ruin.ruin.text)
+        low, high = max(middle - slack, QQ(0)), min(middle + slack, QQ(1))
+        notes.append(f"ruin chance {ruin.ruin_exact_text} ({ruin.error_bound})")
+    chance = ruin.ruin.value if ruin.ruin.value != 0 or low == 0 else None  # below the float range: no 0.0
+    if chance is None:
+        notes.append(f"ruin chance about 10^{ruin.ruin.log10:.1f}, below the float range")
+    per_round = ruin.mean * grid
+    rows = [
+        ("ruin_probability", _text(ruin.ruin_exact), chance),
+        ("ruin_probability_lower", text(low), to_float(low) if chance is not None else None),
+        ("ruin_probability_upper", text(high), to_float(high) if chance is not None else None),
+        ("expected_result_per_round", text(per_round), to_float(per_round)),
+    ]
+    rounds = ruin.rounds_to_ruin
+    if rounds is not None and rounds.kind == "finite":
+        decimal = rounds.decimal.value if rounds.decimal is not None else None
+        rows.append(("expected_rounds_to_ruin", _text(rounds.exact), decimal))
+    elif rounds is not None:
+        notes.append(f"expected rounds to ruin: {rounds.kind} ({rounds.method})")
+    return rows, tuple(notes)
 
 
 def _point_figures(ruleset_text: str, source: str, exact_limit: int, point: Point):
@@ -72,7 +129,7 @@ def _point_figures(ruleset_text: str, source: str, exact_limit: int, point: Poin
     given = {name: (int(value) if name == "max_rounds" else value) for name, value in point.session}
     request = session_request(**given, plans=(point.plan,))
     solved = sessions(game, replace(settings, session=request))
-    return rounds.figures[0], solved.plans[0].bounded
+    return rounds.figures[0], solved.plans[0]
 
 
 def _text(value) -> str | None:
@@ -109,6 +166,8 @@ def sweep(spec: SweepSpec, workers: int | None = None, cluster: str | None = Non
     if trial.error is not None:
         raise OddsbenchError(f"{spec.source}: point 0 ({point_settings(first)}): {trial.error}")
     known = [name for name, _, _ in trial.figures]
+    if any(name.startswith("session.") for name in known):  # a plan with no goal may lack a finite figure at point 0
+        known += [f"session.{name}" for name in NO_GOAL_ROWS if f"session.{name}" not in known]
     unknown = [name for name in spec.figures if name not in known]
     if unknown:
         raise OddsbenchError(

@@ -43,15 +43,27 @@ class Bracket:
         return self.low == self.high
 
 
+DECIMAL = r"\s*(-?)(\d+)(?:\.(\d+))?(?:e([+-]?\d+))?\s*"
+
+
 def decimal_rational(spelled: str) -> Rational:
     """The exact rational of a decimal in scientific or plain notation (``-1.25e-3``), from the digits."""
-    match = re.fullmatch(r"\s*(-?)(\d+)(?:\.(\d+))?(?:e([+-]?\d+))?\s*", spelled)
+    match = re.fullmatch(DECIMAL, spelled)
     if match is None:
         raise ValueError(f"not a decimal: {spelled!r}")
     sign, whole, fraction, exponent = match.groups()
     fraction = fraction or ""
     value = QQ(int(whole + fraction), 10 ** len(fraction)) * QQ(10) ** int(exponent or 0)
     return -value if sign else value
+
+
+def last_digit_unit(spelled: str) -> Rational:
+    """One unit of the last digit of a decimal (``1.25e-3``: 10^-5), exactly."""
+    match = re.fullmatch(DECIMAL, spelled)
+    if match is None:
+        raise ValueError(f"not a decimal: {spelled!r}")
+    _sign, _whole, fraction, exponent = match.groups()
+    return QQ(10) ** (int(exponent or 0) - len(fraction or ""))
 
 
 def scan(

@@ -15,7 +15,7 @@ from dataclasses import dataclass, field
 import numpy as np
 
 from oddsbench.chain.round_chain import RoundChain
-from oddsbench.model.errors import OddsbenchError
+from oddsbench.model.errors import OddsbenchError, SettingProblem
 from oddsbench.model.numbers import to_float
 from oddsbench.simulate.alias_table import build_alias_tables
 from oddsbench.simulate.moments import CrossMoment, Moments
@@ -27,8 +27,9 @@ MAX_TRIALS = 10**10
 STEP_BUDGET = 1_000_000_000  # trial-steps in one run: about a minute or two of sampling
 
 
-class StepBudgetExceeded(OddsbenchError):
-    """A simulation whose rounds are so long that it would run for many minutes."""
+class StepBudgetExceeded(SettingProblem):
+    """A simulation whose rounds are so long that it would run for many minutes: fewer trials or a
+    lower cap on each round's steps would end it (each front end names its way to change them)."""
 
 
 class SimulationCancelled(SolveCancelled):
@@ -171,7 +172,9 @@ class RoundPlayer:
             if taken > budget:
                 raise StepBudgetExceeded(
                     f"simulation stopped: over {STEP_BUDGET:,} simulated steps in all (rounds here last "
-                    f"{step:,}+ steps); use fewer --trials or a lower --max-steps"
+                    f"{step:,}+ steps); play fewer trials or cap each round at fewer steps",
+                    "trials",
+                    "max_steps",
                 )
             ended = state >= n
             if ended.any():

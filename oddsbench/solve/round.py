@@ -30,7 +30,7 @@ from oddsbench.solve.linear import (
     identity_minus,
     sparse_from_rows,
 )
-from oddsbench.solve.linear.integer_lu import ScaledVector, grouped_products
+from oddsbench.solve.linear.integer_lu import ScaledVector, common_denominator, grouped_products
 from oddsbench.solve.return_table import CHANCE_FIGURES, ReturnTable, net_sd, return_table
 
 DEFAULT_EXACT_LIMIT = ROUND_EXACT_LIMIT
@@ -104,9 +104,10 @@ def solve_round(
     False skips the net law and the hit, push and loss chances: a caller that needs only moments)."""
     notes: list[str] = []
     exact = None
+    system = identity_minus(chain.q_rows())  # I - Q, exact: both engines start from it
     if chain.transient_count <= exact_limit:
         try:
-            exact = _exact_moments(chain, should_stop, exact_bits)
+            exact = _exact_moments(chain, system, should_stop, exact_bits)
         except ExactTooLarge as error:
             notes.append(f"exact arithmetic stopped: {error}; decimals are from the float engine")
     else:
@@ -116,7 +117,7 @@ def solve_round(
         )
     try:
         with np.errstate(all="ignore"):  # inf and nan are caught and named by checked_figure
-            decimal = _decimal_moments(chain)
+            decimal = _decimal_moments(chain, system)
     except FloatSingular:
         if exact is None:
             raise OddsbenchError(
@@ -219,7 +220,10 @@ def _floats_of(exact: _Moments) -> _Moments:
 
 
 def _exact_moments(
-    chain: RoundChain, should_stop: Callable[[], bool] | None, max_bits: int | None = DEFAULT_EXACT_BITS
+    chain: RoundChain,
+    system: list,
+    should_stop: Callable[[], bool] | None,
+    max_bits: int | None = DEFAULT_EXACT_BITS,
 ) -> _Moments | None:
     """One exact factorisation in whole numbers (``linear/integer_lu.py``), three solves: the expected
     visits from the start (a transposed solve) give every end chance and every figure needed only at
@@ -229,7 +233,7 @@ def _exact_moments(
     n = chain.transient_count
     if n == 0:
         return _Moments([QQ(1)], QQ(0), QQ(0), QQ(0), QQ(0), QQ(0))
-    lu = factor_exact(identity_minus(chain.q_rows()), "integer", should_stop, max_bits)
+    lu = factor_exact(system, "integer", should_stop, max_bits)
     lu.expect_solves(EXACT_SOLVES)
     start = [QQ(0)] * n
     start[0] = QQ(1)
@@ -238,17 +242,25 @@ def _exact_moments(
     net = lu.solve_scaled(_one_step(chain, lambda e: e.pay))
     steps = lu.solve_scaled([QQ(1)] * n)
     # E[net^2] = sum over steps of visits x prob x (pay^2 + 2 pay net(after)); E[T^2] = visits . (2 T - 1)
-    inside = [e for e in chain.edges if e.target < n]
-    carried = grouped_products(
-        [(e.prob * e.pay, visits.numerators[e.source] * net.numerators[e.target]) for e in inside]
-    )
-    net_second = visits.weighted(_one_step(chain, lambda e: e.pay * e.pay)) + 2 * carried / (
-        visits.denominator * net.denominator
-    )
+    net_second = visits.weighted(_one_step(chain, lambda e: e.pay * e.pay)) + 2 * _carried(chain, visits, net)
     products = sum((v * t for v, t in zip(visits.numerators, steps.numerators)), fmpz(0))
     steps_second = 2 * fmpq(products, visits.denominator * steps.denominator) - visits.total()
     extra = visits.weighted(_one_step(chain, lambda e: e.stake))
     return _Moments(end, net.value(0), extra, net_second, steps.value(0), steps_second, visits=visits)
+
+
+def _carried(chain: RoundChain, visits: ScaledVector, net: ScaledVector) -> Rational:
+    """sum over steps i -> j inside the round of visits(i) x prob x pay x net(j): each step's weight
+    (prob x pay) made whole by one common denominator, summed per source state (small times large),
+    then one product of large whole numbers per state."""
+    n = chain.transient_count
+    inside = [(e, e.prob * e.pay) for e in chain.edges if e.target < n and e.pay != 0]
+    common = common_denominator([weight for _, weight in inside])
+    per_source = [fmpz(0)] * n
+    for edge, weight in inside:
+        per_source[edge.source] += (weight * common).p * net.numerators[edge.target]
+    total = sum((v * s for v, s in zip(visits.numerators, per_source) if s != 0), fmpz(0))
+    return fmpq(total, common * visits.denominator * net.denominator)
 
 
 def _end_chances_exact(chain: RoundChain, visits: ScaledVector) -> list[Rational]:
@@ -263,7 +275,7 @@ def _end_chances_exact(chain: RoundChain, visits: ScaledVector) -> list[Rational
     return [grouped_products(terms) / visits.denominator for terms in into]
 
 
-def _decimal_moments(chain: RoundChain) -> _Moments:
+def _decimal_moments(chain: RoundChain, system_exact: list | None = None) -> _Moments:
     """Float moments. I - Q is built from the exact I - Q (each diagonal is the exact chance of leaving
     the state, rounded once, as Grassmann, Taksar and Heyman take it from what leaves a state, so a stay
     chance of 1 - 3e-16 does not cancel to nothing), and the variances are solved for directly (centred
@@ -271,7 +283,9 @@ def _decimal_moments(chain: RoundChain) -> _Moments:
     n = chain.transient_count
     if n == 0:
         return _Moments([1.0], 0.0, 0.0, 0.0, 0.0, 0.0, net_variance=0.0, steps_variance=0.0)
-    system = [{j: to_float(v) for j, v in row.items()} for row in identity_minus(chain.q_rows())]
+    if system_exact is None:
+        system_exact = identity_minus(chain.q_rows())
+    system = [{j: to_float(v) for j, v in row.items()} for row in system_exact]
     lu = factor_float(sparse_from_rows(system, n))
     source = np.fromiter((e.source for e in chain.edges), dtype=np.int64)
     target = np.fromiter((e.target for e in chain.edges), dtype=np.int64)

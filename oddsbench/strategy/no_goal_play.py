@@ -27,7 +27,7 @@ from oddsbench.chain.session_rules import (
     whole_units,
 )
 from oddsbench.model import budget
-from oddsbench.model.errors import OddsbenchError
+from oddsbench.model.errors import OddsbenchError, SettingProblem
 from oddsbench.model.numbers import QQ, Rational, denominator, numerator, text, to_int
 from oddsbench.solve.ruin import DEFAULT_DIGITS, Law, NoGoalRuin, solve_cut_bet_ruin, solve_progression_ruin
 from oddsbench.strategy.plans import Plan
@@ -291,8 +291,9 @@ def solve_no_goal(
     elif plan.kind == "timid":  # always the table minimum
         bet = min_bet if min_bet is not None else checked_unit(unit, min_bet)
     else:
-        raise OddsbenchError(
-            f"--plan {plan.spelling!r}: with no goal the bet must stay bounded; use flat:B, timid, "
-            "martingale:B:K or paroli:B:K"
+        raise SettingProblem(
+            f"plan {plan.spelling!r}: with no goal the bet must stay bounded; use flat:B, timid, "
+            "martingale:B:K or paroli:B:K",
+            "plans",
         )
     return solve_no_goal_play(outcomes, bet, bankroll, check=check, **common)

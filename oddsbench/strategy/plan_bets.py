@@ -17,7 +17,7 @@ from oddsbench.strategy.plans import PROGRESSIONS, Plan
 
 
 def _units(plan: Plan, amount: Rational, grid: BankrollGrid) -> int:
-    return whole_units(f"--plan {plan.spelling!r}: bet", amount, grid.unit)
+    return whole_units(f"plan {plan.spelling!r}: bet", amount, grid.unit)
 
 
 def planned_bets(

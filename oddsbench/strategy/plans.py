@@ -33,7 +33,9 @@ from collections.abc import Iterable
 from dataclasses import dataclass
 from typing import TYPE_CHECKING
 
-from oddsbench.model.errors import OddsbenchError, shown_name
+from oddsbench.model.errors import SettingProblem, shown_name
+
+PLANS = "plans"  # the setting key of plan texts (``SettingProblem``): the CLI says --plan, the workbench its field
 
 if TYPE_CHECKING:  # the grammar stays light: the command line reads PLAN_HELP for its --help
     from oddsbench.model.numbers import Rational
@@ -89,7 +91,7 @@ def parse_plan(spelling: str, no_goal: bool = False) -> Plan:
     from oddsbench.model.expr import ExpressionError, evaluate_text
     from oddsbench.model.numbers import QQ, is_integer, text, to_int
 
-    named = f"--plan {shown_name(spelling)}"
+    named = f"plan {shown_name(spelling)}"
     parts = [part.strip() for part in spelling.strip().split(":")]
     kind, args = parts[0].lower(), parts[1:]
     known = ", ".join(name for name, _ in PLAN_HELP)
@@ -98,19 +100,21 @@ def parse_plan(spelling: str, no_goal: bool = False) -> Plan:
         try:
             number = evaluate_text(field)
         except ExpressionError as error:
-            raise OddsbenchError(f"{named}: {what}: {error}") from None
+            raise SettingProblem(f"{named}: {what}: {error}", PLANS) from None
         if number <= 0:
-            raise OddsbenchError(f"{named}: {what} must be more than 0, got {text(number)}")
+            raise SettingProblem(f"{named}: {what} must be more than 0, got {text(number)}", PLANS)
         return number
 
     def expect(count: int) -> None:
         if len(args) != count:
-            raise OddsbenchError(f"{named}: {kind} takes {count} value(s) after ':' (plans: {known})")
+            raise SettingProblem(f"{named}: {kind} takes {count} value(s) after ':' (plans: {known})", PLANS)
 
     if kind == "timid" and args:
-        raise OddsbenchError(
+        raise SettingProblem(
             f"{named}: timid takes no value: it always bets the table minimum "
-            "(set that with --min-bet, or use flat:B for a fixed bet of B)"
+            "(set that as the session's min_bet, or use flat:B for a fixed bet of B)",
+            PLANS,
+            "min_bet",
         )
     if kind in ("timid", "bold", "best"):
         expect(0)
@@ -126,20 +130,21 @@ def parse_plan(spelling: str, no_goal: bool = False) -> Plan:
         expect(1)
         fraction = value(args[0], "fraction")
         if fraction > 1:
-            raise OddsbenchError(f"{named}: fraction must be at most 1, got {text(fraction)}")
+            raise SettingProblem(f"{named}: fraction must be at most 1, got {text(fraction)}", PLANS)
         plan = Plan(spelling, kind, fraction)
     elif kind in PROGRESSIONS:
         expect(2)
         series = value(args[1], "series length")
         if not is_integer(series) or series > MAX_SERIES:
-            raise OddsbenchError(f"{named}: series length must be a whole number from 1 to {MAX_SERIES}")
+            raise SettingProblem(f"{named}: series length must be a whole number from 1 to {MAX_SERIES}", PLANS)
         plan = Plan(spelling, kind, value(args[0], "base bet"), to_int(series))
     else:
-        raise OddsbenchError(f"{named}: unknown plan (plans: {known})")
+        raise SettingProblem(f"{named}: unknown plan (plans: {known})", PLANS)
     if no_goal and not plan.plays_without_goal:
-        raise OddsbenchError(
+        raise SettingProblem(
             f"{named}: with no goal the bet must stay bounded; use {NO_GOAL_PLANS}"
-            + (" (bold play needs a goal to aim at)" if kind == "bold" else "")
+            + (" (bold play needs a goal to aim at)" if kind == "bold" else ""),
+            PLANS,
         )
     return plan
 

@@ -13,7 +13,8 @@
     [session]                                         # optional: sessions at every point
     bankroll = [10, 20]                               # bankroll, goal, floor, min_bet, max_bet, unit,
     goal = 40                                         # max_rounds: values or ranges (defaults from the
-    plan = ["flat:1", "bold"]                         # ruleset's [session]); plans default to timid, bold
+                                                      # ruleset's [session]); goal may be "none"
+    plan = ["flat:1", "bold"]                         # plans default to timid, bold
 
 The grid is the product of every axis, first axis slowest. Values are exact: integers, or text
 through the ruleset expression language (no names), never floats.
@@ -27,7 +28,14 @@ from dataclasses import dataclass
 from pathlib import Path
 from typing import Any
 
-from oddsbench.model.defaults import DEFAULT_PLANS, ROUND_EXACT_LIMIT, SESSION_SETTING_NAMES
+from oddsbench.model.defaults import (
+    DEFAULT_PLANS,
+    NO_GOAL,
+    NO_GOAL_DEFAULT_PLANS,
+    ROUND_EXACT_LIMIT,
+    SESSION_SETTING_NAMES,
+    is_no_goal,
+)
 from oddsbench.model.errors import Problem, RulesetError, shown_name
 from oddsbench.model.expr import ExpressionError, evaluate_text
 from oddsbench.model.file_read import FileRefused, read_text_capped
@@ -54,7 +62,7 @@ class Axis:
         return self.name if self.kind != "session" else f"session.{self.name}"
 
     def shown(self, value: Any) -> str:
-        if self.kind in ("param", "session") and not isinstance(value, int):
+        if self.kind in ("param", "session") and not isinstance(value, int | str):
             return text(value)
         return str(value)
 
@@ -153,7 +161,11 @@ def _session_axes(reader: _SpecReader, session: dict[str, Any], check_plan: Plan
         if name not in SESSION_SETTING_NAMES:
             reader.error(where, f"unknown setting (known: {', '.join(SESSION_SETTING_NAMES)}, plan)")
             continue
-        values = reader.values(raw if isinstance(raw, list | dict) else [raw], where)
+        listed = raw if isinstance(raw, list | dict) else [raw]
+        if name == "goal" and isinstance(listed, list) and any(is_no_goal(item) for item in listed):
+            values = _goals(reader, listed, where)
+        else:
+            values = reader.values(listed, where)
         if name == "max_rounds":
             if not all(is_integer(v) and v >= 1 for v in values):
                 reader.error(where, "must be whole numbers of rounds, at least 1")
@@ -161,7 +173,9 @@ def _session_axes(reader: _SpecReader, session: dict[str, Any], check_plan: Plan
             values = tuple(to_int(v) for v in values)
         if values:
             axes.append(Axis("session", name, values))
-    plans = session.get("plan", list(DEFAULT_PLANS))
+    goals = next((axis.values for axis in axes if axis.name == "goal"), ())
+    defaults = NO_GOAL_DEFAULT_PLANS if goals and all(goal == NO_GOAL for goal in goals) else DEFAULT_PLANS
+    plans = session.get("plan", list(defaults))
     listed = [plans] if isinstance(plans, str) else plans
     if not isinstance(listed, list) or not listed or not all(isinstance(p, str) for p in listed):
         reader.error("[session], plan", 'must be a plan or a list of plans such as ["flat:1", "bold"]')
@@ -173,6 +187,14 @@ def _session_axes(reader: _SpecReader, session: dict[str, Any], check_plan: Plan
             reader.error("[session], plan", str(error))
     axes.append(Axis("plan", "plan", tuple(listed)))
     return axes
+
+
+def _goals(reader: _SpecReader, listed: list[Any], where: str) -> tuple[Any, ...]:
+    """Goal values, ``"none"`` among them (play with no goal: until ruin), each other an exact amount."""
+    found = [
+        NO_GOAL if is_no_goal(item) else reader.exact(item, f"{where}, value {i}") for i, item in enumerate(listed, 1)
+    ]
+    return tuple(found) if None not in found else ()
 
 
 def read_sweep_spec(path: str | Path, check_plan: PlanCheck | None = None) -> SweepSpec:

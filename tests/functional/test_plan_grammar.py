@@ -13,10 +13,10 @@ from oddsbench.tui import analysis
 
 WHEEL = RULESETS / "single-zero-wheel.toml"
 BAD_PLANS = {
-    "timid:1/2": "--plan 'timid:1/2': timid takes no value: it always bets the table minimum",
-    "double": "--plan 'double': unknown plan",
-    "martingale:1:31": "--plan 'martingale:1:31': series length must be a whole number from 1 to 30",
-    "flat:0": "--plan 'flat:0': bet must be more than 0, got 0",
+    "timid:1/2": "plan 'timid:1/2': timid takes no value: it always bets the table minimum",
+    "double": "plan 'double': unknown plan",
+    "martingale:1:31": "plan 'martingale:1:31': series length must be a whole number from 1 to 30",
+    "flat:0": "plan 'flat:0': bet must be more than 0, got 0",
 }
 
 
@@ -43,7 +43,12 @@ def test_a_bad_plan_gets_the_same_line_from_every_command_and_the_workbench(caps
     lines["workbench"] = str(refused.value)
     for where, line in lines.items():
         assert expected in line, (where, line)
-    assert len({line.removeprefix("oddsbench: ") for where, line in lines.items() if where != "sweep"}) == 1
+    # the same words everywhere; the command line adds its option (the workbench shows the line
+    # beside its plans field)
+    said = {where: line.removeprefix("oddsbench: ").split(" (change with --plan")[0] for where, line in lines.items()}
+    assert len({text for where, text in said.items() if where != "sweep"}) == 1
+    commands = [line for where, line in lines.items() if where not in ("sweep", "workbench")]
+    assert all(line.endswith("--plan)") or line.endswith("--plan, --min-bet)") for line in commands), commands
 
 
 def test_the_acceptance_half_unit_flat_bet_solves_with_a_goal_and_with_none(capsys):

@@ -184,4 +184,4 @@ def test_an_unknown_session_setting_or_plan_is_refused(tmp_path, capsys):
     spec = write_spec(tmp_path, '[session]\nbankroll = [5]\ngoal = 10\nstyle = 1\nplan = ["double"]\n')
     assert main(["sweep", str(spec)]) == 2
     err = capsys.readouterr().err
-    assert "[session], style: unknown setting" in err and "[session], plan: --plan 'double': unknown plan" in err
+    assert "[session], style: unknown setting" in err and "[session], plan: plan 'double': unknown plan" in err

@@ -74,8 +74,8 @@ def test_timid_takes_no_value_with_the_same_line_with_a_goal_and_without(no_goal
     with pytest.raises(OddsbenchError) as refused:
         parse_plan("timid:1/2", no_goal=no_goal)
     assert str(refused.value) == (
-        "--plan 'timid:1/2': timid takes no value: it always bets the table minimum "
-        "(set that with --min-bet, or use flat:B for a fixed bet of B)"
+        "plan 'timid:1/2': timid takes no value: it always bets the table minimum "
+        "(set that as the session's min_bet, or use flat:B for a fixed bet of B)"
     )
 
 

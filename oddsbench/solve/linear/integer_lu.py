@@ -58,7 +58,7 @@ class ScaledVector:
 
     def weighted(self, weights: Sequence[Rational]) -> Rational:
         """sum_i weights[i] x[i], the weights' denominators cleared once."""
-        common = _common_denominator(weights)
+        common = common_denominator(weights)
         total = fmpz(0)
         for weight, x in zip(weights, self.numerators):
             if weight != 0:
@@ -76,7 +76,8 @@ def grouped_products(terms: Sequence[tuple[Rational, fmpz]]) -> Rational:
     return sum((weight * total for weight, total in sums.items()), QQ(0))
 
 
-def _common_denominator(values: Sequence[Rational]) -> fmpz:
+def common_denominator(values: Sequence[Rational]) -> fmpz:
+    """The least common multiple of the values' denominators, as a FLINT integer."""
     common = 1
     for value in values:
         denominator = int(QQ.denom(value))
@@ -117,7 +118,7 @@ class IntegerLU:
                 clock.poll(i)
             else:
                 clock.tick(i)
-            scale = _common_denominator(list(rows[i].values()))
+            scale = common_denominator(list(rows[i].values()))
             row = {j: (v * scale).p for j, v in rows[i].items() if v != 0}
             self.scale.append(scale)
             pending = [j for j in row if j < i]
@@ -197,7 +198,7 @@ class IntegerLU:
         size, pivots = self.size, self.pivots
         clock = self._clock()
         scaled = [QQ(b) * s for b, s in zip(rhs, self.scale)]
-        common = _common_denominator(scaled)
+        common = common_denominator(scaled)
         forward: list[fmpz] = []
         for i in range(size):
             clock.tick(i // 2)
@@ -216,7 +217,7 @@ class IntegerLU:
         denominator: the factors read as the transpose's, then the row scaling undone."""
         size, pivots = self.size, self.pivots
         clock = self._clock()
-        common = _common_denominator(rhs)
+        common = common_denominator(rhs)
         forward: list[fmpz] = []
         for i in range(size):
             clock.tick(i // 2)

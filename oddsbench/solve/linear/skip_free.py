@@ -151,21 +151,21 @@ def _span_stop(values: Scaled, start: int, stop: int) -> int:
     return start + int(over[0]) if over.size else stop
 
 
-def filtered(tails_over_q: np.ndarray, forcing: np.ndarray, length: int, normalise: bool = True) -> Scaled:
+def filtered(tails_over_q: np.ndarray, forcing: np.ndarray, length: int, as_floats: bool = False):
     """y(n) = sum_{i>=1} tails_over_q[i] y(n - i) + forcing[n], n = 0 .. length - 1 (y(<0) = 0).
 
     Coefficients and forcing are non-negative, so every output is a sum of positive terms. Blocks
     of ``block`` outputs at a time: the earlier outputs enter through one Toeplitz product, the
     block's own through its impulse response, both matrix products. Each block is rescaled by a
-    power of two (exact), so values may run far past the float range. ``normalise`` False leaves
-    each block's values unnormalised (value = mantissa * 2**exponent still), for callers that want floats.
+    power of two (exact), so values may run far past the float range. ``as_floats`` returns plain
+    floats instead (past the float range: inf or 0), written block by block with no exponent array.
     """
     top = len(tails_over_q) - 1
     growth = max(float(tails_over_q.sum()), 1.0)
     decay = float(tails_over_q[1]) if top else 1.0
     per_step = max(math.log2(growth), -math.log2(decay) if decay > 0 else 64.0, 1e-3)
     if top == 1:
-        return _first_order(float(tails_over_q[1]), forcing, length, per_step, normalise)
+        return _first_order(float(tails_over_q[1]), forcing, length, per_step, as_floats)
     block = int(max(1, min(SPAN_BITS / per_step, max(top, 512), length)))
     impulse = np.zeros(block)
     impulse[0] = 1.0
@@ -177,8 +177,7 @@ def filtered(tails_over_q: np.ndarray, forcing: np.ndarray, length: int, normali
     inside = np.where(gaps >= 0, impulse[np.clip(gaps, 0, block - 1)], 0.0)
     lags = index[:, None] + np.arange(1, top + 1)[None, :]  # output t sees y(start - m) through c_{t + m}
     carried = np.where(lags <= top, tails_over_q[np.clip(lags, 0, top)], 0.0)
-    values = np.zeros(length)
-    exponents = np.zeros(length, dtype=np.int64)
+    out_values = _Output(length, as_floats)
     history = np.zeros(top)  # y(start - 1), y(start - 2), ... in the current scale
     scale = 0  # values in this block are true values times 2**-scale
     for start in range(0, length, block):
@@ -187,14 +186,13 @@ def filtered(tails_over_q: np.ndarray, forcing: np.ndarray, length: int, normali
         with np.errstate(under="ignore"):
             drive = carried[:width] @ history + np.ldexp(forcing[start:stop], -scale)
         out = inside[:width, :width] @ drive
-        values[start:stop] = out
-        exponents[start:stop] = scale
+        out_values.put(start, stop, out, scale)
         shift = _top_exponent(out)
         recent = np.concatenate([out[::-1], history])[:top]
         with np.errstate(under="ignore"):
             history = np.ldexp(recent, -shift)
         scale += shift
-    return Scaled.of(values, exponents) if normalise else Scaled(values, exponents)
+    return out_values.result()
 
 
 def _top_exponent(values: np.ndarray) -> int:
@@ -202,7 +200,28 @@ def _top_exponent(values: np.ndarray) -> int:
     return math.frexp(largest)[1] if largest > 0 else 0
 
 
-def _first_order(ratio: float, forcing: np.ndarray, length: int, per_step: float, normalise: bool = True) -> Scaled:
+class _Output:
+    """Where ``filtered`` writes its blocks: scaled values (mantissa-like values and a power of two per
+    block, normalised at the end) or, for callers that want them, plain floats."""
+
+    def __init__(self, length: int, as_floats: bool) -> None:
+        self.as_floats = as_floats
+        self.values = np.zeros(length)
+        self.exponents = None if as_floats else np.zeros(length, dtype=np.int64)
+
+    def put(self, start: int, stop: int, out: np.ndarray, scale: int) -> None:
+        if self.as_floats:
+            with np.errstate(over="ignore", under="ignore"):
+                self.values[start:stop] = np.ldexp(out, min(max(scale, -2000), 2000))
+        else:
+            self.values[start:stop] = out
+            self.exponents[start:stop] = scale
+
+    def result(self):
+        return self.values if self.as_floats else Scaled.of(self.values, self.exponents)
+
+
+def _first_order(ratio: float, forcing: np.ndarray, length: int, per_step: float, as_floats: bool = False):
     """The recurrence with one coefficient, y(n) = ratio y(n - 1) + forcing(n), as cumulative sums:
     y(start + t) = ratio^t (ratio y(start - 1) + sum_{u <= t} ratio^-u forcing(start + u)); a block
     is as long as ratio^-t stays far inside the float range."""
@@ -210,8 +229,7 @@ def _first_order(ratio: float, forcing: np.ndarray, length: int, per_step: float
     powers = ratio ** np.arange(block, dtype=float)
     with np.errstate(divide="ignore", over="ignore"):
         inverse = 1.0 / powers
-    values = np.zeros(length)
-    exponents = np.zeros(length, dtype=np.int64)
+    out_values = _Output(length, as_floats)
     previous = 0.0  # y(start - 1) in the current scale
     scale = 0
     for start in range(0, length, block):
@@ -221,12 +239,11 @@ def _first_order(ratio: float, forcing: np.ndarray, length: int, per_step: float
             drive = np.ldexp(forcing[start:stop], -scale) * inverse[:width]
         drive[0] += ratio * previous
         out = powers[:width] * np.cumsum(drive)
-        values[start:stop] = out
-        exponents[start:stop] = scale
+        out_values.put(start, stop, out, scale)
         shift = _top_exponent(out)
         previous = math.ldexp(float(out[-1]), -shift)
         scale += shift
-    return Scaled.of(values, exponents) if normalise else Scaled(values, exponents)
+    return out_values.result()
 
 
 def _growth(size: int) -> float:
@@ -285,8 +302,7 @@ class SkipFreeFactors:
         cancellation; 0 where a band or sparse LU took over, whose error the caller checks by residual)."""
         rhs = np.asarray(rhs, dtype=float)
         if not self.walk.upward and rhs.ndim == 1 and (rhs >= 0).all():
-            x, bound = self._green(rhs)
-            worst = float(bound.max()) if len(bound) else 0.0
+            x, worst = self._green(rhs)
             if worst <= GREEN_TOLERANCE:
                 return x, worst
         return self.fallback().solve(rhs), 0.0
@@ -321,7 +337,7 @@ class SkipFreeFactors:
                 self._fallback = SuperLUFactors(walk_matrix(walk), "fill-reducing")
         return self._fallback
 
-    def _green(self, rhs: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    def _green(self, rhs: np.ndarray) -> tuple[np.ndarray, float]:
         """x = G rhs by the Green function. With D(m), m = size .. 0, the filtered sequence
         q D(k) = sum_i c_i D(k + i) + rhs(k), and its sums from below, L(s) = sum_{m <= s} D(m), and from
         above, Y(s) = sum_{m > s} D(m): x(s) = psi(s) L(s) - goal(s) Y(s), each end chance from its own
@@ -329,21 +345,23 @@ class SkipFreeFactors:
         rhs = np.asarray(rhs, dtype=float)
         n, q = self.size, self.walk.down
         if n == 0:
-            return rhs.copy(), np.zeros(0)
+            return rhs.copy(), 0.0
         psi, _ = self.bottom_chance()
         goal, _ = self.top_chance()
-        forcing = np.zeros(n + 1)
-        forcing[1:] = rhs[::-1] / q
-        d = self._floats(filtered(self._tails_over_q, forcing, n + 1, normalise=False))  # d[j] = D(size - j)
-        above = np.cumsum(d)[n - 1 :: -1]  # Y(s) = d[0] + ... + d[size - 1 - s], s = 0 .. size - 1
-        below = np.cumsum(d[::-1])[:n]  # L(s) = d[size - s] + ... + d[size]
-        first, second = psi * below, goal * above
+        forcing = np.empty(n + 1)
+        forcing[0] = 0.0
+        np.divide(rhs[::-1], q, out=forcing[1:])
+        d = filtered(self._tails_over_q, forcing, n + 1, as_floats=True)  # d[j] = D(size - j)
+        first = np.cumsum(d[::-1])[:n]  # L(s) = d[size - s] + ... + d[size], then psi(s) L(s)
+        first *= psi
+        second = np.cumsum(d)[n - 1 :: -1]  # Y(s) = d[0] + ... + d[size - 1 - s], then goal(s) Y(s)
+        second *= goal
         x = first - second
-        with np.errstate(divide="ignore", invalid="ignore"):
-            spread = (first + second) / x  # how much the one subtraction cancels, per level
-        bound = np.where(x > 0, spread, np.inf)
-        bound *= _growth(n)
-        return x, bound
+        if not (x > 0).all():
+            return x, math.inf
+        first += second  # how much the one subtraction cancels, per level: (first + second) / x
+        first /= x
+        return x, float(first.max()) * _growth(n)
 
     @staticmethod
     def _floats(values: Scaled) -> np.ndarray:
