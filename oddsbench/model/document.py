@@ -19,7 +19,7 @@ from typing import Any
 import tomlkit
 from tomlkit.exceptions import ParseError, TOMLKitError
 
-from oddsbench.model.document_base import DocumentError, OutcomeList
+from oddsbench.model.document_base import DocumentError, OutcomeList, deletion
 from oddsbench.model.document_families import FamilyEdits, as_template
 from oddsbench.model.document_outcomes import FAMILY_FIELDS, OUTCOME_FIELDS, OutcomeEdits, OutcomeRow
 from oddsbench.model.toml_edits import TEXT_FIELDS, multiline_array, rename_key, shown, value_item
@@ -127,6 +127,7 @@ class RulesetDocument(FamilyEdits, OutcomeEdits):
             raise DocumentError(f"a parameter named {name!r} already exists")
         params[name] = value_item(raw, name)
 
+    @deletion
     def delete_param(self, name: str) -> None:
         params = self._table("params")
         if params is None or name not in params:
@@ -180,6 +181,7 @@ class RulesetDocument(FamilyEdits, OutcomeEdits):
                     changed += _retarget(rows.row(index), *match)
         return changed + self._rename_state_entries(old, new)
 
+    @deletion
     def delete_state(self, name: str) -> int:
         """Delete a state and the strategy entries that name it; the count of entries removed."""
         if name not in self.state_names():

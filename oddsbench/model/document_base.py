@@ -8,13 +8,16 @@ TOML through ``model/toml_edits.py``, so only what is edited changes.
 
 from __future__ import annotations
 
+import functools
+from collections.abc import Callable
 from dataclasses import dataclass
-from typing import Any
+from typing import Any, TypeVar
 
 import tomlkit
 from tomlkit.items import Table
 
-from oddsbench.model.toml_edits import Rows, value_item
+from oddsbench.model.toml_edits import Rows, append_table, value_item
+from oddsbench.model.toml_tidy import tidy_removal
 
 MAX_NAME = 200
 OUTCOME_ORDER = ("each", "let", "when", "to", "prob", "pay", "stake", "note")
@@ -41,11 +44,38 @@ class OutcomeList:
         return f"{'family' if self.family else 'state'} {self.state!r}"
 
 
+Deletion = TypeVar("Deletion", bound=Callable[..., Any])
+
+
+def deletion(method: Deletion) -> Deletion:
+    """Marks an edit that deletes a table or an entry: once the outermost one ends, the blank lines
+    and comments around what went are tidied (``model/toml_tidy.py``), as a careful hand leaves them."""
+
+    @functools.wraps(method)
+    def tidied(self: DocumentBase, *args: Any, **kwargs: Any) -> Any:
+        if self._deleting:  # a deletion made by another (a state's strategy entries): tidied with it
+            return method(self, *args, **kwargs)
+        before = self.text()
+        self._deleting = True
+        try:
+            result = method(self, *args, **kwargs)
+        finally:
+            self._deleting = False
+        after = self.text()
+        tidy = tidy_removal(before, after)
+        if tidy != after:
+            self._doc = tomlkit.parse(tidy)
+        return result
+
+    return tidied  # type: ignore[return-value]
+
+
 class DocumentBase:
     """The TOML document and the lookups every edit needs; every failure is a ``DocumentError``."""
 
     def __init__(self, document: tomlkit.TOMLDocument) -> None:
         self._doc = document
+        self._deleting = False
 
     def text(self) -> str:
         return tomlkit.dumps(self._doc)
@@ -84,8 +114,9 @@ class DocumentBase:
     def _append_named(self, key: str, name: str, table: Any) -> None:
         """A new ``[key.name]`` table after the last piece of ``[key]`` (created at the end if missing)."""
         self._ensure_table(key, super_table=True)
-        table.add(tomlkit.nl())  # a blank line before whatever follows
-        self._parts(key)[-1].append(name, table)
+        piece = self._parts(key)[-1]
+        last = next((item for item_key, item in reversed(self._doc.body) if item_key is not None), None)
+        append_table(piece, name, table, last_in_file=last is piece)
 
     def _names(self, key: str) -> list[str]:
         table = self._table(key)

@@ -13,7 +13,7 @@ from typing import Any
 import tomlkit
 from tomlkit.items import AoT
 
-from oddsbench.model.document_base import DocumentError
+from oddsbench.model.document_base import DocumentError, deletion
 from oddsbench.model.document_strategies import StrategyEdits
 from oddsbench.model.toml_edits import Keys, container_of, inline_table, multiline_array
 
@@ -79,6 +79,7 @@ class ChoiceEdits(StrategyEdits):
             changed += self._rename_default(old, new)  # no other state offers it: the default follows
         return changed
 
+    @deletion
     def delete_action(self, name: str, action: str, family: bool = False) -> int:
         """Delete an action with its outcomes, and the strategy entries (or rules) that chose it."""
         actions = self.actions(name, family)

@@ -9,7 +9,7 @@ from __future__ import annotations
 
 import tomlkit
 
-from oddsbench.model.document_base import DocumentError
+from oddsbench.model.document_base import DocumentError, deletion
 from oddsbench.model.document_choices import ChoiceEdits
 from oddsbench.model.document_outcomes import keyed_rows, new_keyed_row, set_keyed_cell
 from oddsbench.model.toml_edits import Keys, inline_table, multiline_array, rename_key, shown, value_item
@@ -65,6 +65,7 @@ class FamilyEdits(ChoiceEdits):
         rename_key(self._holder("families", old), old, new)
         return self._edit_rules(old, None, lambda _, rows, index: rows.set(index, "family", new))
 
+    @deletion
     def delete_family(self, name: str) -> int:
         """Delete a family and the strategy rules over it; the count of rules removed."""
         self._family(name)
@@ -85,6 +86,7 @@ class FamilyEdits(ChoiceEdits):
         taken = {row[0] for row in self.family_part(name, "index")} if kind == "let" else set()
         return new_keyed_row(self._family_keys(name, kind), kind, taken)
 
+    @deletion
     def delete_family_part(self, name: str, kind: str, row: int) -> None:
         keys = self._family_keys(name, kind)
         names = keys.names()

@@ -13,7 +13,7 @@ from typing import Any
 import tomlkit
 from tomlkit.items import InlineTable
 
-from oddsbench.model.document_base import DocumentBase, DocumentError, OutcomeList
+from oddsbench.model.document_base import DocumentBase, DocumentError, OutcomeList, deletion
 from oddsbench.model.toml_edits import Keys, Rows, inline_table, pairs_of, shown, value_item
 
 OUTCOME_FIELDS = ("to", "prob", "pay", "stake", "note")
@@ -152,6 +152,7 @@ class OutcomeEdits(DocumentBase):
             fields.append(("prob", "0"))
         return rows.insert(count if after is None else after + 1, fields)
 
+    @deletion
     def delete_outcome(self, where: OutcomeList, index: int) -> None:
         rows = self._rows(where)
         self._outcome(rows, where, index)
@@ -202,6 +203,7 @@ class OutcomeEdits(DocumentBase):
         self._tidy(rows, index)
         return added
 
+    @deletion
     def delete_outcome_part(self, where: OutcomeList, index: int, kind: str, row: int) -> None:
         """Remove a row; an emptied ``each`` or ``let`` goes, and one case left without a condition
         becomes a plain ``to`` again."""

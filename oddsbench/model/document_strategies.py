@@ -12,7 +12,7 @@ from typing import Any
 
 import tomlkit
 
-from oddsbench.model.document_base import DocumentBase, DocumentError
+from oddsbench.model.document_base import DocumentBase, DocumentError, deletion
 from oddsbench.model.toml_edits import Keys, Rows, inline_table, multiline_array, plain, rename_key, shown, value_item
 
 RULE_FIELDS = ("family", "when", "action")
@@ -78,6 +78,7 @@ class StrategyEdits(DocumentBase):
             raise DocumentError(f"a strategy named {new!r} already exists")
         rename_key(self._holder("strategies", old), old, new)
 
+    @deletion
     def delete_strategy(self, name: str) -> None:
         self._strategy(name)
         del self._holder("strategies", name)[name]
@@ -108,6 +109,7 @@ class StrategyEdits(DocumentBase):
         self._rule(rows, name, index)
         rows.set(index, field, None if field == "when" and raw.strip() == "" else value_item(raw, field))
 
+    @deletion
     def delete_strategy_rule(self, name: str, index: int) -> None:
         rows = self._rules(name)
         self._rule(rows, name, index)

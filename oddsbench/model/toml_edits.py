@@ -15,7 +15,7 @@ from typing import Any
 
 import tomlkit
 from tomlkit.container import Container, OutOfOrderTableProxy
-from tomlkit.items import AoT, Array, InlineTable, Item, SingleKey, Table, Whitespace
+from tomlkit.items import AoT, Array, Comment, InlineTable, Item, SingleKey, Table, Whitespace
 
 TEXT_FIELDS = frozenset({"to", "note", "title", "about", "start", "result", "when", "state", "family", "action"})
 _WHOLE_NUMBER = re.compile(r"[+-]?\d{1,18}")
@@ -427,3 +427,29 @@ def _set_trailing(table: Table, text: str) -> None:
         body.pop()
     if text:
         body.append((None, Whitespace(text)))
+
+
+def append_table(parent: Any, name: str, table: Table, last_in_file: bool = False) -> None:
+    """``[parent.name]`` after the last table of ``parent``, spaced as its neighbours: the last table
+    keeps its own comments and gives the new one what stood after it (the blank line and the comment
+    above the next table, or nothing at the end of the file); one blank line goes between the two."""
+    previous = next((item for key, item in reversed(container_of(parent).body) if key is not None), None)
+    if not isinstance(previous, Table):
+        if not last_in_file:
+            table.add(tomlkit.nl())  # the first table of its kind: a blank line before whatever follows
+        parent.append(name, table)
+        return
+    body = previous.value.body
+    tail = len(body)
+    while tail > 0 and body[tail - 1][0] is None and isinstance(body[tail - 1][1], Whitespace | Comment):
+        tail -= 1
+    moved = tail
+    while moved < len(body) and not isinstance(body[moved][1], Whitespace):
+        moved += 1  # comments right under the last entry are the last table's own
+    if moved == len(body):
+        moved = tail  # no blank line: the comments stand right above the next table, and go with it
+    for item in [item for _, item in body[moved:]]:
+        table.add(item)
+    del body[moved:]
+    previous.add(tomlkit.ws("\n"))
+    parent.append(name, table)

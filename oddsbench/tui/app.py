@@ -228,16 +228,20 @@ class WorkbenchApp(App):
 
 def help_areas() -> list[tuple[str, list]]:
     """Every key by where it works, read from the bindings themselves (help and README agree with them)."""
+    from oddsbench.tui.widgets.deck_editor import CardCounts, DeckEditor
     from oddsbench.tui.widgets.figure_grid import FigureGrid
     from oddsbench.tui.widgets.navigator import Navigator
     from oddsbench.tui.widgets.setup_editor import ParamsEditor
     from oddsbench.tui.widgets.state_editor import OutcomeTable
+    from oddsbench.tui.widgets.strategy_editor import StrategyTable
 
     return [
         ("Everywhere", list(WorkbenchApp.BINDINGS) + list(WorkbenchScreen.BINDINGS)),
         ("State list (left)", list(Navigator.BINDINGS)),
         ("Outcome table", list(OutcomeTable.BINDINGS)),
+        ("Strategy table", list(StrategyTable.BINDINGS)),
         ("Parameters", list(ParamsEditor.BINDINGS)),
+        ("Deck", list(CardCounts.BINDINGS) + list(DeckEditor.BINDINGS)),
         ("Tables of figures (Round, Strategies, Sessions, Simulation, Horizon)", list(FigureGrid.BINDINGS)),
         (
             "Fields",

@@ -2,7 +2,11 @@
 
 from __future__ import annotations
 
+import io
+
 import pytest
+from rich.console import Console
+from textual.widgets import Static
 
 from oddsbench.model.load import read_ruleset_text
 from oddsbench.tui.screens.dialogs import Choose
@@ -185,8 +189,11 @@ async def test_help_lists_the_keys(tmp_path):
         await settle(pilot)
         await pilot.press("f1")
         await pilot.pause()
-        shown = "".join(str(w.render()) for w in app.screen.query("Static"))
-        for words in ("Ctrl+S", "Save", "Ctrl+Z", "Undo", "Add outcome", "Rename", "F3"):
+        console = Console(width=100, record=True, color_system=None, file=io.StringIO())
+        for widget in app.screen.query(Static):
+            console.print(widget.content)
+        shown = console.export_text()
+        for words in ("Ctrl+S", "Save", "Ctrl+Z", "Undo", "Add outcome", "Rename", "F3", "Rule earlier"):
             assert words in shown
 
 

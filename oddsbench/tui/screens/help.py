@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+from rich.console import Group
+from rich.table import Table
 from rich.text import Text
 from textual.app import ComposeResult
 from textual.binding import Binding
@@ -14,6 +16,12 @@ from oddsbench.report.cautions import CAUTIONS
 KEY_NAMES = {
     "left_square_bracket": "[",
     "right_square_bracket": "]",
+    "less_than_sign": "<",
+    "greater_than_sign": ">",
+    "minus": "-",
+    "plus": "+",
+    "equals_sign": "=",
+    "space": "Space",
     "question_mark": "?",
     "escape": "Esc",
     "delete": "Del",
@@ -37,17 +45,19 @@ def key_text(keys: str) -> str:
     return " / ".join(shown)
 
 
-def bindings_text(areas: list[tuple[str, list]]) -> Text:
-    text = Text()
+def bindings_text(areas: list[tuple[str, list]]) -> Group:
+    """Each area's keys in two columns: a long description wraps in its own column, under itself."""
+    parts = []
     for area, bindings in areas:
-        text.append(f"{area}\n", style="bold underline")
+        parts.append(Text(area, style="bold underline"))
+        keys = Table.grid(padding=(0, 2), pad_edge=True)
+        keys.add_column(min_width=20, style="bold cyan", no_wrap=True)
+        keys.add_column(ratio=1)
         for binding in bindings:
-            if not isinstance(binding, Binding) or not binding.description:
-                continue
-            text.append(f"  {key_text(binding.key):<22}", style="bold cyan")
-            text.append(f"{binding.description}\n")
-        text.append("\n")
-    return text
+            if isinstance(binding, Binding) and binding.description:
+                keys.add_row(key_text(binding.key), Text(binding.description))
+        parts += [keys, Text("")]
+    return Group(*parts)
 
 
 class HelpScreen(ModalScreen[None]):

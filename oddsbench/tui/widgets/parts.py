@@ -121,6 +121,7 @@ class PartsGroup(Vertical):
         self.rows: tuple[tuple[str, ...], ...] = ()
         self.problems: dict[int | None, list[Problem]] = {}
         self.built = -1
+        self.built_rows: list[PartRow] = []  # the rows of the last build (older ones may still be going)
         self.pending_focus: int | None = None  # a row just asked for: focused once it is there
 
     def compose(self) -> ComposeResult:
@@ -135,7 +136,7 @@ class PartsGroup(Vertical):
         self.problems = problems or {}
         if len(rows) != self.built:
             self._build()
-        for row in self.query(PartRow).results(PartRow):
+        for row in self.built_rows:  # not the rows of an older build still being removed
             if row.index < len(rows):
                 row.fill(rows[row.index], self.problems.get(row.index, []))
         general = self.problems.get(None, [])
@@ -154,6 +155,7 @@ class PartsGroup(Vertical):
         if rows:
             self.mount_all(rows, before=add_row)
         self.built = len(self.rows)
+        self.built_rows = rows
 
     def focus_row(self, row: int) -> None:
         """Focus a row's first cell, now or as soon as the row is built (after the edit that adds it)."""
