@@ -8,14 +8,14 @@ never shortening an exact value that fits; the workbench only passes its width.
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from typing import TYPE_CHECKING
 
 from oddsbench.model.figure import Figure
 from oddsbench.model.numbers import text, to_float
 from oddsbench.report.meanings import meaning
 from oddsbench.report.numbers_text import figure_decimal_text, fit_exact
-from oddsbench.report.round_report import figure_items, hand_rows, is_percent
+from oddsbench.report.round_report import figure_items, hand_rows, irrational_cell, is_percent
 
 if TYPE_CHECKING:  # result types only: the core (and the engines behind it) load when a question is asked
     from oddsbench.core.results import RoundFigures
@@ -98,11 +98,19 @@ def row(key: str, label: str, cells, meaning_key: str | None = None) -> FigureRo
 
 def round_table(figures: RoundFigures, column: str = "value") -> FigureTable:
     """One round's figures, end-state chances and result totals (win, loss, push), one column."""
-    rows = [row(key, label, (shown(f, is_percent(key)),)) for key, label, f in figure_items(figures)]
+    rows = [row(key, label, (_round_cell(key, f, figures),)) for key, label, f in figure_items(figures)]
     for index, (label, count, share) in enumerate(hand_rows(figures)):  # a single draw: its hands counted
         key = "hands" if index == 0 else "hands_ending"
         rows.append(row(key, label, (Shown(count, share),)))
     return FigureTable((column,), tuple(rows))
+
+
+def _round_cell(key: str, figure: Figure, figures: RoundFigures) -> Shown | None:
+    """A round figure's cell; a square root with no rational value says ``irrational``, not ``-``
+    (which reads as a minus sign)."""
+    cell = shown(figure, is_percent(key))
+    why = irrational_cell(key, figures)
+    return cell if cell is None or why is None else replace(cell, exact=why)
 
 
 def net_law_table(figures: RoundFigures) -> FigureTable:

@@ -56,3 +56,20 @@ def test_headers_are_whole_where_the_width_allows():
     narrow = fit_table(wide, 40)
     assert any(header.endswith("…") for header in narrow.headers[1:])
     assert [row[1] for row in narrow.rows] == ["8.14179"]
+
+
+def test_the_pass_lines_standard_deviation_is_said_irrational_not_a_dash():
+    # Pass line: net variance 1 - (7/495)^2 = 244976/245025 (first principles from the house edge
+    # 7/495, Ethier 2010), not a square: its root has no exact cell, and "-" would read as minus.
+    from pathlib import Path
+
+    from oddsbench.core import load_game, make_settings, round_figures
+    from oddsbench.report.figure_table import round_table
+
+    game = load_game(Path(__file__).resolve().parents[2] / "rulesets" / "pass-line.toml")
+    figures = round_figures(game, make_settings()).columns[0].figures
+    cells = {row.key: row.cells[0] for row in round_table(figures).rows}
+    assert cells["net_variance"].exact == "244976/245025"
+    assert cells["net_sd"].exact == "irrational" and cells["net_sd"].decimal == "0.9999"
+    fitted = fit_table(round_table(figures), 80)
+    assert not any(row[0] == "net sd per unit staked" and row[1].startswith("-") for row in fitted.rows)
