@@ -35,9 +35,9 @@ class SimulationPanel(VerticalScroll):
     def compose(self) -> ComposeResult:
         with Horizontal(classes="field-row", id="sim-fields"):
             yield Label("trials", classes="field-label")
-            yield Field("trials", "default", id="sim-trials")
+            yield Field("trials", "default", moves_on_enter=False, id="sim-trials")
             yield Label("seed", classes="field-label sim-label")
-            yield Field("seed", "fresh", id="sim-seed")
+            yield Field("seed", "fresh", moves_on_enter=False, id="sim-seed")
             yield Label("sessions", classes="field-label sim-label")
             yield Switch(False, id="sim-sessions")
         yield Static("", id="sim-message", classes="field-message")
