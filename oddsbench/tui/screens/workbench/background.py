@@ -136,3 +136,11 @@ class Comparison:
         else:
             self.result = result
         return True
+
+    def refused(self, key: object) -> bool:
+        """The job for ``key`` ended in a refusal that asking again would repeat: the last result stays
+        and these inputs are not asked for again until they change. True when the view changes."""
+        if key != self.key:
+            return False
+        self.busy = False
+        return True

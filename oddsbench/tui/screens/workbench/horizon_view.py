@@ -47,12 +47,11 @@ class HorizonViews:
 
     def _horizon_done(self, key: tuple, result) -> None:
         comparison = self.horizon_comparison
-        if isinstance(result, RoundsRefused) and key == comparison.key:
+        if isinstance(result, RoundsRefused):
             # the core refused these rounds (too many values for the law): the last good figures stay
-            comparison.ended(key, None)
-            comparison.key = key  # not asked again until the rounds (or the text) change
-            self.query_one(HorizonPanel).show_rounds_problem(result.message)
-            self._show_horizon()
+            if comparison.refused(key):
+                self.query_one(HorizonPanel).show_rounds_problem(result.message)
+                self._show_horizon()
             return
         if key == comparison.key:
             self.horizon_cancelled = result is None
